@@ -1,0 +1,2 @@
+// Placeholder until the first benchmark lands.
+console.log('No benchmarks yet.');

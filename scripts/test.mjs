@@ -1,0 +1,37 @@
+// Runs the type checks and every vitest suite, then prints the plain "N passed, N failed" line CI reads.
+import { spawnSync } from 'node:child_process';
+import { readFileSync, rmSync, existsSync } from 'node:fs';
+
+const extra = process.argv.slice(2);
+let failed = 0;
+let passed = 0;
+
+function run(cmd, args) {
+  const r = spawnSync(cmd, args, { stdio: 'inherit', shell: false });
+  return r.status === 0;
+}
+
+for (const project of ['tsconfig.json', 'tsconfig.core.json']) {
+  console.log(`\n# type check (${project})`);
+  if (run('npx', ['tsc', '--noEmit', '-p', project])) passed += 1;
+  else failed += 1;
+}
+
+const report = '.vitest-report.json';
+rmSync(report, { force: true });
+console.log('\n# vitest');
+run('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile=${report}`, ...extra]);
+if (existsSync(report)) {
+  const r = JSON.parse(readFileSync(report, 'utf8'));
+  passed += r.numPassedTests;
+  failed += r.numFailedTests;
+  // A suite that fails to load has no tests counted; count it as one failure.
+  for (const f of r.testResults ?? []) {
+    if (f.status === 'failed' && (f.assertionResults ?? []).length === 0) failed += 1;
+  }
+} else {
+  console.error('vitest wrote no report');
+  failed += 1;
+}
+console.log(`\n${passed} passed, ${failed} failed`);
+process.exit(failed === 0 && passed > 0 ? 0 : 1);

@@ -1,0 +1,114 @@
+// The tuning document: everything a designer tunes, as one JSON-serialisable value.
+import type { Celsius, Cents, Decibels, Hz, Meters, MetersPerSecond, Seconds } from '../units';
+
+/** Interpolation between curve keys: straight lines, or Fritsch–Carlson monotone cubic. */
+export type CurveInterpolation = 'linear' | 'monotone';
+
+/** One curve key; x is the time scale (0…maxTimeScale), y the curve's unit. */
+export interface CurveKey {
+  readonly x: number;
+  readonly y: number;
+}
+
+/** A curve of the time scale: keys sorted by strictly increasing x, at least one key. */
+export interface CurveSpec {
+  readonly interpolation: CurveInterpolation;
+  readonly keys: readonly CurveKey[];
+}
+
+/**
+ * How a group reacts to the time scale.
+ * - 'follow-time': speed and pitch follow the pitch curve; tone and level curves apply.
+ * - 'exempt': untouched by the time scale (interface sounds).
+ * - 'tone-only': speed unchanged; tone and level curves apply (music).
+ */
+export type GroupPolicy = 'follow-time' | 'exempt' | 'tone-only';
+
+/** Tuning of one group of sounds. */
+export interface GroupTuning {
+  readonly policy: GroupPolicy;
+  /** time scale → speed multiplier (1 = unchanged), range (0, 4]. */
+  readonly pitch: CurveSpec;
+  /** time scale → low-pass cutoff in Hz; at or above 20 kHz the filter is bypassed. */
+  readonly tone: CurveSpec;
+  /** time scale → level in dB (0 = unchanged). */
+  readonly level: CurveSpec;
+  /** Whether voices of this group get the Doppler shift. */
+  readonly doppler: boolean;
+  /** Stealing priority: higher survives longer; integer 0…255. */
+  readonly priority: number;
+}
+
+/** Easing of a time-scale transition. */
+export type Easing = 'linear' | 'smooth' | 'exponential';
+
+/** Which clock velocities are measured in. 'wall': physical; 'game': wall velocity ÷ time scale. */
+export type VelocityClock = 'wall' | 'game';
+
+/** Web Audio API distance models (PannerNode.distanceModel). */
+export type DistanceModel = 'linear' | 'inverse' | 'exponential';
+
+/** Resampler quality tier names (see src/dsp). */
+export type QualityTierName = 'draft' | 'standard' | 'high';
+
+/** The whole tuning document (schema version 1). */
+export interface Tuning {
+  readonly version: number;
+  readonly air: {
+    /** Air temperature, −50…60 °C; gives the speed of sound when speedOfSound is null. */
+    readonly temperatureCelsius: Celsius;
+    /** Explicit speed of sound override in m/s (1…10000), or null to derive from temperature. */
+    readonly speedOfSound: MetersPerSecond | null;
+  };
+  readonly doppler: {
+    /** Scales the Doppler effect (OpenAL's DOPPLER_FACTOR), 0…10; 0 disables it. */
+    readonly factor: number;
+    /** Largest shift allowed each way, in cents, 0…2400. */
+    readonly maxShiftCents: Cents;
+    /** Smoothing time constant for the Doppler ratio, 0…2 s. */
+    readonly smoothingSeconds: Seconds;
+    /** Clock velocities are measured in. */
+    readonly velocityClock: VelocityClock;
+    /** Velocity estimator smoothing time constant, 0…2 s. */
+    readonly velocitySmoothingSeconds: Seconds;
+    /** Implied speeds above this are teleports (estimator resets), 1…100000 m/s. */
+    readonly teleportSpeed: MetersPerSecond;
+  };
+  readonly distance: {
+    readonly model: DistanceModel;
+    readonly refDistance: Meters;
+    readonly maxDistance: Meters;
+    readonly rolloffFactor: number;
+  };
+  readonly timeFlow: {
+    /** Time scale that the slow-motion control ramps to, 0…1. */
+    readonly slowMotionScale: number;
+    /** Ramp time into slow motion, 0…10 s. */
+    readonly rampInSeconds: Seconds;
+    /** Ramp time out of slow motion, 0…10 s. */
+    readonly rampOutSeconds: Seconds;
+    readonly easing: Easing;
+  };
+  readonly smoothing: {
+    /** Time constant for per-voice ratio changes (smoothed in cents), 0…1 s. */
+    readonly ratioSeconds: Seconds;
+    /** Time constant for cutoff changes (smoothed in log frequency), 0…1 s. */
+    readonly cutoffSeconds: Seconds;
+    /** Time constant for gain changes (smoothed in dB), 0…1 s. */
+    readonly gainSeconds: Seconds;
+  };
+  readonly resampler: { readonly tier: QualityTierName };
+  readonly master: {
+    /** Safety limiter on the master bus; on by default. */
+    readonly limiter: boolean;
+    /** Limiter ceiling in dBFS, −24…0. */
+    readonly ceilingDb: Decibels;
+    /** Master gain in dB, −60…12. */
+    readonly gainDb: Decibels;
+  };
+  /** Groups by name (names match /^[A-Za-z][A-Za-z0-9_-]{0,63}$/). */
+  readonly groups: { readonly [name: string]: GroupTuning };
+}
+
+/** Cutoff at or above which the dilation-tone low-pass is bypassed. */
+export const OPEN_CUTOFF_HZ: Hz = 20000;
