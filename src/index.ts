@@ -2,3 +2,4 @@
 export type { Hz, Seconds, Cents, Decibels, MetersPerSecond, Meters, Celsius, Vec3Like } from './units';
 export type * from './tuning/tuning-types';
 export type * from './dilation/snapshot-types';
+export type * from './engine/engine-types';
