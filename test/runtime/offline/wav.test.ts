@@ -1,0 +1,106 @@
+import { describe, expect, it } from 'vitest';
+import { readWav, writeWav, WavError, type WavEncoding } from '../../../runtime/offline/wav';
+
+// Builds a canonical 44-byte-header WAV by hand (RIFF WAVE layout, Microsoft/IBM Multimedia
+// Programming Interface and Data Specifications 1.0, 1991 — field order from memory).
+function handMade(format: number, channels: number, rate: number, bits: number, data: number[], extensible = false): Uint8Array {
+  const fmtSize = extensible ? 40 : 16;
+  const bytes = new Uint8Array(12 + 8 + fmtSize + 8 + data.length);
+  const v = new DataView(bytes.buffer);
+  const put = (o: number, s: string) => [...s].forEach((ch, i) => v.setUint8(o + i, ch.charCodeAt(0)));
+  put(0, 'RIFF');
+  v.setUint32(4, bytes.length - 8, true);
+  put(8, 'WAVE');
+  put(12, 'fmt ');
+  v.setUint32(16, fmtSize, true);
+  v.setUint16(20, extensible ? 0xfffe : format, true);
+  v.setUint16(22, channels, true);
+  v.setUint32(24, rate, true);
+  v.setUint32(28, (rate * channels * bits) / 8, true);
+  v.setUint16(32, (channels * bits) / 8, true);
+  v.setUint16(34, bits, true);
+  if (extensible) {
+    v.setUint16(36, 22, true);
+    v.setUint16(38, bits, true);
+    v.setUint32(40, 3, true);
+    v.setUint16(44, format, true);
+  }
+  const d = 20 + fmtSize;
+  put(d, 'data');
+  v.setUint32(d + 4, data.length, true);
+  data.forEach((b, i) => v.setUint8(d + 8 + i, b));
+  return bytes;
+}
+
+describe('readWav', () => {
+  it('decodes hand-made 16-bit PCM little-endian samples (full scale −32768 → −1)', () => {
+    const wav = readWav(handMade(1, 2, 44100, 16, [0xff, 0x7f, 0x00, 0x80, 0x00, 0x40, 0x00, 0x00]));
+    expect(wav.sampleRate).toBe(44100);
+    expect(wav.encoding).toBe('pcm16');
+    expect(Array.from(wav.channels[0])).toEqual([32767 / 32768, 0.5]);
+    expect(Array.from(wav.channels[1])).toEqual([-1, 0]);
+  });
+
+  it('decodes hand-made 24-bit PCM with sign extension', () => {
+    const wav = readWav(handMade(1, 1, 48000, 24, [0x00, 0x00, 0x80, 0xff, 0xff, 0x7f, 0x00, 0x00, 0x40]));
+    expect(Array.from(wav.channels[0])).toEqual([-1, 8388607 / 8388608, 0.5]);
+  });
+
+  it('decodes 32-bit float inside a WAVE_FORMAT_EXTENSIBLE header', () => {
+    const f = new Uint8Array(new Float32Array([0.25, -0.75]).buffer);
+    const wav = readWav(handMade(3, 1, 96000, 32, Array.from(f), true));
+    expect(wav.encoding).toBe('float32');
+    expect(Array.from(wav.channels[0])).toEqual([0.25, -0.75]);
+  });
+
+  it.each([
+    ['8-bit PCM', handMade(1, 1, 8000, 8, [128, 129]), /8-bit integer PCM/],
+    ['64-bit float', handMade(3, 1, 8000, 64, new Array(16).fill(0)), /64-bit float/],
+    ['A-law', handMade(6, 1, 8000, 8, [0, 0]), /format tag 6/],
+  ])('refuses %s with an unsupported-encoding message', (_name, bytes, pattern) => {
+    expect(() => readWav(bytes)).toThrow(WavError);
+    expect(() => readWav(bytes)).toThrow(pattern);
+  });
+
+  it.each([
+    ['an empty file', new Uint8Array(0), /not a WAV file/],
+    ['a text file', new TextEncoder().encode('hello, this is not audio at all'), /RIFF\/WAVE/],
+    ['a file cut inside the data', handMade(1, 1, 8000, 16, [1, 2, 3, 4]).slice(0, 46), /truncated/],
+    ['a file cut inside the fmt chunk', handMade(1, 1, 8000, 16, [1, 2]).slice(0, 24), /fmt/],
+  ])('refuses %s with a clear message', (_name, bytes, pattern) => {
+    expect(() => readWav(bytes)).toThrow(WavError);
+    expect(() => readWav(bytes)).toThrow(pattern);
+  });
+});
+
+describe('writeWav', () => {
+  const signal = [new Float32Array([0, 0.5, -0.5, 0.999, -1, 0.123456]), new Float32Array([1, -1, 0.25, 0, 0.3, -0.3])];
+  it.each<[WavEncoding, number]>([
+    ['pcm16', 1 / 32768],
+    ['pcm24', 1 / 8388608],
+    ['float32', 0],
+  ])('round-trips %s within half a quantisation step', (encoding, step) => {
+    const back = readWav(writeWav({ sampleRate: 22050, channels: signal, encoding }));
+    expect(back.encoding).toBe(encoding);
+    expect(back.sampleRate).toBe(22050);
+    for (let c = 0; c < 2; c++)
+      for (let i = 0; i < signal[c].length; i++) {
+        // +1 clamps to the largest code, 1 − step.
+        expect(Math.abs(back.channels[c][i] - signal[c][i])).toBeLessThanOrEqual(step === 0 ? 0 : step + 1e-12);
+      }
+  });
+
+  it('writes the canonical 44-byte header followed by the data', () => {
+    const bytes = writeWav({ sampleRate: 8000, channels: [new Float32Array(3)], encoding: 'pcm16' });
+    expect(bytes.length).toBe(44 + 6);
+    const v = new DataView(bytes.buffer);
+    expect(v.getUint32(4, true)).toBe(bytes.length - 8);
+    expect(v.getUint32(28, true)).toBe(16000); // byte rate = rate × block align
+    expect(v.getUint32(40, true)).toBe(6);
+  });
+
+  it('clamps integer encodings and writes NaN as silence', () => {
+    const back = readWav(writeWav({ sampleRate: 8000, channels: [new Float32Array([4, -4, NaN])], encoding: 'pcm16' }));
+    expect(Array.from(back.channels[0])).toEqual([32767 / 32768, -1, 0]);
+  });
+});
