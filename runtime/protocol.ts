@@ -1,0 +1,265 @@
+// Messages between the main thread and the worklet processor, over the AudioWorkletNode's MessagePort.
+// Commands go main → worklet, reports come back; snapshots travel as flat Float64Arrays (cheap to clone).
+import type {
+  EngineSnapshot,
+  EngineStats,
+  PlayOptions,
+  Seconds,
+  SourceState,
+  TimeScaleRequest,
+  Tuning,
+  VoiceMonitor,
+} from '../src/index';
+
+/** Name the processor is registered under. */
+export const PROCESSOR_NAME = 'ralenti-processor';
+
+/** Options handed to the processor's constructor through AudioWorkletNodeOptions.processorOptions. */
+export interface ProcessorOptions {
+  /** Voice pool size, 1…1024. */
+  capacity: number;
+  /** Sound slots, 1…4096. */
+  maxSounds: number;
+  /** A tuning already validated on the main thread. */
+  tuning: Tuning;
+  /** Interval between stats reports in seconds of rendered audio (0.05…10). */
+  statsIntervalSeconds: Seconds;
+}
+
+/** Upload a decoded sound; the channel buffers are transferred, not copied. */
+export interface AddSoundCommand {
+  type: 'add-sound';
+  /** Main-thread sound handle. */
+  sound: number;
+  channels: Float32Array[];
+  sampleRate: number;
+}
+/** Drop a sound; voices still playing it stop. */
+export interface RemoveSoundCommand {
+  type: 'remove-sound';
+  sound: number;
+}
+/** Start a voice; `voice` is a main-thread handle chosen by the sender. */
+export interface PlayCommand {
+  type: 'play';
+  voice: number;
+  sound: number;
+  options: PlayOptions;
+}
+/** Stop a voice, optionally with a fade. */
+export interface StopCommand {
+  type: 'stop';
+  voice: number;
+  fadeSeconds?: Seconds;
+}
+/** Change a voice's gain and/or base ratio. */
+export interface SetVoiceCommand {
+  type: 'set-voice';
+  voice: number;
+  gain?: number;
+  ratio?: number;
+}
+/** One gameplay snapshot, encoded by encodeSnapshot; its time is context time. */
+export interface SnapshotCommand {
+  type: 'snapshot';
+  data: Float64Array;
+}
+/** Ramp the time scale; request.startTime, when present, is context time. */
+export interface TimeScaleCommand {
+  type: 'time-scale';
+  request: TimeScaleRequest;
+}
+/** Replace the tuning (already validated on the main thread). */
+export interface TuningCommand {
+  type: 'tuning';
+  tuning: Tuning;
+}
+/** Ask for a 'synced' report once every earlier command has been handled. */
+export interface SyncCommand {
+  type: 'sync';
+  id: number;
+}
+
+/** Everything the main thread sends. */
+export type Command =
+  | AddSoundCommand
+  | RemoveSoundCommand
+  | PlayCommand
+  | StopCommand
+  | SetVoiceCommand
+  | SnapshotCommand
+  | TimeScaleCommand
+  | TuningCommand
+  | SyncCommand;
+
+/** The processor is constructed and its engine is running. */
+export interface ReadyReport {
+  type: 'ready';
+  sampleRate: number;
+  capacity: number;
+}
+/** Periodic counters and voice monitors; VoiceMonitor.voice holds main-thread voice handles (−1 if unknown). */
+export interface StatsReport {
+  type: 'stats';
+  /** Context time at the end of the reported render quantum. */
+  contextTime: Seconds;
+  stats: EngineStats;
+  voices: VoiceMonitor[];
+}
+/** Something failed on the audio thread; it was caught, counted and the output kept safe. */
+export interface ErrorReport {
+  type: 'error';
+  /** Where it happened: 'process', 'command', 'construct'. */
+  where: string;
+  message: string;
+  /** Errors counted so far on the audio thread. */
+  count: number;
+}
+/** Answer to a SyncCommand. */
+export interface SyncedReport {
+  type: 'synced';
+  id: number;
+  contextTime: Seconds;
+}
+
+/** Everything the worklet sends back. */
+export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport;
+
+/** Transferable buffers of a command (the sound's channel buffers), for postMessage's transfer list. */
+export function commandTransfer(command: Command): Transferable[] {
+  if (command.type === 'add-sound') return command.channels.map((c) => c.buffer as ArrayBuffer);
+  if (command.type === 'snapshot') return [command.data.buffer as ArrayBuffer];
+  return [];
+}
+
+const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null;
+const isHandle = (v: unknown): v is number => typeof v === 'number' && Number.isInteger(v) && v >= 0;
+const isOptionalNumber = (v: unknown): boolean => v === undefined || typeof v === 'number';
+
+/**
+ * Checks the shape of a received command; returns it typed, or a message saying what is wrong.
+ * Values inside (gains, ratios, times) are range-checked by the engine, which clamps and counts.
+ */
+export function decodeCommand(data: unknown): Command | string {
+  if (!isObject(data) || typeof data.type !== 'string') return 'command: expected an object with a string "type"';
+  switch (data.type) {
+    case 'add-sound': {
+      const ch = data.channels;
+      if (!isHandle(data.sound)) return 'add-sound.sound: expected a handle';
+      if (!Array.isArray(ch) || ch.length < 1 || ch.length > 2 || !ch.every((c) => c instanceof Float32Array))
+        return 'add-sound.channels: expected 1 or 2 Float32Arrays';
+      if (ch.some((c) => c.length !== ch[0].length || c.length === 0)) return 'add-sound.channels: expected equal non-zero lengths';
+      if (typeof data.sampleRate !== 'number' || !(data.sampleRate >= 1000 && data.sampleRate <= 768000))
+        return 'add-sound.sampleRate: expected 1000…768000 Hz';
+      return data as unknown as AddSoundCommand;
+    }
+    case 'remove-sound':
+      return isHandle(data.sound) ? (data as unknown as RemoveSoundCommand) : 'remove-sound.sound: expected a handle';
+    case 'play':
+      if (!isHandle(data.voice)) return 'play.voice: expected a handle';
+      if (!isHandle(data.sound)) return 'play.sound: expected a handle';
+      if (!isObject(data.options)) return 'play.options: expected an object';
+      return data as unknown as PlayCommand;
+    case 'stop':
+      if (!isHandle(data.voice)) return 'stop.voice: expected a handle';
+      if (!isOptionalNumber(data.fadeSeconds)) return 'stop.fadeSeconds: expected a number';
+      return data as unknown as StopCommand;
+    case 'set-voice':
+      if (!isHandle(data.voice)) return 'set-voice.voice: expected a handle';
+      if (!isOptionalNumber(data.gain)) return 'set-voice.gain: expected a number';
+      if (!isOptionalNumber(data.ratio)) return 'set-voice.ratio: expected a number';
+      return data as unknown as SetVoiceCommand;
+    case 'snapshot':
+      if (!(data.data instanceof Float64Array)) return 'snapshot.data: expected a Float64Array';
+      if (snapshotSourceCount(data.data) < 0) return 'snapshot.data: malformed encoding';
+      return data as unknown as SnapshotCommand;
+    case 'time-scale': {
+      const r = data.request;
+      if (!isObject(r) || typeof r.target !== 'number' || typeof r.rampSeconds !== 'number' || typeof r.easing !== 'string')
+        return 'time-scale.request: expected { target, rampSeconds, easing }';
+      if (!isOptionalNumber(r.startTime)) return 'time-scale.request.startTime: expected a number';
+      return data as unknown as TimeScaleCommand;
+    }
+    case 'tuning':
+      return isObject(data.tuning) ? (data as unknown as TuningCommand) : 'tuning.tuning: expected an object';
+    case 'sync':
+      return isHandle(data.id) ? (data as unknown as SyncCommand) : 'sync.id: expected a handle';
+    default:
+      return `command: unknown type "${String(data.type)}"`;
+  }
+}
+
+/** Encoding version stored in the first slot of a snapshot. */
+export const SNAPSHOT_VERSION = 1;
+/** Slots before the first source: version, time, listener position, forward, up, has-velocity, velocity, count. */
+export const SNAPSHOT_HEADER = 16;
+/** Slots per source: id, position, has-velocity, velocity. */
+export const SNAPSHOT_STRIDE = 8;
+
+/** Number of sources in an encoded snapshot, or −1 if the encoding is malformed. */
+export function snapshotSourceCount(data: Float64Array): number {
+  if (data.length < SNAPSHOT_HEADER || data[0] !== SNAPSHOT_VERSION) return -1;
+  const n = data[15];
+  if (!Number.isInteger(n) || n < 0 || data.length < SNAPSHOT_HEADER + n * SNAPSHOT_STRIDE) return -1;
+  return n;
+}
+
+/** Floats needed to encode a snapshot of `sources` sources. */
+export function snapshotLength(sources: number): number {
+  return SNAPSHOT_HEADER + sources * SNAPSHOT_STRIDE;
+}
+
+/** Encodes a snapshot into `out` (allocated when absent or too short); returns the array written. */
+export function encodeSnapshot(s: EngineSnapshot, out?: Float64Array): Float64Array {
+  const n = s.sources.length;
+  const d = out && out.length >= snapshotLength(n) ? out : new Float64Array(snapshotLength(n));
+  const l = s.listener;
+  d[0] = SNAPSHOT_VERSION;
+  d[1] = s.time;
+  d[2] = l.position.x; d[3] = l.position.y; d[4] = l.position.z;
+  d[5] = l.forward.x; d[6] = l.forward.y; d[7] = l.forward.z;
+  d[8] = l.up.x; d[9] = l.up.y; d[10] = l.up.z;
+  d[11] = l.velocity ? 1 : 0;
+  d[12] = l.velocity ? l.velocity.x : 0; d[13] = l.velocity ? l.velocity.y : 0; d[14] = l.velocity ? l.velocity.z : 0;
+  d[15] = n;
+  for (let i = 0; i < n; i++) {
+    const src = s.sources[i];
+    const o = SNAPSHOT_HEADER + i * SNAPSHOT_STRIDE;
+    d[o] = src.id;
+    d[o + 1] = src.position.x; d[o + 2] = src.position.y; d[o + 3] = src.position.z;
+    d[o + 4] = src.velocity ? 1 : 0;
+    d[o + 5] = src.velocity ? src.velocity.x : 0; d[o + 6] = src.velocity ? src.velocity.y : 0; d[o + 7] = src.velocity ? src.velocity.z : 0;
+  }
+  return d;
+}
+
+const vec = () => ({ x: 0, y: 0, z: 0 });
+
+/** A fresh snapshot object for decodeSnapshot to fill. */
+export function createSnapshot(): EngineSnapshot {
+  return { time: 0, listener: { position: vec(), forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } }, sources: [] };
+}
+
+/**
+ * Decodes into a fresh snapshot: the engine may keep the objects it is given to interpolate between snapshots,
+ * so nothing is shared with earlier results. Returns null for a malformed encoding.
+ * `timeOffset` is subtracted from the time (context time → engine time).
+ */
+export function decodeSnapshot(d: Float64Array, timeOffset: Seconds = 0): EngineSnapshot | null {
+  const n = snapshotSourceCount(d);
+  if (n < 0) return null;
+  const s = createSnapshot();
+  s.time = d[1] - timeOffset;
+  const l = s.listener;
+  l.position.x = d[2]; l.position.y = d[3]; l.position.z = d[4];
+  l.forward.x = d[5]; l.forward.y = d[6]; l.forward.z = d[7];
+  l.up.x = d[8]; l.up.y = d[9]; l.up.z = d[10];
+  if (d[11] === 1) l.velocity = { x: d[12], y: d[13], z: d[14] };
+  for (let i = 0; i < n; i++) {
+    const o = SNAPSHOT_HEADER + i * SNAPSHOT_STRIDE;
+    const src: SourceState = { id: d[o], position: { x: d[o + 1], y: d[o + 2], z: d[o + 3] } };
+    if (d[o + 4] === 1) src.velocity = { x: d[o + 5], y: d[o + 6], z: d[o + 7] };
+    s.sources.push(src);
+  }
+  return s;
+}
