@@ -3,3 +3,10 @@ export type { Hz, Seconds, Cents, Decibels, MetersPerSecond, Meters, Celsius, Ve
 export type * from './tuning/tuning-types';
 export type * from './dilation/snapshot-types';
 export type * from './engine/engine-types';
+// Control-rate core (motion, dilation, tuning).
+export { speedOfSound, dopplerRatio, VelocityEstimator, createDopplerStats, DOPPLER_RATIO_CAP } from './motion';
+export type { DopplerStats, DopplerOptions, MovingPoint, VelocityEstimatorOptions } from './motion';
+export { TimeFlow, Curve, TargetMapper, createVoiceTargets, distanceGain, equalPowerGains, MIN_TARGET_RATIO, MAX_TARGET_RATIO } from './dilation';
+export type { VoiceInput, TargetMapperOptions, TimeFlowOptions } from './dilation';
+export { parseTuning, serializeTuning, TuningError, defaultTuning, TUNING_VERSION, DEFAULT_GROUP, tuningLimits, OPEN_CUTOFF_HZ, MAX_TIME_SCALE } from './tuning';
+export type { TuningIssue } from './tuning';

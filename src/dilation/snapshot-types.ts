@@ -45,4 +45,9 @@ export interface VoiceTargets {
   doppler: number;
   radialSpeed: MetersPerSecond;
   distance: Meters;
+  /**
+   * True when the group follows time and base × pitch(s) × Doppler fell below the smallest target ratio
+   * (time scale ≈ 0): the engine fades the voice and holds its read head until it thaws.
+   */
+  frozen?: boolean;
 }

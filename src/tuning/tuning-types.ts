@@ -27,7 +27,7 @@ export type GroupPolicy = 'follow-time' | 'exempt' | 'tone-only';
 /** Tuning of one group of sounds. */
 export interface GroupTuning {
   readonly policy: GroupPolicy;
-  /** time scale → speed multiplier (1 = unchanged), range (0, 4]. */
+  /** time scale → speed multiplier (1 = unchanged), range 0…4 (0 = frozen: the voice holds). */
   readonly pitch: CurveSpec;
   /** time scale → low-pass cutoff in Hz; at or above 20 kHz the filter is bypassed. */
   readonly tone: CurveSpec;
@@ -112,3 +112,6 @@ export interface Tuning {
 
 /** Cutoff at or above which the dilation-tone low-pass is bypassed. */
 export const OPEN_CUTOFF_HZ: Hz = 20000;
+
+/** Largest time scale the time flow and curves accept (x range of every curve is 0…MAX_TIME_SCALE). */
+export const MAX_TIME_SCALE = 4;

@@ -1,0 +1,18 @@
+// Public entry of src/dilation: time flow, curves, group policies, snapshot → per-voice targets.
+export { TimeFlow, timeFlowDefaults, clampTimeScale, easeValue, EXPONENTIAL_FLOOR } from './time-flow';
+export type { TimeFlowOptions } from './time-flow';
+export { Curve, fritschCarlsonTangents } from './curve';
+export { CompiledGroup, policyFollowsSpeed, policyAppliesTone } from './group-policy';
+export { distanceGain, azimuthDegrees, equalPowerGains } from './spatial-gains';
+export {
+  TargetMapper,
+  createVoiceTargets,
+  MAX_TARGET_RATIO,
+  MIN_TARGET_RATIO,
+  MAX_VOICE_GAIN,
+  MAX_COORDINATE,
+  GAME_CLOCK_MIN_TIME_SCALE,
+  MIN_CUTOFF_HZ,
+} from './target-mapper';
+export type { VoiceInput, TargetMapperOptions } from './target-mapper';
+export type * from './snapshot-types';

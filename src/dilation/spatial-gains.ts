@@ -1,0 +1,60 @@
+// Web Audio API PannerNode distance models (linear, inverse, exponential) and equal-power panning with the
+// spec's azimuth computation (W3C Web Audio API, PannerNode "Distance Effects" and "Azimuth and Elevation").
+import type { DistanceModel } from '../tuning';
+import type { Meters } from '../units';
+import type { Vec3Like } from '../units';
+
+/** Distance gain of the Web Audio distance `model` at distance d (m), refDistance, maxDistance, rolloffFactor. */
+export function distanceGain(model: DistanceModel, d: Meters, ref: Meters, max: Meters, rolloff: number): number {
+  if (model === 'linear') {
+    const lo = Math.min(ref, max);
+    const hi = Math.max(ref, max);
+    // The spec clamps the linear model's rolloff factor to [0, 1].
+    const f = rolloff < 0 ? 0 : rolloff > 1 ? 1 : rolloff;
+    if (lo === hi) return 1 - f;
+    const dc = d < lo ? lo : d > hi ? hi : d;
+    return 1 - (f * (dc - lo)) / (hi - lo);
+  }
+  if (!(ref > 0)) return 0;
+  const dm = d > ref ? d : ref;
+  if (model === 'exponential') return Math.pow(dm / ref, -rolloff);
+  return ref / (ref + rolloff * (dm - ref));
+}
+
+/**
+ * Azimuth in degrees (−180…180; + = right) of the direction `dir` (unit vector from listener to source)
+ * for a listener with unit `forward` and unit `right` (= forward × up normalised), per the Web Audio spec.
+ */
+export function azimuthDegrees(dir: Vec3Like, forward: Vec3Like, right: Vec3Like): number {
+  // up' = right × forward; remove dir's component along up' and normalise.
+  const ux = right.y * forward.z - right.z * forward.y;
+  const uy = right.z * forward.x - right.x * forward.z;
+  const uz = right.x * forward.y - right.y * forward.x;
+  const upProj = dir.x * ux + dir.y * uy + dir.z * uz;
+  let px = dir.x - upProj * ux;
+  let py = dir.y - upProj * uy;
+  let pz = dir.z - upProj * uz;
+  const len = Math.sqrt(px * px + py * py + pz * pz);
+  if (!(len > 1e-12)) return 0; // straight above or below: the spec's projection is empty; centre it
+  px /= len;
+  py /= len;
+  pz /= len;
+  let c = px * right.x + py * right.y + pz * right.z;
+  c = c > 1 ? 1 : c < -1 ? -1 : c;
+  let az = (180 / Math.PI) * Math.acos(c);
+  const frontBack = px * forward.x + py * forward.y + pz * forward.z;
+  if (frontBack < 0) az = 360 - az;
+  az = az >= 0 && az <= 270 ? 90 - az : 450 - az;
+  return az;
+}
+
+/** Equal-power pan of a mono input at `azimuth` degrees: writes gainL and gainR (cos/sin law) into out[0], out[1]. */
+export function equalPowerGains(azimuth: number, out: Float64Array): Float64Array {
+  let az = azimuth < -180 ? -180 : azimuth > 180 ? 180 : azimuth;
+  if (az < -90) az = -180 - az;
+  else if (az > 90) az = 180 - az;
+  const x = (az + 90) / 180;
+  out[0] = Math.cos((x * Math.PI) / 2);
+  out[1] = Math.sin((x * Math.PI) / 2);
+  return out;
+}

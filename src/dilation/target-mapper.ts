@@ -1,0 +1,259 @@
+// Control-rate mapping of one voice from gameplay state to targets: ratio = base × pitch(s) × Doppler (OpenAL 1.1
+// §3.5.2, clamped to the tuning's max shift), tone/level curves of s, Web Audio distance model and equal-power panning.
+import type { Tuning } from '../tuning';
+import { DEFAULT_GROUP, OPEN_CUTOFF_HZ, MAX_TIME_SCALE } from '../tuning';
+import type { Vec3Like } from '../units';
+import { dopplerFromSpeeds, speedOfSound, createDopplerStats, type DopplerStats } from '../motion';
+import type { ListenerState, SourceState, VoiceTargets } from './snapshot-types';
+import { CompiledGroup } from './group-policy';
+import { azimuthDegrees, distanceGain, equalPowerGains } from './spatial-gains';
+
+/** Largest target ratio (the resampler's maximum playback ratio). */
+export const MAX_TARGET_RATIO = 4;
+/** Smallest target ratio; a follow-time voice whose ratio would fall below it is reported `frozen`. */
+export const MIN_TARGET_RATIO = 1 / 1024;
+/** Largest voice gain accepted (linear); above is clamped and counted. */
+export const MAX_VOICE_GAIN = 16;
+/** Coordinates beyond ±1e12 m are treated like non-finite ones (voice heard non-positional). */
+export const MAX_COORDINATE = 1e12;
+/** Lowest time scale used to turn wall-clock into game-clock velocity (wall ÷ max(s, this)). */
+export const GAME_CLOCK_MIN_TIME_SCALE = 0.05;
+/** Lowest cutoff target, Hz. */
+export const MIN_CUTOFF_HZ = 20;
+
+/** One voice's input to the mapper; velocities are wall-clock m/s. */
+export interface VoiceInput {
+  /** Global time scale, 0…4 (NaN or negative → 0, counted). */
+  timeScale: number;
+  /** Group name; unknown names use 'effects' (counted in `unknownGroups`). */
+  group: string;
+  /** Base ratio (0, 4] (invalid → 1, counted). */
+  baseRatio: number;
+  /** Voice gain, linear 0…16 (invalid → 0 or 16, counted). */
+  gain: number;
+  /** Listener with velocity. */
+  listener: ListenerState & { velocity: Vec3Like };
+  /** Positioned source with velocity, or null for a non-positional voice (centred, gains 1, no Doppler). */
+  source: (SourceState & { velocity: Vec3Like }) | null;
+}
+
+/** Options of TargetMapper. */
+export interface TargetMapperOptions {
+  /** A parsed tuning (parseTuning output or defaultTuning). */
+  tuning: Tuning;
+}
+
+/** Creates a VoiceTargets object with neutral values (allocate once per voice). */
+export function createVoiceTargets(): VoiceTargets {
+  return { ratio: 1, cutoffHz: OPEN_CUTOFF_HZ, gain: 1, left: 1, right: 1, doppler: 1, radialSpeed: 0, distance: 0, frozen: false };
+}
+
+function finiteCoord(v: number): boolean {
+  return v >= -MAX_COORDINATE && v <= MAX_COORDINATE;
+}
+
+/** Maps voices to targets under one tuning; allocation-free per call; counts every clamped input. */
+export class TargetMapper {
+  /** Inputs replaced or clamped: time scales, ratios, gains, positions, velocities, orientations. */
+  clamps = 0;
+  /** Voices whose group was unknown (mapped as 'effects'). */
+  unknownGroups = 0;
+  /** Doppler guard counters (ratio capped at a supersonic approach). */
+  readonly dopplerStats: DopplerStats = createDopplerStats();
+  private tuning!: Tuning;
+  private groups = new Map<string, CompiledGroup>();
+  private fallback!: CompiledGroup;
+  private c = 343;
+  private minDoppler = 0.5;
+  private maxDoppler = 2;
+  private readonly pan = new Float64Array(2);
+  private readonly dir: Vec3Like = { x: 0, y: 0, z: 0 };
+  private readonly fwd: Vec3Like = { x: 0, y: 0, z: -1 };
+  private readonly right: Vec3Like = { x: 1, y: 0, z: 0 };
+
+  /** Creates a mapper for options.tuning. */
+  constructor(options: TargetMapperOptions) {
+    this.setTuning(options.tuning);
+  }
+
+  /** Switches to tuning `t` (builds its curves; call outside the audio path's inner loop). */
+  setTuning(t: Tuning): void {
+    const groups = new Map<string, CompiledGroup>();
+    for (const name of Object.keys(t.groups)) groups.set(name, new CompiledGroup(name, t.groups[name]));
+    this.groups = groups;
+    this.fallback = groups.get(DEFAULT_GROUP) ?? groups.values().next().value!;
+    this.tuning = t;
+    this.c = t.air.speedOfSound ?? speedOfSound(t.air.temperatureCelsius);
+    const maxShift = t.doppler.maxShiftCents;
+    this.maxDoppler = Math.min(Math.pow(2, maxShift / 1200), MAX_TARGET_RATIO);
+    this.minDoppler = 1 / this.maxDoppler;
+  }
+
+  /** The tuning in use. */
+  get currentTuning(): Tuning {
+    return this.tuning;
+  }
+
+  /** Whether the tuning has a group called `name`. */
+  hasGroup(name: string): boolean {
+    return this.groups.has(name);
+  }
+
+  /** The compiled group for `name` (the fallback group when unknown). */
+  group(name: string): CompiledGroup {
+    return this.groups.get(name) ?? this.fallback;
+  }
+
+  /** Writes the targets of one voice into `out` and returns it; every output is finite, ratio within (0, 4]. */
+  map(out: VoiceTargets, input: VoiceInput): VoiceTargets {
+    let s = input.timeScale;
+    if (!(s >= 0)) {
+      s = 0;
+      this.clamps += 1;
+    } else if (s > MAX_TIME_SCALE) {
+      s = MAX_TIME_SCALE;
+      this.clamps += 1;
+    }
+    let g = this.groups.get(input.group);
+    if (g === undefined) {
+      g = this.fallback;
+      this.unknownGroups += 1;
+    }
+    let base = input.baseRatio;
+    if (!(base > 0) || base === Infinity) {
+      base = 1;
+      this.clamps += 1;
+    } else if (base > MAX_TARGET_RATIO) {
+      base = MAX_TARGET_RATIO;
+      this.clamps += 1;
+    }
+    let gain = input.gain;
+    if (!(gain >= 0)) {
+      gain = 0;
+      this.clamps += 1;
+    } else if (gain > MAX_VOICE_GAIN) {
+      gain = MAX_VOICE_GAIN;
+      this.clamps += 1;
+    }
+
+    const speed = g.followsSpeed ? g.pitch.evaluate(s) : 1;
+    let cutoff = OPEN_CUTOFF_HZ;
+    let levelDb = 0;
+    if (g.appliesTone) {
+      cutoff = g.tone.evaluate(s);
+      levelDb = g.level.evaluate(s);
+      cutoff = cutoff < MIN_CUTOFF_HZ ? MIN_CUTOFF_HZ : cutoff > OPEN_CUTOFF_HZ ? OPEN_CUTOFF_HZ : cutoff;
+    }
+    out.cutoffHz = cutoff;
+    out.gain = gain * Math.pow(10, levelDb / 20);
+
+    let doppler = 1;
+    out.radialSpeed = 0;
+    out.distance = 0;
+    out.left = 1;
+    out.right = 1;
+    const src = input.source;
+    if (src !== null) doppler = this.spatial(out, input, src, g, s);
+    out.doppler = doppler;
+
+    let ratio = base * speed * doppler;
+    out.frozen = g.followsSpeed && !(ratio >= MIN_TARGET_RATIO);
+    if (!(ratio >= MIN_TARGET_RATIO)) ratio = MIN_TARGET_RATIO;
+    else if (ratio > MAX_TARGET_RATIO) {
+      ratio = MAX_TARGET_RATIO;
+      this.clamps += 1;
+    }
+    out.ratio = ratio;
+    return out;
+  }
+
+  /** Spatial gains and Doppler of a positioned voice; returns the (max-shift clamped) Doppler ratio. */
+  private spatial(out: VoiceTargets, input: VoiceInput, src: SourceState & { velocity: Vec3Like }, g: CompiledGroup, s: number): number {
+    const lis = input.listener;
+    const sp = src.position;
+    const lp = lis.position;
+    if (!finiteCoord(sp.x) || !finiteCoord(sp.y) || !finiteCoord(sp.z) || !finiteCoord(lp.x) || !finiteCoord(lp.y) || !finiteCoord(lp.z)) {
+      this.clamps += 1;
+      return 1;
+    }
+    // Listener → source, for distance and panning.
+    const dx = sp.x - lp.x;
+    const dy = sp.y - lp.y;
+    const dz = sp.z - lp.z;
+    const d = Math.sqrt(dx * dx + dy * dy + dz * dz);
+    const t = this.tuning.distance;
+    const dist = distanceGain(t.model, d, t.refDistance, t.maxDistance, t.rolloffFactor);
+    out.distance = d;
+    const dir = this.dir;
+    if (d > 0) {
+      dir.x = dx / d;
+      dir.y = dy / d;
+      dir.z = dz / d;
+      this.orientation(lis);
+      equalPowerGains(azimuthDegrees(dir, this.fwd, this.right), this.pan);
+    } else {
+      dir.x = 0;
+      dir.y = 0;
+      dir.z = 0;
+      equalPowerGains(0, this.pan);
+    }
+    out.left = dist * this.pan[0];
+    out.right = dist * this.pan[1];
+
+    // Line-of-sight speeds along source → listener (= −dir): vss > 0 approaching, vls > 0 receding.
+    const sv = src.velocity;
+    const lv = lis.velocity;
+    let vss = -(sv.x * dir.x + sv.y * dir.y + sv.z * dir.z);
+    let vls = -(lv.x * dir.x + lv.y * dir.y + lv.z * dir.z);
+    if (!Number.isFinite(vss)) {
+      vss = 0;
+      this.clamps += 1;
+    }
+    if (!Number.isFinite(vls)) {
+      vls = 0;
+      this.clamps += 1;
+    }
+    if (this.tuning.doppler.velocityClock === 'game') {
+      const k = 1 / (s > GAME_CLOCK_MIN_TIME_SCALE ? s : GAME_CLOCK_MIN_TIME_SCALE);
+      vss *= k;
+      vls *= k;
+    }
+    out.radialSpeed = vss - vls;
+    const factor = this.tuning.doppler.factor;
+    if (!g.doppler || factor === 0 || d === 0) return 1;
+    let ratio = dopplerFromSpeeds(vls, vss, this.c, factor, this.dopplerStats);
+    ratio = ratio < this.minDoppler ? this.minDoppler : ratio > this.maxDoppler ? this.maxDoppler : ratio;
+    return ratio;
+  }
+
+  /** Normalised forward and right (= forward × up) of the listener into scratch; defaults when degenerate (counted). */
+  private orientation(lis: ListenerState): void {
+    const f = lis.forward;
+    const u = lis.up;
+    let fx = f.x;
+    let fy = f.y;
+    let fz = f.z;
+    let fl = Math.sqrt(fx * fx + fy * fy + fz * fz);
+    let rx = fy * u.z - fz * u.y;
+    let ry = fz * u.x - fx * u.z;
+    let rz = fx * u.y - fy * u.x;
+    let rl = Math.sqrt(rx * rx + ry * ry + rz * rz);
+    if (!(fl > 1e-12) || fl === Infinity || !(rl > 1e-12 * fl) || rl === Infinity) {
+      this.clamps += 1;
+      fx = 0;
+      fy = 0;
+      fz = -1;
+      fl = 1;
+      rx = 1;
+      ry = 0;
+      rz = 0;
+      rl = 1;
+    }
+    this.fwd.x = fx / fl;
+    this.fwd.y = fy / fl;
+    this.fwd.z = fz / fl;
+    this.right.x = rx / rl;
+    this.right.y = ry / rl;
+    this.right.z = rz / rl;
+  }
+}

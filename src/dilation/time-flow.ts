@@ -1,0 +1,115 @@
+// Time-scale transitions: a ramp from the value at the start time to a target, eased linearly, by smoothstep
+// (3u² − 2u³, common practice) or exponentially (equal ratio per unit time); a pure function of time.
+import type { Easing } from '../tuning';
+import type { Seconds } from '../units';
+import type { TimeScaleRequest } from '../engine/engine-types';
+import { MAX_TIME_SCALE } from '../tuning';
+
+/** Lowest value used for the exponential easing's geometric interpolation (values below ramp linearly to 0). */
+export const EXPONENTIAL_FLOOR = 0.01;
+
+/** Options of TimeFlow. */
+export interface TimeFlowOptions {
+  /** Initial time scale, 0…4 (default 1). */
+  initial?: number;
+}
+
+/** Frozen defaults of TimeFlow. */
+export const timeFlowDefaults: Readonly<Required<TimeFlowOptions>> = Object.freeze({ initial: 1 });
+
+/** Clamps a requested time scale to 0…MAX_TIME_SCALE; NaN gives 0. */
+export function clampTimeScale(value: number): number {
+  if (!(value > 0)) return 0;
+  return value < MAX_TIME_SCALE ? value : MAX_TIME_SCALE;
+}
+
+/** Eases u ∈ [0, 1] from `from` to `to`. */
+export function easeValue(from: number, to: number, u: number, easing: Easing): number {
+  if (u <= 0) return from;
+  if (u >= 1) return to;
+  if (easing === 'smooth') return from + (to - from) * u * u * (3 - 2 * u);
+  if (easing === 'exponential') {
+    const a = from > EXPONENTIAL_FLOOR ? from : EXPONENTIAL_FLOOR;
+    const b = to > EXPONENTIAL_FLOOR ? to : EXPONENTIAL_FLOOR;
+    let v = a * Math.pow(b / a, u);
+    // Values under the floor: blend linearly toward the true endpoint near the ends so the ramp starts/ends exactly.
+    if (from < EXPONENTIAL_FLOOR) v += (from - a) * (1 - u);
+    if (to < EXPONENTIAL_FLOOR) v += (to - b) * u;
+    return v;
+  }
+  return from + (to - from) * u;
+}
+
+/** The global time scale over time: the current ramp (start, duration, easing, endpoints), evaluated on demand. */
+export class TimeFlow {
+  /** Requests whose target, ramp or start time were non-finite or out of range and were clamped. */
+  clamps = 0;
+  private from: number;
+  private to: number;
+  private start: Seconds = 0;
+  private duration: Seconds = 0;
+  private easing: Easing = 'linear';
+
+  /** Creates a flow resting at `initial` (default 1, clamped to 0…4). */
+  constructor(options: TimeFlowOptions = timeFlowDefaults) {
+    const initial = options.initial ?? timeFlowDefaults.initial;
+    this.from = this.to = this.clampCounted(initial);
+  }
+
+  /** The value the current ramp ends at. */
+  get target(): number {
+    return this.to;
+  }
+
+  /** Engine time the current ramp starts at, s. */
+  get startTime(): Seconds {
+    return this.start;
+  }
+
+  /** Duration of the current ramp, s. */
+  get rampSeconds(): Seconds {
+    return this.duration;
+  }
+
+  /**
+   * Starts a ramp at request.startTime (default `now`, s) from the value at that time to request.target
+   * (clamped to 0…4; NaN or negative gives 0, counted), over request.rampSeconds (≥ 0) with request.easing.
+   */
+  set(request: TimeScaleRequest, now: Seconds): void {
+    let start = request.startTime ?? now;
+    if (!Number.isFinite(start)) {
+      this.clamps += 1;
+      start = Number.isFinite(now) ? now : this.start;
+    }
+    let ramp = request.rampSeconds;
+    if (!(ramp >= 0) || ramp === Infinity) {
+      this.clamps += 1;
+      ramp = 0;
+    }
+    const from = this.valueAt(start);
+    this.from = from;
+    this.to = this.clampCounted(request.target);
+    this.start = start;
+    this.duration = ramp;
+    this.easing = request.easing === 'smooth' || request.easing === 'exponential' ? request.easing : 'linear';
+  }
+
+  /** Sets the value at once (clamped to 0…4, counted when out of range) from time `now`. */
+  jump(value: number, now: Seconds): void {
+    this.set({ target: value, rampSeconds: 0, easing: 'linear' }, now);
+  }
+
+  /** Time scale at `time` (s): the start value up to the ramp start (and for NaN), eased during it, the target after; within 0…4. */
+  valueAt(time: Seconds): number {
+    if (this.duration <= 0) return time >= this.start ? this.to : this.from;
+    if (!(time > this.start)) return this.from;
+    const u = (time - this.start) / this.duration;
+    return easeValue(this.from, this.to, u, this.easing);
+  }
+
+  private clampCounted(value: number): number {
+    const v = clampTimeScale(value);
+    if (v !== value) this.clamps += 1;
+    return v;
+  }
+}

@@ -1,0 +1,118 @@
+// Field-by-field description of the tuning document (types, ranges, enums, key order): the parser,
+// the serializer, the JSON Schema test and the editor's slider ranges all read this one table.
+import { MAX_TIME_SCALE, OPEN_CUTOFF_HZ } from './tuning-types';
+
+/** A numeric field: inclusive range; `integer` requires a whole number; `nullable` also accepts null. */
+export interface NumberField {
+  readonly kind: 'number';
+  readonly min: number;
+  readonly max: number;
+  readonly integer?: boolean;
+  readonly nullable?: boolean;
+}
+/** A string field taking one of `values`. */
+export interface EnumField {
+  readonly kind: 'enum';
+  readonly values: readonly string[];
+}
+/** A true/false field. */
+export interface BooleanField {
+  readonly kind: 'boolean';
+}
+/** Any scalar field of the document. */
+export type FieldLimit = NumberField | EnumField | BooleanField;
+
+const num = (min: number, max: number, extra: Partial<NumberField> = {}): NumberField => ({ kind: 'number', min, max, ...extra });
+const oneOf = (...values: string[]): EnumField => ({ kind: 'enum', values });
+const bool: BooleanField = { kind: 'boolean' };
+
+/** Sections of the document other than `version` and `groups`, in serialization order, with their fields. */
+export const sectionLimits = {
+  air: {
+    temperatureCelsius: num(-50, 60),
+    speedOfSound: num(1, 10000, { nullable: true }),
+  },
+  doppler: {
+    factor: num(0, 10),
+    maxShiftCents: num(0, 2400),
+    smoothingSeconds: num(0, 2),
+    velocityClock: oneOf('wall', 'game'),
+    velocitySmoothingSeconds: num(0, 2),
+    teleportSpeed: num(1, 100000),
+  },
+  distance: {
+    model: oneOf('linear', 'inverse', 'exponential'),
+    refDistance: num(0.01, 100000),
+    maxDistance: num(0.01, 10000000),
+    rolloffFactor: num(0, 100),
+  },
+  timeFlow: {
+    slowMotionScale: num(0, 1),
+    rampInSeconds: num(0, 10),
+    rampOutSeconds: num(0, 10),
+    easing: oneOf('linear', 'smooth', 'exponential'),
+  },
+  smoothing: {
+    ratioSeconds: num(0, 1),
+    cutoffSeconds: num(0, 1),
+    gainSeconds: num(0, 1),
+  },
+  resampler: {
+    tier: oneOf('draft', 'standard', 'high'),
+  },
+  master: {
+    limiter: bool,
+    ceilingDb: num(-24, 0),
+    gainDb: num(-60, 12),
+  },
+} as const satisfies Record<string, Record<string, FieldLimit>>;
+
+/** Name of a section described by sectionLimits. */
+export type SectionName = keyof typeof sectionLimits;
+
+/** Fields of one group, in serialization order ('pitch', 'tone' and 'level' are curves). */
+export const groupLimits = {
+  policy: oneOf('follow-time', 'exempt', 'tone-only'),
+  pitch: 'curve',
+  tone: 'curve',
+  level: 'curve',
+  doppler: bool,
+  priority: num(0, 255, { integer: true }),
+} as const;
+
+/** Curve limits: x is the time scale; y ranges per curve kind (pitch: speed multiplier, tone: Hz, level: dB). */
+export const curveLimits = {
+  interpolation: oneOf('linear', 'monotone'),
+  minKeys: 1,
+  maxKeys: 64,
+  x: num(0, MAX_TIME_SCALE),
+  y: {
+    pitch: num(0, 4),
+    tone: num(20, OPEN_CUTOFF_HZ),
+    level: num(-96, 24),
+  },
+} as const;
+
+/** Group-map limits: name pattern, reserved names, count, and the group every tuning must have. */
+export const groupsLimits = {
+  namePattern: /^[A-Za-z][A-Za-z0-9_-]{0,63}$/,
+  minGroups: 1,
+  maxGroups: 64,
+  requiredGroup: 'effects',
+} as const;
+
+/** Keys rejected anywhere in a document (prototype-pollution guard). */
+export const forbiddenKeys: readonly string[] = ['__proto__', 'constructor', 'prototype'];
+
+/** Top-level keys of a version-1 document, in serialization order. */
+export const topLevelKeys: readonly string[] = ['version', ...Object.keys(sectionLimits), 'groups'];
+
+/** Everything above as one object (ranges for editors and schema checks). */
+export const tuningLimits = Object.freeze({
+  sections: sectionLimits,
+  group: groupLimits,
+  curve: curveLimits,
+  groups: groupsLimits,
+  forbiddenKeys,
+  topLevelKeys,
+});
