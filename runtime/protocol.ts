@@ -125,10 +125,9 @@ export interface SyncedReport {
 /** Everything the worklet sends back. */
 export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport;
 
-/** Transferable buffers of a command (the sound's channel buffers), for postMessage's transfer list. */
+/** Transferable buffers of a command (a sound's channel buffers), for postMessage's transfer list. Snapshots are cloned, so the sender may reuse its array. */
 export function commandTransfer(command: Command): Transferable[] {
   if (command.type === 'add-sound') return command.channels.map((c) => c.buffer as ArrayBuffer);
-  if (command.type === 'snapshot') return [command.data.buffer as ArrayBuffer];
   return [];
 }
 

@@ -1,0 +1,109 @@
+import { describe, expect, it } from 'vitest';
+import {
+  commandTransfer,
+  decodeCommand,
+  decodeSnapshot,
+  encodeSnapshot,
+  snapshotLength,
+  snapshotSourceCount,
+  type Command,
+} from '../../runtime/protocol';
+import type { EngineSnapshot } from '../../src/index';
+
+const snapshot: EngineSnapshot = {
+  time: 1.25,
+  listener: { position: { x: 1, y: 2, z: 3 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 }, velocity: { x: 4, y: 5, z: 6 } },
+  sources: [
+    { id: 7, position: { x: -1, y: 0.5, z: 10 } },
+    { id: 9, position: { x: 2, y: 3, z: 4 }, velocity: { x: -30, y: 0, z: 1e-3 } },
+  ],
+};
+
+describe('snapshot encoding', () => {
+  it('round-trips listener, sources and optional velocities exactly', () => {
+    const back = decodeSnapshot(encodeSnapshot(snapshot));
+    expect(back).toEqual(snapshot);
+  });
+
+  it('leaves velocity absent when the sender gave none', () => {
+    const back = decodeSnapshot(encodeSnapshot({ ...snapshot, listener: { ...snapshot.listener, velocity: undefined } }))!;
+    expect('velocity' in back.listener).toBe(false);
+    expect('velocity' in back.sources[0]).toBe(false);
+  });
+
+  it('shifts the time by the context-to-engine offset', () => {
+    expect(decodeSnapshot(encodeSnapshot(snapshot), 0.25)!.time).toBe(1);
+  });
+
+  it('reuses a long-enough output array and grows a short one', () => {
+    const big = new Float64Array(snapshotLength(5));
+    expect(encodeSnapshot(snapshot, big)).toBe(big);
+    const small = new Float64Array(snapshotLength(1));
+    const grown = encodeSnapshot(snapshot, small);
+    expect(grown).not.toBe(small);
+    expect(grown.length).toBe(snapshotLength(2));
+  });
+
+  it('gives fresh objects on every decode (the engine may keep them)', () => {
+    const d = encodeSnapshot(snapshot);
+    const a = decodeSnapshot(d)!;
+    const b = decodeSnapshot(d)!;
+    expect(a.listener.position).not.toBe(b.listener.position);
+    expect(a.sources[0]).not.toBe(b.sources[0]);
+  });
+
+  it.each([
+    ['too short', new Float64Array(3)],
+    ['wrong version', Float64Array.from({ length: 16 }, (_, i) => (i === 0 ? 99 : 0))],
+    ['count beyond data', (() => { const d = encodeSnapshot(snapshot); d[15] = 3; return d; })()],
+    ['fractional count', (() => { const d = encodeSnapshot(snapshot); d[15] = 1.5; return d; })()],
+  ])('rejects a malformed encoding (%s)', (_name, d) => {
+    expect(snapshotSourceCount(d)).toBe(-1);
+    expect(decodeSnapshot(d)).toBeNull();
+  });
+});
+
+describe('command decoding', () => {
+  const good: Command[] = [
+    { type: 'add-sound', sound: 1, channels: [new Float32Array(4), new Float32Array(4)], sampleRate: 44100 },
+    { type: 'remove-sound', sound: 1 },
+    { type: 'play', voice: 3, sound: 1, options: { group: 'effects', loop: true } },
+    { type: 'stop', voice: 3, fadeSeconds: 0.1 },
+    { type: 'stop', voice: 3 },
+    { type: 'set-voice', voice: 3, gain: 0.5 },
+    { type: 'snapshot', data: encodeSnapshot(snapshot) },
+    { type: 'time-scale', request: { target: 0.5, rampSeconds: 1, easing: 'smooth', startTime: 2 } },
+    { type: 'tuning', tuning: {} as never },
+    { type: 'sync', id: 4 },
+  ];
+  it.each(good.map((c) => [c.type, c] as const))('accepts a well-formed %s command unchanged', (_t, c) => {
+    expect(decodeCommand(c)).toBe(c);
+  });
+
+  it.each([
+    [null, 'command'],
+    [{ type: 'dance' }, 'unknown type'],
+    [{ type: 'add-sound', sound: 1, channels: [new Float32Array(4), new Float32Array(3)], sampleRate: 48000 }, 'add-sound.channels'],
+    [{ type: 'add-sound', sound: 1, channels: [new Float64Array(4)], sampleRate: 48000 }, 'add-sound.channels'],
+    [{ type: 'add-sound', sound: 1, channels: [new Float32Array(4)], sampleRate: NaN }, 'add-sound.sampleRate'],
+    [{ type: 'add-sound', sound: -1, channels: [new Float32Array(4)], sampleRate: 48000 }, 'add-sound.sound'],
+    [{ type: 'play', voice: 1.5, sound: 1, options: {} }, 'play.voice'],
+    [{ type: 'play', voice: 1, sound: 1 }, 'play.options'],
+    [{ type: 'stop', voice: 1, fadeSeconds: 'slow' }, 'stop.fadeSeconds'],
+    [{ type: 'set-voice', voice: 1, ratio: '2' }, 'set-voice.ratio'],
+    [{ type: 'snapshot', data: [1, 2] }, 'snapshot.data'],
+    [{ type: 'time-scale', request: { target: 0.5 } }, 'time-scale.request'],
+    [{ type: 'sync', id: 'x' }, 'sync.id'],
+  ])('rejects %j naming %s', (data, field) => {
+    const r = decodeCommand(data);
+    expect(typeof r).toBe('string');
+    expect(r as string).toContain(field);
+  });
+
+  it('lists the channel buffers of a sound upload as transferables, and nothing for a snapshot', () => {
+    const a = new Float32Array(8);
+    const b = new Float32Array(8);
+    expect(commandTransfer({ type: 'add-sound', sound: 1, channels: [a, b], sampleRate: 48000 })).toEqual([a.buffer, b.buffer]);
+    expect(commandTransfer({ type: 'snapshot', data: new Float64Array(16) })).toEqual([]);
+  });
+});
