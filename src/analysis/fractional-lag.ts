@@ -1,6 +1,6 @@
 // Difference at a fractional lag, D(τ) = Σ_{j<W} (x_j − x(j+τ))², with x(t) rebuilt by band-limited interpolation
 // through a Kaiser-windowed sinc (J. O. Smith, "Digital Audio Resampling Home Page", CCRMA; REFERENCES.md §3b).
-import { besselI0, kaiserAt } from './windows';
+import { besselI0, kaiserAt } from '../dsp';
 
 /** Options of a FractionalLagDifference. */
 export interface FractionalLagOptions {
@@ -21,7 +21,7 @@ export class FractionalLagDifference {
   /** Kernel half-width in taps: the evaluation reads halfTaps samples past W + lag. */
   readonly halfTaps: number;
   private readonly beta: number;
-  private readonly invI0: number;
+  private readonly i0Beta: number;
   private readonly kernel: Float64Array;
 
   /** Allocates the kernel scratch once. */
@@ -29,7 +29,7 @@ export class FractionalLagDifference {
     this.windowFrames = Math.floor(options.windowFrames);
     this.halfTaps = Math.min(64, Math.max(2, Math.floor(options.halfTaps ?? defaults.halfTaps)));
     this.beta = options.beta ?? defaults.beta;
-    this.invI0 = 1 / besselI0(this.beta);
+    this.i0Beta = besselI0(this.beta);
     this.kernel = new Float64Array(2 * this.halfTaps);
   }
 
@@ -46,7 +46,7 @@ export class FractionalLagDifference {
     for (let m = -h + 1; m <= h; m++) {
       const t = m - mu;
       const s = t === 0 ? 1 : Math.sin(Math.PI * t) / (Math.PI * t);
-      kernel[m + h - 1] = s * kaiserAt(t / h, this.beta, this.invI0);
+      kernel[m + h - 1] = s * kaiserAt(t / h, this.beta, this.i0Beta);
     }
     const w = this.windowFrames;
     const n = signal.length;

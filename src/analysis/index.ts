@@ -10,4 +10,4 @@ export type { SpectrumAnalyzerOptions, SpectrumOptions, SpectrumWindow, Spectral
 export { rmsLevel, peakLevel, rmsDb, peakDb } from './levels';
 export { centsBetween, quantileSorted, pitchErrorStats } from './pitch-error';
 export type { PitchErrorStats } from './pitch-error';
-export { hannWindow, kaiserWindow, besselI0 } from './windows';
+export { hannWindow } from './windows';

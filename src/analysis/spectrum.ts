@@ -3,7 +3,8 @@
 // summing the power of the main lobe (Parseval's theorem).
 import FFT from 'fft.js';
 import type { Decibels, Hz } from '../units';
-import { hannWindow, kaiserWindow } from './windows';
+import { kaiserWindow } from '../dsp';
+import { hannWindow } from './windows';
 
 /** Analysis window shape. */
 export type SpectrumWindow = 'hann' | 'kaiser';
