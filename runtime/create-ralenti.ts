@@ -1,0 +1,71 @@
+// createRalenti: loads the worklet module, builds the node, and resolves once the engine runs on the audio thread.
+import { parseTuning, defaultTuning } from '../src/tuning/index';
+import { PROCESSOR_NAME, type ProcessorOptions, type Report } from './protocol';
+import { Ralenti } from './ralenti';
+import { RalentiOptionError, checkInteger, checkRange } from './runtime-error';
+import { defaultWorkletUrl } from './worklet-url';
+
+/** Options of createRalenti. */
+export interface CreateRalentiOptions {
+  /** A tuning document (JSON value); validated here, throws TuningError. Default: the built-in tuning. */
+  tuning?: unknown;
+  /** Voice pool size, 1…1024 (default 64). */
+  capacity?: number;
+  /** Sound slots, 1…4096 (default 256). */
+  maxSounds?: number;
+  /** URL of the bundled processor (dist/ralenti-processor.js); default: next to this module. */
+  workletUrl?: string | URL;
+  /** Interval between stats reports, 0.05…10 s (default 0.25). */
+  statsIntervalSeconds?: number;
+}
+
+/** Frozen defaults of CreateRalentiOptions. */
+export const createRalentiDefaults = Object.freeze({ capacity: 64, maxSounds: 256, statsIntervalSeconds: 0.25 });
+
+const loaded = new WeakMap<BaseAudioContext, Map<string, Promise<void>>>();
+
+/** Adds the worklet module to the context once per URL. */
+function addModuleOnce(context: BaseAudioContext, url: string): Promise<void> {
+  let perContext = loaded.get(context);
+  if (!perContext) loaded.set(context, (perContext = new Map()));
+  let p = perContext.get(url);
+  if (!p) {
+    p = context.audioWorklet.addModule(url);
+    p.catch(() => perContext.delete(url));
+    perContext.set(url, p);
+  }
+  return p;
+}
+
+/**
+ * Creates the runtime on `context`: validates options (throws RalentiOptionError or TuningError), loads the
+ * processor module, builds a stereo AudioWorkletNode, and resolves when the engine reports ready.
+ * The node is not connected: call `connect(context.destination)` or route it into your own bus.
+ */
+export async function createRalenti(context: BaseAudioContext, options: CreateRalentiOptions = {}): Promise<Ralenti> {
+  const capacity = checkInteger('createRalenti.capacity', options.capacity ?? createRalentiDefaults.capacity, 1, 1024);
+  const maxSounds = checkInteger('createRalenti.maxSounds', options.maxSounds ?? createRalentiDefaults.maxSounds, 1, 4096);
+  const statsIntervalSeconds = checkRange(
+    'createRalenti.statsIntervalSeconds', options.statsIntervalSeconds ?? createRalentiDefaults.statsIntervalSeconds, 0.05, 10);
+  const tuning = options.tuning === undefined ? defaultTuning : parseTuning(options.tuning);
+  if (!context || !context.audioWorklet) throw new RalentiOptionError('createRalenti.context', 'expected a BaseAudioContext with audioWorklet (secure context)');
+  const url = String(options.workletUrl ?? defaultWorkletUrl());
+  await addModuleOnce(context, url);
+  const processorOptions: ProcessorOptions = { capacity, maxSounds, tuning, statsIntervalSeconds };
+  const node = new AudioWorkletNode(context, PROCESSOR_NAME, {
+    numberOfInputs: 0,
+    numberOfOutputs: 1,
+    outputChannelCount: [2],
+    processorOptions,
+  });
+  const ready = new Promise<void>((resolve, reject) => {
+    node.port.onmessage = (e: MessageEvent) => {
+      const r = e.data as Report;
+      if (r?.type === 'ready') resolve();
+      else if (r?.type === 'error' && r.where === 'construct') reject(new Error(`ralenti processor: ${r.message}`));
+    };
+    node.onprocessorerror = () => reject(new Error('ralenti processor failed to start'));
+  });
+  await ready;
+  return new Ralenti({ context, node, tuning, capacity });
+}

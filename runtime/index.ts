@@ -1,0 +1,10 @@
+// Public entry of the Web Audio host (main thread): createRalenti and the runtime's types.
+export { createRalenti, createRalentiDefaults } from './create-ralenti';
+export type { CreateRalentiOptions } from './create-ralenti';
+export { Ralenti } from './ralenti';
+export type { Sound, SoundData, RalentiVoice, RalentiPlayOptions, RalentiListener, TimeScaleOptions, RalentiAudioError, RalentiInit } from './ralenti';
+export { RalentiSource } from './ralenti-source';
+export { RalentiOptionError } from './runtime-error';
+export { defaultWorkletUrl, workletBlobUrl } from './worklet-url';
+export { PROCESSOR_NAME } from './protocol';
+export { TuningError, defaultTuning, parseTuning, serializeTuning } from '../src/tuning/index';
