@@ -1,0 +1,62 @@
+// Edits of the curve blade's model keep a valid curve: sorted keys, at least one key, values inside the range.
+import { describe, expect, it } from 'vitest';
+import { addKey, curveEquals, freezeCurve, fromUnitY, insertionPoint, moveKey, removeKey, toUnitY, withInterpolation, type CurveRange } from '../../editor/curve-blade';
+import type { CurveSpec } from '../../src';
+
+const range: CurveRange = { xMin: 0, xMax: 4, yMin: 0, yMax: 4, yScale: 'linear' };
+const spec: CurveSpec = freezeCurve({ interpolation: 'linear', keys: [{ x: 0, y: 0 }, { x: 1, y: 1 }, { x: 4, y: 4 }] });
+
+describe('curve model', () => {
+  it.each([
+    ['inside its neighbours', 1, 2, 0.5, { x: 2, y: 0.5 }],
+    ['past the next key (clamped one gap before it)', 1, 9, 1, { x: 4 - 0.02, y: 1 }],
+    ['before the previous key (clamped one gap after it)', 1, -3, 1, { x: 0.02, y: 1 }],
+    ['above the range (y clamped)', 1, 1, 99, { x: 1, y: 4 }],
+    ['first key below the range', 0, -1, -1, { x: 0, y: 0 }],
+  ])('moves a key %s', (_name, index, x, y, expected) => {
+    const next = moveKey(spec, index, x, y, range);
+    expect(next.keys[index].x).toBeCloseTo(expected.x, 12);
+    expect(next.keys[index].y).toBeCloseTo(expected.y, 12);
+    for (let i = 1; i < next.keys.length; i++) expect(next.keys[i].x).toBeGreaterThan(next.keys[i - 1].x);
+  });
+
+  it('returns the very same spec for a no-op move, so no change is emitted', () => {
+    expect(moveKey(spec, 1, 1, 1, range)).toBe(spec);
+  });
+
+  it('adds a key in x order and refuses one on top of an existing key', () => {
+    const r = addKey(spec, 2.5, 3, range);
+    expect(r.index).toBe(2);
+    expect(r.spec.keys.map((k) => k.x)).toEqual([0, 1, 2.5, 4]);
+    expect(addKey(spec, 1.001, 3, range)).toEqual({ spec, index: -1 });
+  });
+
+  it('removes a key but never the last one', () => {
+    expect(removeKey(spec, 1).keys.map((k) => k.x)).toEqual([0, 4]);
+    const single = freezeCurve({ interpolation: 'linear', keys: [{ x: 0, y: 1 }] });
+    expect(removeKey(single, 0)).toBe(single);
+  });
+
+  it('switches interpolation without touching keys and compares by value', () => {
+    const m = withInterpolation(spec, 'monotone');
+    expect(m.interpolation).toBe('monotone');
+    expect(m.keys).toEqual(spec.keys);
+    expect(curveEquals(m, spec)).toBe(false);
+    expect(curveEquals(withInterpolation(m, 'linear'), spec)).toBe(true);
+  });
+
+  it('puts a new key halfway to the next key', () => {
+    expect(insertionPoint(spec, 1, range)).toBe(2.5);
+    expect(insertionPoint(spec, 0, range)).toBe(0.5);
+  });
+
+  it.each([
+    [20, 0],
+    [20000, 1],
+    [632.455532, 0.5],
+  ])('maps %f Hz to %f on a 20 Hz…20 kHz log axis and back', (hz, u) => {
+    const log: CurveRange = { xMin: 0, xMax: 1, yMin: 20, yMax: 20000, yScale: 'log' };
+    expect(toUnitY(hz, log)).toBeCloseTo(u, 6);
+    expect(fromUnitY(u, log)).toBeCloseTo(hz, 3);
+  });
+});
