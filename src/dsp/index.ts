@@ -1,0 +1,11 @@
+// Public names of the DSP core: kernel design, streaming resampler, offline resample, biquad low-pass, smoothing, unit helpers.
+export { besselI0, kaiserBeta, kaiserTaps, kaiserAt, kaiserWindow } from './kaiser';
+export { qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, tierDesigns, isQualityTier } from './quality-tiers';
+export type { QualityTierName, TierDesign } from './quality-tiers';
+export { KernelTable } from './kernel-table';
+export type { KernelTableOptions } from './kernel-table';
+export { StreamReader } from './stream-reader';
+export type { StreamReaderOptions, StreamSourceOptions } from './stream-reader';
+export { resample } from './resample';
+export type { ResampleOptions } from './resample';
+export { DspArgumentError } from './dsp-argument-error';

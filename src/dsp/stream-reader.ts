@@ -1,0 +1,321 @@
+// Streaming bandlimited interpolation over a source buffer (J. O. Smith, "Digital Audio Resampling", CCRMA):
+// a fractional read position, a per-sample playback ratio, a kernel stretched by the ratio above 1.
+import { KernelTable } from './kernel-table';
+import { MAX_RATIO, MIN_RATIO } from './quality-tiers';
+
+/** Construction options of a StreamReader. */
+export interface StreamReaderOptions {
+  /** The kernel table (e.g. `KernelTable.forTier('standard')`). */
+  table: KernelTable;
+  /** Most source channels this reader will be given (1…32). */
+  channels: number;
+}
+
+/** How a source is read. */
+export interface StreamSourceOptions {
+  /** Loop the region [loopStart, loopEnd) (default false: one-shot, silence beyond the ends). */
+  loop?: boolean;
+  /** Loop region start in source frames (integer, default 0). */
+  loopStart?: number;
+  /** Loop region end in source frames, exclusive (integer, default the source length). An empty or invalid region loops the whole source. */
+  loopEnd?: number;
+  /** Initial read position in source frames (fractional allowed, default 0). */
+  startFrame?: number;
+}
+
+const EMPTY = new Float32Array(0);
+
+/** Reads a (multichannel) source at a fractional position that advances by a playback ratio per output sample; never allocates after construction. */
+export class StreamReader {
+  /** Ratios clamped or replaced on the audio path (non-finite, below MIN_RATIO, above MAX_RATIO). */
+  clampCount = 0;
+  private table!: KernelTable;
+  private readonly capacity: number;
+  private readonly sources: Float32Array[];
+  private readonly scratch: Float32Array[];
+  private weights: Float64Array;
+  private channelsInUse = 0;
+  private length = 0;
+  private loop = false;
+  private loopStart = 0;
+  private loopEnd = 0;
+  private loopLength = 0;
+  private wrapped = false;
+  private pos = 0;
+  private lastRatio = 1;
+  private lastStretch = 1;
+
+  /** Allocates scratch for `options.channels` channels and the table's widest (ratio 4) window. */
+  constructor(options: StreamReaderOptions) {
+    const channels = Math.max(1, Math.min(32, Math.floor(options.channels)));
+    this.capacity = channels;
+    this.sources = new Array<Float32Array>(channels).fill(EMPTY);
+    this.scratch = [];
+    this.weights = new Float64Array(0);
+    this.setTable(options.table);
+    for (let c = 0; c < channels; c++) this.scratch.push(new Float32Array(this.weights.length));
+  }
+
+  /** Switches the kernel table (tier); allocates only when the new table needs a wider scratch window. */
+  setTable(table: KernelTable): void {
+    this.table = table;
+    const need = table.maxWindow(MAX_RATIO);
+    if (this.weights.length < need) {
+      this.weights = new Float64Array(need);
+      for (let c = 0; c < this.scratch.length; c++) this.scratch[c] = new Float32Array(need);
+    }
+  }
+
+  /** The kernel table in use. */
+  get kernel(): KernelTable {
+    return this.table;
+  }
+
+  /** Sets the source (channel arrays of equal length; extra channels beyond capacity are ignored) and rewinds to `startFrame`; no allocation. */
+  setSource(channels: readonly Float32Array[], options?: StreamSourceOptions): void {
+    const count = Math.min(channels.length, this.capacity);
+    let len = count > 0 ? channels[0].length : 0;
+    for (let c = 0; c < count; c++) {
+      this.sources[c] = channels[c];
+      len = Math.min(len, channels[c].length);
+    }
+    for (let c = count; c < this.capacity; c++) this.sources[c] = EMPTY;
+    this.channelsInUse = count;
+    this.length = len;
+    this.loop = options?.loop === true && len > 0;
+    let ls = Math.floor(options?.loopStart ?? 0);
+    let le = Math.floor(options?.loopEnd ?? len);
+    if (!(ls >= 0 && le <= len && le > ls)) {
+      ls = 0;
+      le = len;
+    }
+    this.loopStart = ls;
+    this.loopEnd = le;
+    this.loopLength = le - ls;
+    this.wrapped = false;
+    this.lastRatio = 1;
+    this.lastStretch = 1;
+    const start = options?.startFrame ?? 0;
+    this.position = Number.isFinite(start) ? start : 0;
+  }
+
+  /** Read position in source frames (fractional); setting it inside a loop past its end wraps it into the region. */
+  get position(): number {
+    return this.pos;
+  }
+
+  set position(frames: number) {
+    let p = Number.isFinite(frames) ? frames : 0;
+    if (this.loop && p >= this.loopEnd) {
+      p = this.loopStart + ((p - this.loopStart) % this.loopLength);
+      this.wrapped = true;
+    }
+    this.pos = p;
+  }
+
+  /** True when a one-shot's position is past its end by the window's half-width (output is silence from here on). */
+  get finished(): boolean {
+    return !this.loop && this.pos - this.length >= this.table.halfTaps * this.lastStretch;
+  }
+
+  /** Writes `frames` samples to out[c][outOffset…] for each source channel; output sample i uses ratio ratioStart + (ratioEnd − ratioStart)·i/frames. */
+  read(out: readonly Float32Array[], outOffset: number, frames: number, ratioStart: number, ratioEnd: number): void {
+    const rs = this.sanitize(ratioStart);
+    const re = this.sanitize(ratioEnd);
+    if (rs === 1 && re === 1 && this.pos === Math.floor(this.pos)) {
+      this.copyThrough(out, outOffset, frames);
+      return;
+    }
+    const dr = re - rs;
+    for (let i = 0; i < frames; i++) {
+      const r = rs + (dr * i) / frames;
+      this.renderOne(out, outOffset + i, r);
+      this.advance(r);
+    }
+  }
+
+  /** Like `read`, with one ratio per output sample from ratios[ratiosOffset…]. */
+  readRatios(out: readonly Float32Array[], outOffset: number, frames: number, ratios: Float32Array, ratiosOffset: number): void {
+    let allOne = this.pos === Math.floor(this.pos);
+    for (let i = 0; allOne && i < frames; i++) allOne = ratios[ratiosOffset + i] === 1;
+    if (allOne) {
+      this.copyThrough(out, outOffset, frames);
+      return;
+    }
+    for (let i = 0; i < frames; i++) {
+      const r = this.sanitize(ratios[ratiosOffset + i]);
+      this.renderOne(out, outOffset + i, r);
+      this.advance(r);
+    }
+  }
+
+  /** Advances the position exactly as `read` with the same arguments would, without output (virtual voices). */
+  skip(frames: number, ratioStart: number, ratioEnd: number): void {
+    const rs = this.sanitize(ratioStart);
+    const re = this.sanitize(ratioEnd);
+    if (rs === 1 && re === 1 && this.pos === Math.floor(this.pos)) {
+      for (let i = 0; i < frames; i++) this.advance(1);
+      return;
+    }
+    const dr = re - rs;
+    for (let i = 0; i < frames; i++) {
+      const r = rs + (dr * i) / frames;
+      this.lastStretch = r > 1 ? this.table.phases / this.table.strideFor(r) : 1;
+      this.advance(r);
+    }
+  }
+
+  private sanitize(r: number): number {
+    if (r >= MIN_RATIO && r <= MAX_RATIO) {
+      this.lastRatio = r;
+      return r;
+    }
+    this.clampCount++;
+    if (r !== r || r === Infinity || r === -Infinity) return this.lastRatio;
+    const c = r > MAX_RATIO ? MAX_RATIO : MIN_RATIO;
+    this.lastRatio = c;
+    return c;
+  }
+
+  private advance(r: number): void {
+    let p = this.pos + r;
+    if (this.loop && p >= this.loopEnd) {
+      while (p >= this.loopEnd) p -= this.loopLength;
+      this.wrapped = true;
+    }
+    this.pos = p;
+  }
+
+  /** Source index for frame m after loop wrapping, or −1 for silence. */
+  private mapIndex(m: number): number {
+    if (this.loop) {
+      if (m >= this.loopEnd) m = this.loopStart + ((m - this.loopStart) % this.loopLength);
+      else if (m < this.loopStart && this.wrapped) m = this.loopEnd - 1 - ((this.loopStart - 1 - m) % this.loopLength);
+    }
+    return m >= 0 && m < this.length ? m : -1;
+  }
+
+  private copyThrough(out: readonly Float32Array[], o: number, frames: number): void {
+    const chans = this.channelsInUse;
+    for (let i = 0; i < frames; i++) {
+      const m = this.mapIndex(this.pos);
+      for (let c = 0; c < chans; c++) out[c][o + i] = m < 0 ? 0 : this.sources[c][m];
+      this.advance(1);
+    }
+    this.lastStretch = 1;
+  }
+
+  /** Fills scratch with the window mLo…mLo+count−1 (wrapped or silent); returns false when it is all silence. */
+  private gather(mLo: number, count: number): boolean {
+    let any = false;
+    const chans = this.channelsInUse;
+    for (let j = 0; j < count; j++) {
+      const m = this.mapIndex(mLo + j);
+      if (m >= 0) any = true;
+      for (let c = 0; c < chans; c++) this.scratch[c][j] = m < 0 ? 0 : this.sources[c][m];
+    }
+    return any;
+  }
+
+  private renderOne(out: readonly Float32Array[], o: number, r: number): void {
+    const t = this.table;
+    const chans = this.channelsInUse;
+    const n = Math.floor(this.pos);
+    const frac = this.pos - n;
+    let mLo: number;
+    let count: number;
+    let stride: number;
+    let k0: number;
+    let f: number;
+    let scale: number;
+    if (r <= 1) {
+      const ph = frac * t.phases;
+      const phi = Math.floor(ph);
+      f = ph - phi;
+      mLo = n - t.halfTaps + 1;
+      count = t.taps;
+      stride = 0;
+      k0 = phi * t.taps;
+      scale = 1;
+      this.lastStretch = 1;
+    } else {
+      stride = Math.floor(t.phases / r);
+      const half = t.halfTaps * t.phases;
+      const c = frac * stride;
+      const i = Math.floor(c);
+      f = c - i;
+      const a1 = Math.floor((half - 1 - i) / stride);
+      const a0 = Math.floor((half + i) / stride);
+      mLo = n - a1;
+      count = a1 + a0 + 1;
+      k0 = a1 * stride + half + i;
+      scale = stride / t.phases;
+      this.lastStretch = t.phases / stride;
+    }
+    const lo = this.loop ? (this.wrapped ? this.loopStart : 0) : 0;
+    const hi = this.loop ? this.loopEnd : this.length;
+    let useScratch = false;
+    if (mLo < lo || mLo + count > hi) {
+      if (!this.gather(mLo, count)) {
+        for (let c = 0; c < chans; c++) out[c][o] = 0;
+        return;
+      }
+      useScratch = true;
+    }
+    const base = useScratch ? 0 : mLo;
+    if (chans === 1) {
+      const x = useScratch ? this.scratch[0] : this.sources[0];
+      out[0][o] = scale * (stride === 0 ? dotRows(t.phaseMajor, k0, t.taps, x, base, f) : dotStride(t.dense, k0, stride, x, base, count, f));
+      return;
+    }
+    const w = this.weights;
+    if (stride === 0) fillRows(w, t.phaseMajor, k0, t.taps, f);
+    else fillStride(w, t.dense, k0, stride, count, f);
+    for (let c = 0; c < chans; c++) {
+      const x = useScratch ? this.scratch[c] : this.sources[c];
+      let acc = 0;
+      for (let j = 0; j < count; j++) acc += w[j] * x[base + j];
+      out[c][o] = scale * acc;
+    }
+  }
+}
+
+/** Dot product of x[base…] with phase rows at k0 and k0+taps, linearly interpolated by f. */
+function dotRows(pm: Float32Array, k0: number, taps: number, x: Float32Array, base: number, f: number): number {
+  let a0 = 0;
+  let a1 = 0;
+  const k1 = k0 + taps;
+  for (let j = 0; j < taps; j++) {
+    const s = x[base + j];
+    a0 += pm[k0 + j] * s;
+    a1 += pm[k1 + j] * s;
+  }
+  return a0 + f * (a1 - a0);
+}
+
+/** Dot product of x[base…] with the dense kernel read at k0, k0 − stride, …, linearly interpolated by f. */
+function dotStride(d: Float32Array, k0: number, stride: number, x: Float32Array, base: number, count: number, f: number): number {
+  let a0 = 0;
+  let a1 = 0;
+  let k = k0;
+  for (let j = 0; j < count; j++) {
+    const s = x[base + j];
+    a0 += d[k] * s;
+    a1 += d[k + 1] * s;
+    k -= stride;
+  }
+  return a0 + f * (a1 - a0);
+}
+
+function fillRows(w: Float64Array, pm: Float32Array, k0: number, taps: number, f: number): void {
+  const k1 = k0 + taps;
+  for (let j = 0; j < taps; j++) w[j] = pm[k0 + j] + f * (pm[k1 + j] - pm[k0 + j]);
+}
+
+function fillStride(w: Float64Array, d: Float32Array, k0: number, stride: number, count: number, f: number): void {
+  let k = k0;
+  for (let j = 0; j < count; j++) {
+    w[j] = d[k] + f * (d[k + 1] - d[k]);
+    k -= stride;
+  }
+}
