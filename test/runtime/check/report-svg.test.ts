@@ -1,0 +1,115 @@
+import { describe, expect, it } from 'vitest';
+import { JSDOM } from 'jsdom';
+import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import { tmpdir } from 'node:os';
+import { pitchErrorStats } from '../../../src/analysis';
+import { escapeXml, niceTicks, pathData, renderReportHtml, renderReportSvg, type CheckReport } from '../../../runtime/check/report-svg';
+import { writeReport } from '../../../runtime/check/write-report';
+
+function series(count: number, f: (t: number) => number, gapFrom = -1, gapTo = -1) {
+  const times = Float64Array.from({ length: count }, (_, i) => i * 0.01);
+  const values = times.map((t, i) => (i >= gapFrom && i < gapTo ? NaN : f(t)));
+  return { times, values };
+}
+
+function sampleReport(): CheckReport {
+  const a = series(300, (t) => 440 * (1 + 0.05 * Math.cos(t)));
+  const aMeasured = series(300, (t) => 440 * (1 + 0.05 * Math.cos(t)) * 1.0005, 100, 120);
+  const b = series(300, () => 220);
+  const bMeasured = series(300, () => 223);
+  return {
+    title: 'pass <by> & "fly"',
+    toleranceCents: 5,
+    sources: [
+      { name: 'car', times: a.times, expectedHz: a.values, measuredHz: aMeasured.values, stats: pitchErrorStats(a.values, aMeasured.values), passed: true },
+      { name: 'drone', times: b.times, expectedHz: b.values, measuredHz: bMeasured.values, stats: pitchErrorStats(b.values, bMeasured.values), passed: false, note: 'render used Doppler factor 2' },
+    ],
+    timeScale: { times: a.times, values: a.times.map((t) => (t < 1.5 ? 1 : 0.5)) },
+  };
+}
+
+function parseSvg(text: string): Document {
+  const { window } = new JSDOM('');
+  return new window.DOMParser().parseFromString(text, 'image/svg+xml');
+}
+
+describe('renderReportSvg', () => {
+  it.each(['hz', 'cents'] as const)('produces SVG that parses, with one path per series per source (%s axis)', (unit) => {
+    const doc = parseSvg(renderReportSvg(sampleReport(), { unit }));
+    expect(doc.getElementsByTagName('parsererror').length).toBe(0);
+    expect(doc.documentElement.tagName).toBe('svg');
+    const sources = Array.from(doc.querySelectorAll('g.source'));
+    expect(sources.map((g) => g.getAttribute('data-source'))).toEqual(['car', 'drone']);
+    for (const g of sources) {
+      const paths = Array.from(g.querySelectorAll('path')).map((p) => p.getAttribute('data-series'));
+      expect(paths).toEqual(['expected', 'measured']);
+    }
+    expect(doc.querySelectorAll('path[data-series="time-scale"]').length).toBe(1);
+    expect(doc.querySelectorAll('path').length).toBe(5);
+  });
+
+  it('gives each source a pass or fail badge matching its verdict', () => {
+    const doc = parseSvg(renderReportSvg(sampleReport()));
+    const badges = Array.from(doc.querySelectorAll('g.badge'));
+    expect(badges.map((b) => b.getAttribute('data-verdict'))).toEqual(['pass', 'fail']);
+    expect(badges.map((b) => b.textContent?.trim())).toEqual(['PASS', 'FAIL']);
+  });
+
+  it('breaks the measured path at frames without pitch and escapes text', () => {
+    const text = renderReportSvg(sampleReport());
+    const doc = parseSvg(text);
+    const measured = doc.querySelector('g.source[data-source="car"] path[data-series="measured"]')!.getAttribute('d')!;
+    expect(measured.match(/M/g)!.length).toBe(2);
+    expect(doc.querySelector('title')!.textContent).toBe('pass <by> & "fly"');
+    expect(text).toContain('median');
+  });
+
+  it('leaves the time-scale strip out when no time scale is given', () => {
+    const report = { ...sampleReport(), timeScale: undefined };
+    const doc = parseSvg(renderReportSvg(report));
+    expect(doc.querySelectorAll('path[data-series="time-scale"]').length).toBe(0);
+  });
+});
+
+describe('renderReportHtml', () => {
+  it('embeds the SVG inline with a figures row per source and no external resources', () => {
+    const html = renderReportHtml(sampleReport());
+    const { window } = new JSDOM(html);
+    const doc = window.document;
+    expect(doc.querySelectorAll('body > svg').length).toBe(1);
+    expect(doc.querySelectorAll('tbody tr').length).toBe(2);
+    expect(doc.querySelector('tbody tr td.fail')!.textContent).toBe('FAIL');
+    expect(doc.querySelectorAll('link, script, img, [src]').length).toBe(0);
+  });
+});
+
+describe('report helpers', () => {
+  it('makes 1-2-5 ticks covering the range', () => {
+    expect(niceTicks(0, 1, 5)).toEqual([0, 0.2, 0.4, 0.6, 0.8, 1]);
+    expect(niceTicks(431, 468, 5)).toEqual([440, 450, 460]);
+    expect(niceTicks(-0.3, 0.25, 5)).toEqual([-0.2, 0, 0.2]);
+  });
+
+  it('draws path data through finite points only', () => {
+    const d = pathData([0, 1, 2, 3], [0, NaN, 2, 3], (v) => v * 10, (v) => 100 - v);
+    expect(d).toBe('M0 100M20 98L30 97');
+  });
+
+  it('escapes the five XML special characters', () => {
+    expect(escapeXml(`<a href="x">'&'</a>`)).toBe('&lt;a href=&quot;x&quot;&gt;&apos;&amp;&apos;&lt;/a&gt;');
+  });
+
+  it('writes SVG or HTML by extension and refuses others', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'ralenti-report-'));
+    try {
+      writeReport(join(dir, 'r.svg'), sampleReport());
+      writeReport(join(dir, 'r.html'), sampleReport());
+      expect(readFileSync(join(dir, 'r.svg'), 'utf8').startsWith('<svg')).toBe(true);
+      expect(readFileSync(join(dir, 'r.html'), 'utf8').startsWith('<!doctype html>')).toBe(true);
+      expect(() => writeReport(join(dir, 'r.png'), sampleReport())).toThrow(/\.svg or \.html/);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
