@@ -11,6 +11,7 @@ export {
   MIN_TARGET_RATIO,
   MAX_VOICE_GAIN,
   MAX_COORDINATE,
+  MAX_RADIAL_SPEED,
   GAME_CLOCK_MIN_TIME_SCALE,
   MIN_CUTOFF_HZ,
 } from './target-mapper';

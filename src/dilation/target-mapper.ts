@@ -16,6 +16,8 @@ export const MIN_TARGET_RATIO = 1 / 1024;
 export const MAX_VOICE_GAIN = 16;
 /** Coordinates beyond ±1e12 m are treated like non-finite ones (voice heard non-positional). */
 export const MAX_COORDINATE = 1e12;
+/** Line-of-sight speeds beyond ±1e9 m/s are absurd: clamped to it and counted. */
+export const MAX_RADIAL_SPEED = 1e9;
 /** Lowest time scale used to turn wall-clock into game-clock velocity (wall ÷ max(s, this)). */
 export const GAME_CLOCK_MIN_TIME_SCALE = 0.05;
 /** Lowest cutoff target, Hz. */
@@ -205,14 +207,8 @@ export class TargetMapper {
     const lv = lis.velocity;
     let vss = -(sv.x * dir.x + sv.y * dir.y + sv.z * dir.z);
     let vls = -(lv.x * dir.x + lv.y * dir.y + lv.z * dir.z);
-    if (!Number.isFinite(vss)) {
-      vss = 0;
-      this.clamps += 1;
-    }
-    if (!Number.isFinite(vls)) {
-      vls = 0;
-      this.clamps += 1;
-    }
+    vss = this.clampSpeed(vss);
+    vls = this.clampSpeed(vls);
     if (this.tuning.doppler.velocityClock === 'game') {
       const k = 1 / (s > GAME_CLOCK_MIN_TIME_SCALE ? s : GAME_CLOCK_MIN_TIME_SCALE);
       vss *= k;
@@ -224,6 +220,15 @@ export class TargetMapper {
     let ratio = dopplerFromSpeeds(vls, vss, this.c, factor, this.dopplerStats);
     ratio = ratio < this.minDoppler ? this.minDoppler : ratio > this.maxDoppler ? this.maxDoppler : ratio;
     return ratio;
+  }
+
+  /** Non-finite speeds → 0, beyond ±MAX_RADIAL_SPEED → clamped; both counted. */
+  private clampSpeed(v: number): number {
+    if (v >= -MAX_RADIAL_SPEED && v <= MAX_RADIAL_SPEED) return v;
+    this.clamps += 1;
+    if (v > MAX_RADIAL_SPEED) return MAX_RADIAL_SPEED;
+    if (v < -MAX_RADIAL_SPEED) return -MAX_RADIAL_SPEED;
+    return 0;
   }
 
   /** Normalised forward and right (= forward × up) of the listener into scratch; defaults when degenerate (counted). */
