@@ -1,6 +1,6 @@
 // Public names of the DSP core: kernel design, streaming resampler, offline resample, biquad low-pass, smoothing, unit helpers.
 export { besselI0, kaiserBeta, kaiserTaps, kaiserAt, kaiserWindow } from './kaiser';
-export { qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, tierDesigns, isQualityTier } from './quality-tiers';
+export { qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, ALIAS_STOP_FRACTION, tierDesigns, isQualityTier } from './quality-tiers';
 export type { QualityTierName, TierDesign } from './quality-tiers';
 export { KernelTable } from './kernel-table';
 export type { KernelTableOptions } from './kernel-table';
@@ -9,3 +9,8 @@ export type { StreamReaderOptions, StreamSourceOptions } from './stream-reader';
 export { resample } from './resample';
 export type { ResampleOptions } from './resample';
 export { DspArgumentError } from './dsp-argument-error';
+export { BiquadLowpass, BIQUAD_MIN_CUTOFF_HZ, BIQUAD_MAX_CUTOFF_FRACTION, BIQUAD_Q_RANGE } from './biquad-lowpass';
+export type { BiquadLowpassOptions } from './biquad-lowpass';
+export { OnePoleSmoother } from './one-pole-smoother';
+export type { OnePoleSmootherOptions } from './one-pole-smoother';
+export { dbToGain, gainToDb, centsToRatio, ratioToCents } from './conversions';

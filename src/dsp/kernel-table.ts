@@ -1,7 +1,7 @@
 // Polyphase Kaiser-windowed sinc table for bandlimited interpolation (J. O. Smith, "Digital Audio Resampling",
 // CCRMA: one stored low-pass impulse response, linear interpolation between table entries; Kaiser 1974 design).
 import { besselI0, kaiserBeta, kaiserTaps } from './kaiser';
-import { tierDesigns, isQualityTier, type QualityTierName, type TierDesign } from './quality-tiers';
+import { ALIAS_STOP_FRACTION, tierDesigns, isQualityTier, type QualityTierName, type TierDesign } from './quality-tiers';
 import { DspArgumentError } from './dsp-argument-error';
 
 /** Options of a custom kernel table (the tiers use `KernelTable.forTier`). */
@@ -34,6 +34,8 @@ export class KernelTable {
   readonly cutoff: number;
   /** Kaiser shape parameter β. */
   readonly beta: number;
+  /** Stretch per unit ratio above 1 (stopbandEdge / ALIAS_STOP_FRACTION, ≤ 1): the kernel widens by ratio · stretchPerRatio once that exceeds 1. */
+  readonly stretchPerRatio: number;
   /** The design this table was built from. */
   readonly design: TierDesign;
   /** Phase-major rows, (phases + 1) × taps; row φ holds h(taps/2 − 1 − t + φ/phases), t = 0…taps−1. */
@@ -58,6 +60,7 @@ export class KernelTable {
     this.phases = l;
     this.cutoff = (d.passbandEdge + d.stopbandEdge) / 2;
     this.beta = kaiserBeta(d.attenuationDb);
+    this.stretchPerRatio = Math.min(1, d.stopbandEdge / ALIAS_STOP_FRACTION);
     const fc = this.cutoff;
     const i0b = besselI0(this.beta);
     const total = n * l;
@@ -91,14 +94,15 @@ export class KernelTable {
     return t;
   }
 
-  /** Stride through `dense` used at `ratio` > 1: floor(phases/ratio), so the effective stretch phases/stride ≥ ratio. */
+  /** Stride through `dense` at playback ratio `ratio`: phases when unstretched, else round(phases / stretch) (stretch = phases/stride, within ½ stride step of ratio · stretchPerRatio). */
   strideFor(ratio: number): number {
-    return ratio <= 1 ? this.phases : Math.floor(this.phases / ratio);
+    const s = ratio * this.stretchPerRatio;
+    return s <= 1 ? this.phases : Math.min(this.phases, Math.round(this.phases / s));
   }
 
   /** Largest window (source frames) any ratio up to `maxRatio` needs. */
   maxWindow(maxRatio: number): number {
-    const stride = Math.max(1, Math.floor(this.phases / maxRatio));
+    const stride = Math.max(1, this.strideFor(maxRatio));
     return Math.ceil((this.taps * this.phases) / stride) + 2;
   }
 }

@@ -8,6 +8,13 @@ export const MIN_RATIO = 1 / 65536;
 /** Largest playback ratio (4 = two octaves up); larger ones are clamped on the audio path and refused by `resample`. */
 export const MAX_RATIO = 4;
 
+/**
+ * Above ratio 1 the kernel's stopband edge is placed at this fraction of the output Nyquist (7/6: 28 kHz at 48 kHz), so
+ * anything folded by the speed-up lands only between 20 kHz and the output Nyquist; the kernel is stretched by
+ * ratio · stopbandEdge / ALIAS_STOP_FRACTION (never below 1).
+ */
+export const ALIAS_STOP_FRACTION = 7 / 6;
+
 /** The quality tier names, cheapest first. */
 export const qualityTiers: readonly QualityTierName[] = Object.freeze(['draft', 'standard', 'high'] as QualityTierName[]);
 /** The tier used when none is named. */

@@ -126,12 +126,7 @@ export class StreamReader {
       this.copyThrough(out, outOffset, frames);
       return;
     }
-    const dr = re - rs;
-    for (let i = 0; i < frames; i++) {
-      const r = rs + (dr * i) / frames;
-      this.renderOne(out, outOffset + i, r);
-      this.advance(r);
-    }
+    this.render(out, outOffset, frames, rs, re - rs, null, 0);
   }
 
   /** Like `read`, with one ratio per output sample from ratios[ratiosOffset…]. */
@@ -142,10 +137,79 @@ export class StreamReader {
       this.copyThrough(out, outOffset, frames);
       return;
     }
+    this.render(out, outOffset, frames, 0, 0, ratios, ratiosOffset);
+  }
+
+  /** The block loop: ratio per sample from (rs, dr) or from `ratios`; a mono in-range fast path, the general path otherwise. */
+  private render(out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
+    const t = this.table;
+    const taps = t.taps;
+    const phases = t.phases;
+    const halfTaps = t.halfTaps;
+    const halfDense = halfTaps * phases;
+    const pm = t.phaseMajor;
+    const dense = t.dense;
+    const mono = this.channelsInUse === 1;
+    const x = this.sources[0];
+    const y = out[0];
+    const hi = this.loop ? this.loopEnd : this.length;
+    let lo = this.loop && this.wrapped ? this.loopStart : 0;
     for (let i = 0; i < frames; i++) {
-      const r = this.sanitize(ratios[ratiosOffset + i]);
-      this.renderOne(out, outOffset + i, r);
-      this.advance(r);
+      const r = ratios === null ? rs + (dr * i) / frames : this.sanitize(ratios[ro + i]);
+      const stride = t.strideFor(r);
+      const pos = this.pos;
+      const n = Math.floor(pos);
+      const frac = pos - n;
+      if (stride === phases) {
+        const mLo = n - halfTaps + 1;
+        if (mono && mLo >= lo && mLo + taps <= hi) {
+          const ph = frac * phases;
+          const phi = Math.floor(ph);
+          const k0 = phi * taps;
+          const k1 = k0 + taps;
+          let a0 = 0;
+          let a1 = 0;
+          let b0 = 0;
+          let b1 = 0;
+          for (let j = 0; j < taps; j += 2) {
+            const s0 = x[mLo + j];
+            const s1 = x[mLo + j + 1];
+            a0 += pm[k0 + j] * s0;
+            a1 += pm[k1 + j] * s0;
+            b0 += pm[k0 + j + 1] * s1;
+            b1 += pm[k1 + j + 1] * s1;
+          }
+          a0 += b0;
+          y[o + i] = a0 + (ph - phi) * (a1 + b1 - a0);
+          this.lastStretch = 1;
+        } else this.renderOne(out, o + i, stride);
+      } else {
+        const c = frac * stride;
+        const ci = Math.floor(c);
+        const a1n = Math.floor((halfDense - 1 - ci) / stride);
+        const mLo = n - a1n;
+        const count = a1n + Math.floor((halfDense + ci) / stride) + 1;
+        if (mono && mLo >= lo && mLo + count <= hi) {
+          let k = a1n * stride + halfDense + ci;
+          let a0 = 0;
+          let a1 = 0;
+          for (let j = 0; j < count; j++) {
+            const s0 = x[mLo + j];
+            a0 += dense[k] * s0;
+            a1 += dense[k + 1] * s0;
+            k -= stride;
+          }
+          y[o + i] = (stride / phases) * (a0 + (c - ci) * (a1 - a0));
+          this.lastStretch = phases / stride;
+        } else this.renderOne(out, o + i, stride);
+      }
+      let p = pos + r;
+      if (this.loop && p >= this.loopEnd) {
+        while (p >= this.loopEnd) p -= this.loopLength;
+        this.wrapped = true;
+        lo = this.loopStart;
+      }
+      this.pos = p;
     }
   }
 
@@ -160,7 +224,7 @@ export class StreamReader {
     const dr = re - rs;
     for (let i = 0; i < frames; i++) {
       const r = rs + (dr * i) / frames;
-      this.lastStretch = r > 1 ? this.table.phases / this.table.strideFor(r) : 1;
+      this.lastStretch = this.table.phases / this.table.strideFor(r);
       this.advance(r);
     }
   }
@@ -217,7 +281,7 @@ export class StreamReader {
     return any;
   }
 
-  private renderOne(out: readonly Float32Array[], o: number, r: number): void {
+  private renderOne(out: readonly Float32Array[], o: number, strideIn: number): void {
     const t = this.table;
     const chans = this.channelsInUse;
     const n = Math.floor(this.pos);
@@ -228,7 +292,7 @@ export class StreamReader {
     let k0: number;
     let f: number;
     let scale: number;
-    if (r <= 1) {
+    if (strideIn === t.phases) {
       const ph = frac * t.phases;
       const phi = Math.floor(ph);
       f = ph - phi;
@@ -239,7 +303,7 @@ export class StreamReader {
       scale = 1;
       this.lastStretch = 1;
     } else {
-      stride = Math.floor(t.phases / r);
+      stride = strideIn;
       const half = t.halfTaps * t.phases;
       const c = frac * stride;
       const i = Math.floor(c);

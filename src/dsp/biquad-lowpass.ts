@@ -1,0 +1,89 @@
+// Second-order low-pass from R. Bristow-Johnson's Audio EQ Cookbook (W3C Audio WG Note, 2021), Direct Form 1, per channel.
+import type { Hz } from '../units';
+
+/** Construction options of a BiquadLowpass. */
+export interface BiquadLowpassOptions {
+  /** Channels filtered with shared coefficients (1…32). */
+  channels: number;
+}
+
+/** Lowest cutoff accepted, in Hz; lower requests are clamped. */
+export const BIQUAD_MIN_CUTOFF_HZ: Hz = 10;
+/** Highest cutoff as a fraction of the sample rate (below Nyquist, where the design stays stable). */
+export const BIQUAD_MAX_CUTOFF_FRACTION = 0.49;
+/** Q range accepted (linear Q, not dB); values outside are clamped. */
+export const BIQUAD_Q_RANGE: readonly [number, number] = Object.freeze([0.1, 30] as [number, number]);
+
+/** A cookbook low-pass applied in place to several channels with one set of coefficients; no allocation after construction. */
+export class BiquadLowpass {
+  private readonly channels: number;
+  private readonly state: Float64Array; // x1, x2, y1, y2 per channel
+  private readonly coef = new Float64Array(5);
+
+  /** Allocates state for `options.channels` channels; starts as a pass-through-like open filter (cutoff 0.49·48 kHz, Q 1/√2). */
+  constructor(options: BiquadLowpassOptions) {
+    this.channels = Math.max(1, Math.min(32, Math.floor(options.channels)));
+    this.state = new Float64Array(4 * this.channels);
+    BiquadLowpass.coefficients(48000 * BIQUAD_MAX_CUTOFF_FRACTION, Math.SQRT1_2, 48000, this.coef);
+  }
+
+  /** Cookbook low-pass coefficients [b0, b1, b2, a1, a2] normalised by a0, for `cutoffHz` (clamped to 10 Hz…0.49·sampleRate) and linear `q` (clamped to 0.1…30). */
+  static coefficients(cutoffHz: Hz, q: number, sampleRate: Hz, out: Float64Array): Float64Array {
+    const fs = Number.isFinite(sampleRate) && sampleRate > 0 ? sampleRate : 48000;
+    const f0 = Math.min(fs * BIQUAD_MAX_CUTOFF_FRACTION, Math.max(BIQUAD_MIN_CUTOFF_HZ, Number.isFinite(cutoffHz) ? cutoffHz : fs));
+    const qq = Math.min(BIQUAD_Q_RANGE[1], Math.max(BIQUAD_Q_RANGE[0], Number.isFinite(q) ? q : Math.SQRT1_2));
+    const w0 = (2 * Math.PI * f0) / fs;
+    const cosw = Math.cos(w0);
+    const alpha = Math.sin(w0) / (2 * qq);
+    const a0 = 1 + alpha;
+    out[0] = (1 - cosw) / 2 / a0;
+    out[1] = (1 - cosw) / a0;
+    out[2] = out[0];
+    out[3] = (-2 * cosw) / a0;
+    out[4] = (1 - alpha) / a0;
+    return out;
+  }
+
+  /** Sets the low-pass cutoff (Hz, clamped to a stable range), Q (linear) and sample rate (Hz); state is kept, so call per block. */
+  setLowpass(cutoffHz: Hz, q: number, sampleRate: Hz): void {
+    BiquadLowpass.coefficients(cutoffHz, q, sampleRate, this.coef);
+  }
+
+  /** Filters channels[c][offset…offset+frames) in place for c < channels. */
+  process(channels: readonly Float32Array[], offset: number, frames: number): void {
+    const k = this.coef;
+    const b0 = k[0];
+    const b1 = k[1];
+    const b2 = k[2];
+    const a1 = k[3];
+    const a2 = k[4];
+    const n = Math.min(this.channels, channels.length);
+    for (let c = 0; c < n; c++) {
+      const buf = channels[c];
+      const s = 4 * c;
+      let x1 = this.state[s];
+      let x2 = this.state[s + 1];
+      let y1 = this.state[s + 2];
+      let y2 = this.state[s + 3];
+      for (let i = offset; i < offset + frames; i++) {
+        const x0 = buf[i];
+        let y0 = b0 * x0 + b1 * x1 + b2 * x2 - a1 * y1 - a2 * y2;
+        if (y0 > -1e-25 && y0 < 1e-25) y0 = 0; // flush denormals
+        buf[i] = y0;
+        x2 = x1;
+        x1 = x0;
+        y2 = y1;
+        y1 = y0;
+      }
+      this.state[s] = x1;
+      this.state[s + 1] = x2;
+      this.state[s + 2] = y1;
+      this.state[s + 3] = y2;
+    }
+  }
+
+  /** Clears the filter memory (silence in, silence out). */
+  reset(): void {
+    this.state.fill(0);
+  }
+}

@@ -1,0 +1,49 @@
+// Exponential approach to a target, the Web Audio API's AudioParam.setTargetAtTime formula v(t) = V1 + (V0 − V1)·e^(−t/τ).
+import type { Hz, Seconds } from '../units';
+
+/** Construction options of a OnePoleSmoother. */
+export interface OnePoleSmootherOptions {
+  /** Time constant τ in seconds (≥ 0; 0 jumps straight to the target). */
+  timeConstantSeconds: Seconds;
+  /** Sample rate in Hz (> 0). */
+  sampleRate: Hz;
+  /** Starting value (default 0). */
+  initial?: number;
+}
+
+/** Smooths a control value towards a target, sample-accurate over whole blocks; no allocation. */
+export class OnePoleSmoother {
+  /** Current value. */
+  value: number;
+  private tau: Seconds;
+  private readonly sampleRate: Hz;
+
+  /** See OnePoleSmootherOptions. */
+  constructor(options: OnePoleSmootherOptions) {
+    this.sampleRate = Number.isFinite(options.sampleRate) && options.sampleRate > 0 ? options.sampleRate : 48000;
+    this.tau = 0;
+    this.setTimeConstant(options.timeConstantSeconds);
+    this.value = options.initial ?? 0;
+  }
+
+  /** Sets τ in seconds (negative or non-finite → 0). */
+  setTimeConstant(seconds: Seconds): void {
+    this.tau = Number.isFinite(seconds) && seconds > 0 ? seconds : 0;
+  }
+
+  /** Jumps to `value` (non-finite → 0). */
+  reset(value: number): void {
+    this.value = Number.isFinite(value) ? value : 0;
+  }
+
+  /** Advances `frames` samples towards `target` and returns the new value: target + (value − target)·exp(−frames/(τ·sampleRate)). */
+  advance(target: number, frames: number): number {
+    if (!Number.isFinite(target)) return this.value;
+    if (this.tau === 0) {
+      this.value = target;
+      return target;
+    }
+    this.value = target + (this.value - target) * Math.exp(-frames / (this.tau * this.sampleRate));
+    return this.value;
+  }
+}
