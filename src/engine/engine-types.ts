@@ -11,6 +11,8 @@ export interface EngineOptions {
   capacity?: number;
   /** Sound slots (decoded buffers) the engine can hold (1…4096), default 256. */
   maxSounds?: number;
+  /** Source slots for positions and velocities from snapshots (1…4096), default 256. */
+  maxSources?: number;
   /** Largest block `render` accepts in one call without splitting (default 128, the Web Audio render quantum). */
   maxBlockFrames?: number;
   /** A parsed tuning; defaults to the built-in tuning. */

@@ -1,0 +1,422 @@
+// The voice engine: a fixed pool of voices over decoded sounds, rendered block by block (control rate = block),
+// mixed to a stereo master bus with a safety limiter. One engine, two hosts (AudioWorklet and Node).
+import type { Hz, Seconds } from '../units';
+import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, TimeScaleRequest, VoiceMonitor } from './engine-types';
+import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
+import { KernelTable } from '../dsp';
+import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
+import { SoundBank } from './sound-bank';
+import { SnapshotStore } from './snapshot-store';
+import { PeakLimiter } from './peak-limiter';
+import { Voice, VOICE_FREE, VOICE_PLAYING, VOICE_RELEASING, gainToDbFloor, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
+
+/** Frozen defaults of the engine's options and fades. */
+export const engineDefaults = Object.freeze({
+  capacity: 64,
+  maxSounds: 256,
+  maxBlockFrames: 128,
+  maxSources: 256,
+  /** Default fade-in of a voice, s. */
+  fadeInSeconds: 0.003,
+  /** Default fade-out of `stop`, s. */
+  stopFadeSeconds: 0.01,
+  /** Fade-out of a stolen voice, s. */
+  stealFadeSeconds: 0.01,
+});
+
+const HANDLE_SLOTS = 2048;
+const GENERATIONS = 1 << 20;
+
+function checkRange(name: string, v: number, min: number, max: number): number {
+  if (!(Number.isInteger(v) && v >= min && v <= max)) throw new RangeError(`EngineOptions.${name} must be an integer in ${min}…${max}, got ${v}`);
+  return v;
+}
+
+/** Renders voices of decoded sounds with time-scale and Doppler pitch, dilation tone, panning and a master limiter. */
+export class Engine {
+  /** Counters and levels, updated by every render call (the same object throughout). */
+  readonly stats: EngineStats;
+  /** Output sample rate, Hz. */
+  readonly sampleRate: Hz;
+  /** Voice pool size. */
+  readonly capacity: number;
+  private readonly maxBlock: number;
+  private readonly voices: Voice[] = [];
+  private readonly bank: SoundBank;
+  private readonly snapshots: SnapshotStore;
+  private readonly flow = new TimeFlow();
+  private readonly mapper: TargetMapper;
+  private readonly limiter: PeakLimiter;
+  private readonly scratch: VoiceScratch;
+  private readonly mixL: Float32Array;
+  private readonly mixR: Float32Array;
+  private readonly input: VoiceInput;
+  private readonly probe: Voice['targets'] = createVoiceTargets();
+  private tuning: Tuning;
+  private frameCount = 0;
+  private owned = 0;
+  private sequence = 0;
+  private master = 1;
+  private masterPrev = 1;
+  private engineClamps = 0;
+
+  /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
+  constructor(options: EngineOptions) {
+    const sr = options.sampleRate;
+    if (!(sr >= 8000 && sr <= 192000)) throw new RangeError(`EngineOptions.sampleRate must be 8000…192000 Hz, got ${sr}`);
+    this.sampleRate = sr;
+    this.capacity = checkRange('capacity', options.capacity ?? engineDefaults.capacity, 1, 1024);
+    this.maxBlock = checkRange('maxBlockFrames', options.maxBlockFrames ?? engineDefaults.maxBlockFrames, 1, 16384);
+    const maxSources = checkRange('maxSources', options.maxSources ?? engineDefaults.maxSources, 1, 4096);
+    this.bank = new SoundBank(checkRange('maxSounds', options.maxSounds ?? engineDefaults.maxSounds, 1, 4096));
+    const t = options.tuning ?? defaultTuning;
+    this.tuning = t;
+    this.mapper = new TargetMapper({ tuning: t });
+    this.snapshots = new SnapshotStore({ maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
+    this.limiter = new PeakLimiter({ sampleRate: sr, ceilingDb: t.master.ceilingDb });
+    this.limiter.enabled = t.master.limiter;
+    this.master = this.masterPrev = Math.pow(10, t.master.gainDb / 20);
+    const table = KernelTable.forTier(t.resampler.tier);
+    for (let i = 0; i < 2 * this.capacity; i++) {
+      const v = new Voice(table, sr, this.smoothing(t));
+      v.index = i;
+      this.voices.push(v);
+    }
+    const buf = () => new Float32Array(this.maxBlock);
+    const stereo = [buf(), buf()];
+    this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()] };
+    this.mixL = buf();
+    this.mixR = buf();
+    this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null };
+    this.stats = {
+      activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
+      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: t.resampler.tier,
+    };
+  }
+
+  /** Engine clock: seconds rendered so far. */
+  get time(): Seconds {
+    return this.frameCount / this.sampleRate;
+  }
+
+  /** The tuning in use. */
+  get currentTuning(): Tuning {
+    return this.tuning;
+  }
+
+  /** Stores a decoded sound (1 or 2 channels, equal lengths, any rate up to 768 kHz); returns its id, or −1 (counted in refused). */
+  addSound(channels: readonly Float32Array[], sampleRate: Hz): number {
+    const id = this.bank.add(channels, sampleRate);
+    if (id < 0) this.stats.refused++;
+    return id;
+  }
+
+  /** Removes a sound; its voices fade out (default stop fade) and the slot frees once they are silent. */
+  removeSound(id: number): void {
+    const s = this.bank.slot(id);
+    if (s < 0) return;
+    for (let i = 0; i < this.voices.length; i++) {
+      const v = this.voices[i];
+      if (v.state === VOICE_PLAYING && v.sound === s) this.release(v, engineDefaults.stopFadeSeconds);
+    }
+    this.bank.remove(id);
+  }
+
+  /** Starts a voice; returns its handle, or −1 if refused (unknown sound, or a full pool of higher priority). */
+  play(sound: number, options: PlayOptions = {}): number {
+    const slot = this.bank.slot(sound);
+    if (slot < 0) {
+      this.stats.refused++;
+      return -1;
+    }
+    let group = options.group ?? DEFAULT_GROUP;
+    if (!this.mapper.hasGroup(group)) {
+      group = DEFAULT_GROUP;
+      this.engineClamps++;
+    }
+    const compiled = this.mapper.group(group);
+    const priority = clampNumber(options.priority ?? compiled.priority, 0, 255, compiled.priority);
+    const gain = clampNumber(options.gain ?? 1, 0, 16, 1);
+    const ratio = options.ratio === undefined ? 1 : options.ratio > 0 && options.ratio <= 4 ? options.ratio : (this.engineClamps++, 1);
+    const sourceId = options.sourceId !== undefined && Number.isFinite(options.sourceId) ? options.sourceId : -1;
+    const rate = this.bank.rates[slot];
+    // Targets now, for the stealing decision and so that the voice starts at its proper pitch.
+    this.snapshots.interpolate(this.time);
+    const src = sourceId === -1 ? -1 : this.snapshots.find(sourceId);
+    this.mapInto(this.probe, group, (ratio * rate) / this.sampleRate, gain, src);
+    const audibility = this.probe.gain * Math.max(this.probe.left, this.probe.right);
+    if (this.owned >= this.capacity && !this.steal(priority, audibility)) {
+      this.stats.refused++;
+      return -1;
+    }
+    const v = this.freeVoice();
+    v.state = VOICE_PLAYING;
+    v.sound = slot;
+    v.channels = this.bank.channels[slot]!.length;
+    v.rateFactor = rate / this.sampleRate;
+    v.group = group;
+    v.followsTime = compiled.followsSpeed;
+    v.priority = priority;
+    v.gain = gain;
+    v.ratio = ratio;
+    v.sourceId = sourceId;
+    v.sourceSlot = src;
+    v.sequence = this.sequence++;
+    v.virtual = false;
+    v.fresh = true;
+    v.thawing = false;
+    const fadeIn = options.fadeInSeconds ?? engineDefaults.fadeInSeconds;
+    v.env = fadeIn > 0 ? 0 : 1;
+    v.envTarget = 1;
+    v.attackStep = v.fadeStep(fadeIn);
+    v.releaseStep = v.fadeStep(engineDefaults.stopFadeSeconds);
+    copyTargets(this.probe, v.targets);
+    const offset = clampNumber((options.offsetSeconds ?? 0) * rate, 0, this.bank.frames[slot], 0);
+    v.reader.setSource(this.bank.channels[slot]!, { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset });
+    this.bank.release(slot, 1);
+    this.owned++;
+    return v.index + HANDLE_SLOTS * v.generation;
+  }
+
+  /** Stops a voice with a fade (s; default 0.01, 0 = at once); unknown or stale handles are ignored. */
+  stop(voice: number, fadeSeconds: Seconds = engineDefaults.stopFadeSeconds): void {
+    const v = this.resolve(voice);
+    if (v !== null && v.state === VOICE_PLAYING) this.release(v, fadeSeconds);
+  }
+
+  /** Changes a playing voice's linear gain (0…16) or base ratio ((0, 4]); changes glide with the tuning's smoothing. */
+  setVoice(voice: number, change: { gain?: number; ratio?: number }): void {
+    const v = this.resolve(voice);
+    if (v === null) return;
+    if (change.gain !== undefined) v.gain = clampNumber(change.gain, 0, 16, v.gain);
+    if (change.ratio !== undefined) v.ratio = change.ratio > 0 && change.ratio <= 4 ? change.ratio : (this.engineClamps++, v.ratio);
+  }
+
+  /** Switches tuning (a parseTuning result); voices keep playing and glide to the new targets. */
+  setTuning(t: Tuning): void {
+    this.tuning = t;
+    this.mapper.setTuning(t);
+    this.snapshots.configure(t.doppler.velocitySmoothingSeconds, t.doppler.teleportSpeed);
+    this.limiter.setCeiling(t.master.ceilingDb);
+    this.limiter.enabled = t.master.limiter;
+    this.master = Math.pow(10, t.master.gainDb / 20);
+    const table = KernelTable.forTier(t.resampler.tier);
+    const sm = this.smoothing(t);
+    for (const v of this.voices) {
+      v.reader.setTable(table);
+      v.setSmoothing(sm);
+      if (v.state !== VOICE_FREE && !this.mapper.hasGroup(v.group)) v.group = DEFAULT_GROUP;
+      if (v.state !== VOICE_FREE) v.followsTime = this.mapper.group(v.group).followsSpeed;
+    }
+    this.stats.tier = t.resampler.tier;
+  }
+
+  /** Stores a gameplay snapshot; positions glide from the previous one across the snapshot interval. */
+  pushSnapshot(s: EngineSnapshot): void {
+    try {
+      if (s.timeScale !== undefined) this.flow.jump(s.timeScale, this.time);
+      this.snapshots.push(s, this.time);
+    } catch {
+      this.stats.errors++;
+    }
+  }
+
+  /** Starts a time-scale ramp (startTime defaults to now, engine time). */
+  setTimeScale(request: TimeScaleRequest): void {
+    this.flow.set(request, this.time);
+  }
+
+  /** Renders `frames` stereo frames into outputs[0] (left) and outputs[1] (right); never throws, never allocates. */
+  render(outputs: readonly Float32Array[], frames: number): void {
+    const st = this.stats;
+    try {
+      st.peakIn = 0;
+      st.peakOut = 0;
+      for (let done = 0; done < frames; ) {
+        const n = frames - done < this.maxBlock ? frames - done : this.maxBlock;
+        this.block(outputs, done, n);
+        done += n;
+      }
+    } catch {
+      st.errors++;
+      for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
+    }
+    let active = 0;
+    let virtual = 0;
+    let readerClamps = 0;
+    for (let i = 0; i < this.voices.length; i++) {
+      const v = this.voices[i];
+      readerClamps += v.reader.clampCount;
+      if (v.state === VOICE_FREE) continue;
+      if (v.virtual) virtual++;
+      else active++;
+    }
+    st.activeVoices = active;
+    st.virtualVoices = virtual;
+    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.limiter.nonFinite + readerClamps;
+    st.refused += this.snapshots.refused;
+    this.snapshots.refused = 0;
+    st.limiterDb = this.limiter.reductionDb;
+    st.timeScale = this.flow.valueAt(this.time);
+    st.time = this.time;
+  }
+
+  /** Fills `out` with the playing voices (up to out.length) and returns how many were written. */
+  monitor(out: VoiceMonitor[]): number {
+    let k = 0;
+    for (let i = 0; i < this.voices.length && k < out.length; i++) {
+      const v = this.voices[i];
+      if (v.state === VOICE_FREE) continue;
+      const m = out[k++];
+      m.voice = i + HANDLE_SLOTS * v.generation;
+      m.sourceId = v.sourceId;
+      m.group = v.group;
+      m.ratioCents = 1200 * Math.log2(v.currentRatio);
+      m.dopplerCents = v.dopplerCents.value;
+      m.radialSpeed = v.targets.radialSpeed;
+      m.distance = v.targets.distance;
+      m.cutoffHz = v.currentCutoff;
+      m.gainDb = gainToDbFloor(v.targets.gain);
+      m.virtual = v.virtual;
+    }
+    return k;
+  }
+
+  private block(outputs: readonly Float32Array[], offset: number, n: number): void {
+    const mixL = this.mixL;
+    const mixR = this.mixR;
+    mixL.fill(0, 0, n);
+    mixR.fill(0, 0, n);
+    const tEnd = (this.frameCount + n) / this.sampleRate;
+    this.snapshots.interpolate(tEnd);
+    const s = this.flow.valueAt(tEnd);
+    for (let i = 0; i < this.voices.length; i++) {
+      const v = this.voices[i];
+      if (v.state === VOICE_FREE) continue;
+      if (v.sourceId !== -1 && !this.snapshots.holds(v.sourceSlot, v.sourceId)) v.sourceSlot = this.snapshots.find(v.sourceId);
+      this.mapInto(v.targets, v.group, v.ratio * v.rateFactor, v.gain, v.sourceId === -1 ? -1 : v.sourceSlot, s);
+      if (!v.render(mixL, mixR, 0, n, this.scratch)) this.free(v);
+    }
+    const g0 = this.masterPrev;
+    const dg = (this.master - g0) / n;
+    this.masterPrev = this.master;
+    let peakIn = this.stats.peakIn;
+    for (let i = 0; i < n; i++) {
+      const g = g0 + dg * (i + 1);
+      const l = mixL[i] * g;
+      const r = mixR[i] * g;
+      mixL[i] = l;
+      mixR[i] = r;
+      const a = l < 0 ? -l : l;
+      const b = r < 0 ? -r : r;
+      if (a > peakIn) peakIn = a;
+      if (b > peakIn) peakIn = b;
+    }
+    this.stats.peakIn = peakIn;
+    this.limiter.process(mixL, mixR, 0, n);
+    let peakOut = this.stats.peakOut;
+    const outL = outputs[0];
+    const outR = outputs.length > 1 ? outputs[1] : null;
+    for (let i = 0; i < n; i++) {
+      const l = mixL[i];
+      const r = mixR[i];
+      if (outR === null) outL[offset + i] = 0.5 * (l + r);
+      else {
+        outL[offset + i] = l;
+        outR[offset + i] = r;
+      }
+      const a = l < 0 ? -l : l;
+      const b = r < 0 ? -r : r;
+      if (a > peakOut) peakOut = a;
+      if (b > peakOut) peakOut = b;
+    }
+    this.stats.peakOut = peakOut;
+    this.frameCount += n;
+  }
+
+  private mapInto(out: Voice['targets'], group: string, baseRatio: number, gain: number, sourceSlot: number, timeScale = this.flow.valueAt(this.time)): void {
+    const inp = this.input;
+    inp.timeScale = timeScale;
+    inp.group = group;
+    inp.baseRatio = baseRatio;
+    inp.gain = gain;
+    inp.source = sourceSlot >= 0 ? this.snapshots.sourceAt(sourceSlot) : null;
+    this.mapper.map(out, inp);
+  }
+
+  /** Frees a playing voice of lowest priority, then lowest audibility, then oldest, if the newcomer may take its place. */
+  private steal(priority: number, audibility: number): boolean {
+    let victim: Voice | null = null;
+    for (let i = 0; i < this.voices.length; i++) {
+      const v = this.voices[i];
+      if (v.state !== VOICE_PLAYING) continue;
+      if (victim === null || v.priority < victim.priority || (v.priority === victim.priority && (v.audibility < victim.audibility || (v.audibility === victim.audibility && v.sequence < victim.sequence)))) victim = v;
+    }
+    if (victim === null || victim.priority > priority || (victim.priority === priority && victim.audibility > audibility)) return false;
+    this.stats.steals++;
+    this.release(victim, engineDefaults.stealFadeSeconds);
+    return true;
+  }
+
+  private release(v: Voice, fadeSeconds: Seconds): void {
+    if (v.env === 0 || !(fadeSeconds > 0)) {
+      this.free(v);
+      return;
+    }
+    v.state = VOICE_RELEASING;
+    v.envTarget = 0;
+    v.releaseStep = v.fadeStep(fadeSeconds);
+    this.owned--;
+  }
+
+  private free(v: Voice): void {
+    if (v.state === VOICE_PLAYING) this.owned--;
+    if (v.state !== VOICE_FREE) this.bank.release(v.sound, -1);
+    v.state = VOICE_FREE;
+    v.generation = (v.generation + 1) % GENERATIONS;
+  }
+
+  /** A free voice slot; when every slot is busy, the quietest releasing voice is cut (it is fading out anyway). */
+  private freeVoice(): Voice {
+    let quietest: Voice | null = null;
+    for (let i = 0; i < this.voices.length; i++) {
+      const v = this.voices[i];
+      if (v.state === VOICE_FREE) return v;
+      if (v.state === VOICE_RELEASING && (quietest === null || v.env * v.audibility < quietest.env * quietest.audibility)) quietest = v;
+    }
+    this.free(quietest!);
+    return quietest!;
+  }
+
+  private resolve(handle: number): Voice | null {
+    if (!Number.isInteger(handle) || handle < 0) return null;
+    const i = handle % HANDLE_SLOTS;
+    const v = this.voices[i];
+    if (v === undefined || v.state === VOICE_FREE || (handle - i) / HANDLE_SLOTS !== v.generation) return null;
+    return v;
+  }
+
+  private smoothing(t: Tuning): { ratio: Seconds; doppler: Seconds; cutoff: Seconds; gain: Seconds } {
+    return { ratio: t.smoothing.ratioSeconds, doppler: t.doppler.smoothingSeconds, cutoff: t.smoothing.cutoffSeconds, gain: t.smoothing.gainSeconds };
+  }
+}
+
+/** Freeze fade of groups at time scale 0, s (re-exported for hosts and tests). */
+export const ENGINE_FREEZE_FADE_SECONDS = FREEZE_FADE_SECONDS;
+
+function clampNumber(v: number, min: number, max: number, fallback: number): number {
+  if (!(v === v)) return fallback;
+  return v < min ? min : v > max ? max : v;
+}
+
+function copyTargets(from: Voice['targets'], to: Voice['targets']): void {
+  to.ratio = from.ratio;
+  to.cutoffHz = from.cutoffHz;
+  to.gain = from.gain;
+  to.left = from.left;
+  to.right = from.right;
+  to.doppler = from.doppler;
+  to.radialSpeed = from.radialSpeed;
+  to.distance = from.distance;
+  to.frozen = from.frozen;
+}
