@@ -1,11 +1,18 @@
 import { describe, expect, it } from 'vitest';
-import { JSDOM } from 'jsdom';
+import { createRequire } from 'node:module';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
 import { pitchErrorStats } from '../../../src/analysis';
 import { escapeXml, niceTicks, pathData, renderReportHtml, renderReportSvg, type CheckReport } from '../../../runtime/check/report-svg';
 import { writeReport } from '../../../runtime/check/write-report';
+
+// jsdom ships without type declarations; load it through require with the small part of its API used here.
+interface JsdomWindow {
+  document: Document;
+  DOMParser: typeof DOMParser;
+}
+const { JSDOM } = createRequire(import.meta.url)('jsdom') as { JSDOM: new (html: string) => { window: JsdomWindow } };
 
 function series(count: number, f: (t: number) => number, gapFrom = -1, gapTo = -1) {
   const times = Float64Array.from({ length: count }, (_, i) => i * 0.01);
