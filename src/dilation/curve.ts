@@ -2,6 +2,9 @@
 // (F. N. Fritsch & R. E. Carlson, "Monotone piecewise cubic interpolation", SIAM J. Numer. Anal. 17(2), 1980).
 import type { CurveSpec } from '../tuning';
 
+/** Smallest x distance between neighbouring keys (the tuning parser enforces the same), keeps tangents finite. */
+export const MIN_KEY_SPACING = 1e-6;
+
 /** An evaluable curve built once from a CurveSpec; evaluate() never allocates. */
 export class Curve {
   /** Key x values, strictly increasing. */
@@ -13,7 +16,7 @@ export class Curve {
   /** True for monotone cubic interpolation, false for linear. */
   readonly monotone: boolean;
 
-  /** Builds the curve; throws RangeError unless keys are ≥ 1, finite and strictly increasing in x. */
+  /** Builds the curve; throws RangeError unless keys are ≥ 1, finite and increasing in x by ≥ MIN_KEY_SPACING. */
   constructor(spec: CurveSpec) {
     const n = spec.keys.length;
     if (n < 1) throw new RangeError('a curve needs at least one key');
@@ -22,7 +25,7 @@ export class Curve {
     for (let i = 0; i < n; i++) {
       const { x, y } = spec.keys[i];
       if (!Number.isFinite(x) || !Number.isFinite(y)) throw new RangeError(`curve key ${i} is not finite`);
-      if (i > 0 && !(x > this.xs[i - 1])) throw new RangeError(`curve key ${i}: x must increase strictly`);
+      if (i > 0 && !(x - this.xs[i - 1] >= MIN_KEY_SPACING)) throw new RangeError(`curve key ${i}: x must exceed the previous key's by ≥ ${MIN_KEY_SPACING}`);
       this.xs[i] = x;
       this.ys[i] = y;
     }

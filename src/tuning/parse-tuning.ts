@@ -159,6 +159,7 @@ function parseCurve(value: Json, kind: 'pitch' | 'tone' | 'level', path: string,
     if (typeof x === 'number') {
       if (x === prevX) issues.add(childPath(kp, 'x'), `duplicate x ${x} (keys[${i - 1}] has the same x)`);
       else if (x < prevX) issues.add(childPath(kp, 'x'), `keys must be sorted by increasing x: ${x} comes after ${prevX}`);
+      else if (x - prevX < curveLimits.minSpacing) issues.add(childPath(kp, 'x'), `keys closer than ${curveLimits.minSpacing} in x to keys[${i - 1}]`);
       prevX = Math.max(prevX, x);
     }
     out.push({ x: x as number, y: y as number });

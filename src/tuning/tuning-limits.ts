@@ -85,6 +85,8 @@ export const curveLimits = {
   interpolation: oneOf('linear', 'monotone'),
   minKeys: 1,
   maxKeys: 64,
+  /** Smallest x distance between neighbouring keys (keeps monotone tangents finite). */
+  minSpacing: 1e-6,
   x: num(0, MAX_TIME_SCALE),
   y: {
     pitch: num(0, 4),

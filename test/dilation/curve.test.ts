@@ -80,6 +80,7 @@ describe('Curve construction', () => {
     ['no keys', []],
     ['unsorted keys', [[1, 0], [0, 1]]],
     ['duplicate x', [[0, 0], [0, 1]]],
+    ['keys closer than 1e-6', [[0, 0], [1e-9, 1]]],
     ['NaN y', [[0, Number.NaN]]],
   ] as [string, [number, number][]][])('rejects %s with a RangeError', (_n, keys) => {
     expect(() => new Curve(spec('linear', keys))).toThrow(RangeError);

@@ -61,6 +61,7 @@ describe('parseTuning: rejected documents name the JSON path', () => {
   const cases: [string, unknown, string, RegExp][] = [
     ['unsorted curve keys', withDoc((d) => { d.groups.weapons = clone().groups.effects; d.groups.weapons.pitch.keys = [{ x: 0, y: 0 }, { x: 2, y: 1 }, { x: 1, y: 2 }]; }), 'groups.weapons.pitch.keys[2].x', /sorted by increasing x/],
     ['duplicate curve keys', withDoc((d) => (d.groups.effects.tone.keys = [{ x: 0.5, y: 1000 }, { x: 0.5, y: 2000 }])), 'groups.effects.tone.keys[1].x', /duplicate x/],
+    ['curve keys closer than 1e-6', withDoc((d) => (d.groups.effects.tone.keys = [{ x: 0.5, y: 1000 }, { x: 0.5 + 1e-9, y: 2000 }])), 'groups.effects.tone.keys[1].x', /closer than 0.000001/],
     ['a number given as a string', withDoc((d) => (d.doppler.factor = '1')), 'doppler.factor', /expected a number, got the string "1"/],
     ['"NaN" as a string', withDoc((d) => (d.distance.refDistance = 'NaN')), 'distance.refDistance', /expected a number/],
     ['NaN in a caller object', withDoc((d) => (d.doppler.maxShiftCents = Number.NaN)), 'doppler.maxShiftCents', /finite/],
