@@ -120,7 +120,7 @@ describe('expected heard frequency', () => {
     const hz = expectedHeardFrequencies(input({ tuning: tuningWith({ dopplerSeconds: tau }), source, startTime: 0, stepSeconds: 1e-5 }), ts);
     const full = 1200 * Math.log2(10 / 9);
     ts.forEach((t, i) => {
-      // Motion along the line of sight: the target is exactly 10/9 from t = 1 on; the start is spread over one 1e-5 s step..
+      // Motion along the line of sight: the target is exactly 10/9 from t = 1 on; the start is spread over one 1e-5 s step.
       const expected = t <= 1 ? 0 : full * (1 - Math.exp(-(t - 1) / tau));
       expect(Math.abs(cents(hz[i], 440) - expected)).toBeLessThan(0.05);
     });
