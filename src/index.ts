@@ -10,3 +10,6 @@ export { TimeFlow, Curve, TargetMapper, createVoiceTargets, distanceGain, equalP
 export type { VoiceInput, TargetMapperOptions, TimeFlowOptions } from './dilation';
 export { parseTuning, serializeTuning, TuningError, defaultTuning, TUNING_VERSION, DEFAULT_GROUP, tuningLimits, OPEN_CUTOFF_HZ, MAX_TIME_SCALE } from './tuning';
 export type { TuningIssue } from './tuning';
+// Analysis (pitch tracking, spectrum, levels, pitch error statistics).
+export { yinPitch, YinEstimator, trackPitch, PitchTracker, magnitudeSpectrum, peakFrequency, toneLevelDb, SpectrumAnalyzer, rmsLevel, peakLevel, rmsDb, peakDb, centsBetween, pitchErrorStats } from './analysis';
+export type { YinOptions, PitchEstimate, PitchTrackerOptions, PitchTrack, SpectrumOptions, SpectralPeak, PitchErrorStats } from './analysis';
