@@ -3,7 +3,6 @@
 import { build } from 'esbuild';
 import { readdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { tmpdir } from 'node:os';
 import { pathToFileURL } from 'node:url';
 
 const args = process.argv.slice(2);
@@ -14,7 +13,8 @@ const files = readdirSync(benchDir)
   .filter((f) => f.endsWith('.bench.ts'))
   .filter((f) => filters.length === 0 || filters.some((w) => f.includes(w)))
   .sort();
-const out = mkdtempSync(join(tmpdir(), 'ralenti-bench-'));
+// Bundles go under node_modules/ so that their external package imports resolve from the project.
+const out = mkdtempSync(join(resolve('node_modules'), '.ralenti-bench-'));
 const results = {};
 try {
   for (const file of files) {

@@ -34,9 +34,9 @@ export interface TierDesign {
 
 /** Per-tier kernel designs (frozen). */
 export const tierDesigns: Readonly<Record<QualityTierName, TierDesign>> = Object.freeze({
-  draft: Object.freeze({ attenuationDb: 66, passbandEdge: 0.8, stopbandEdge: 1.1, phases: 128 }),
-  standard: Object.freeze({ attenuationDb: 106, passbandEdge: 0.9, stopbandEdge: 1.06, phases: 256 }),
-  high: Object.freeze({ attenuationDb: 126, passbandEdge: 0.91, stopbandEdge: 1.02, phases: 512 }),
+  draft: Object.freeze({ attenuationDb: 65, passbandEdge: 0.72, stopbandEdge: 1.05, phases: 128 }),
+  standard: Object.freeze({ attenuationDb: 104, passbandEdge: 0.855, stopbandEdge: 1.05, phases: 256 }),
+  high: Object.freeze({ attenuationDb: 124, passbandEdge: 0.87, stopbandEdge: 1.05, phases: 1024 }),
 });
 
 /** True when `name` is one of `qualityTiers`. */

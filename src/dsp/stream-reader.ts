@@ -143,10 +143,10 @@ export class StreamReader {
   /** The block loop: ratio per sample from (rs, dr) or from `ratios`; a mono in-range fast path, the general path otherwise. */
   private render(out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
     const t = this.table;
-    const taps = t.taps;
-    const phases = t.phases;
-    const halfTaps = t.halfTaps;
-    const halfDense = halfTaps * phases;
+    const taps = t.taps | 0;
+    const phases = t.phases | 0;
+    const halfTaps = t.halfTaps | 0;
+    const halfDense = (halfTaps * phases) | 0;
     const pm = t.phaseMajor;
     const dense = t.dense;
     const mono = this.channelsInUse === 1;
@@ -156,17 +156,17 @@ export class StreamReader {
     let lo = this.loop && this.wrapped ? this.loopStart : 0;
     for (let i = 0; i < frames; i++) {
       const r = ratios === null ? rs + (dr * i) / frames : this.sanitize(ratios[ro + i]);
-      const stride = t.strideFor(r);
+      const stride = t.strideFor(r) | 0;
       const pos = this.pos;
-      const n = Math.floor(pos);
+      const n = Math.floor(pos) | 0;
       const frac = pos - n;
       if (stride === phases) {
-        const mLo = n - halfTaps + 1;
+        const mLo = (n - halfTaps + 1) | 0;
         if (mono && mLo >= lo && mLo + taps <= hi) {
           const ph = frac * phases;
-          const phi = Math.floor(ph);
-          const k0 = phi * taps;
-          const k1 = k0 + taps;
+          const phi = ph | 0;
+          const k0 = (phi * taps) | 0;
+          const k1 = (k0 + taps) | 0;
           let a0 = 0;
           let a1 = 0;
           let b0 = 0;
@@ -185,12 +185,12 @@ export class StreamReader {
         } else this.renderOne(out, o + i, stride);
       } else {
         const c = frac * stride;
-        const ci = Math.floor(c);
-        const a1n = Math.floor((halfDense - 1 - ci) / stride);
-        const mLo = n - a1n;
-        const count = a1n + Math.floor((halfDense + ci) / stride) + 1;
+        const ci = c | 0;
+        const a1n = ((halfDense - 1 - ci) / stride) | 0;
+        const mLo = (n - a1n) | 0;
+        const count = (a1n + ((halfDense + ci) / stride) + 1) | 0;
         if (mono && mLo >= lo && mLo + count <= hi) {
-          let k = a1n * stride + halfDense + ci;
+          let k = (a1n * stride + halfDense + ci) | 0;
           let a0 = 0;
           let a1 = 0;
           for (let j = 0; j < count; j++) {
