@@ -28,6 +28,12 @@ async function buildWorkletIfPresent(outdir, log) {
   }
 }
 
+/** Copies the page and its style sheet (watched through the scene's own rebuilds). */
+async function copyStatic(outdir) {
+  await copyFile(join(repo, 'sample-scene', 'index.html'), join(outdir, 'index.html'));
+  await copyFile(join(repo, 'sample-scene', 'scene.css'), join(outdir, 'app.css'));
+}
+
 /**
  * Builds build/index.html, build/app.js (+ app.css) and build/ralenti-processor.js.
  * With watch: true, keeps an esbuild context watching and rebuilds everything on change;
@@ -35,13 +41,13 @@ async function buildWorkletIfPresent(outdir, log) {
  */
 export async function buildScene({ outdir = defaultOutdir, watch = false, log = console.log, minify = false } = {}) {
   await mkdir(outdir, { recursive: true });
-  await copyFile(join(repo, 'sample-scene', 'index.html'), join(outdir, 'index.html'));
+  await copyStatic(outdir);
   let first = true;
   const rebuildNotice = {
     name: 'ralenti-rebuild',
     setup(build) {
       build.onEnd(async (result) => {
-        await copyFile(join(repo, 'sample-scene', 'index.html'), join(outdir, 'index.html'));
+        await copyStatic(outdir);
         await buildWorkletIfPresent(outdir, log);
         const errors = result.errors.length;
         if (!first || errors) log(errors ? `scene build: ${errors} error(s)` : 'scene rebuilt');

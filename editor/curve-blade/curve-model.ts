@@ -8,6 +8,8 @@ export interface CurveRange {
   readonly yMin: number;
   readonly yMax: number;
   readonly yScale: 'linear' | 'log';
+  /** Optional x value drawn at 75 % of the width (the slow-motion range 0…1 gets room); undefined = linear. */
+  readonly xKnee?: number;
 }
 
 /** Default range: time scale 0…1 against 0…1. */
@@ -97,11 +99,21 @@ export function insertionPoint(spec: CurveSpec, index: number, range: CurveRange
 
 /** Maps a value to the unit interval of the range (x linear, y linear or log). */
 export function toUnitX(x: number, range: CurveRange): number {
+  const k = range.xKnee;
+  if (k !== undefined && k > range.xMin && k < range.xMax) {
+    if (x <= k) return (0.75 * (x - range.xMin)) / (k - range.xMin);
+    return 0.75 + (0.25 * (x - k)) / (range.xMax - k);
+  }
   return (x - range.xMin) / (range.xMax - range.xMin);
 }
 
 /** Inverse of toUnitX. */
 export function fromUnitX(u: number, range: CurveRange): number {
+  const k = range.xKnee;
+  if (k !== undefined && k > range.xMin && k < range.xMax) {
+    if (u <= 0.75) return range.xMin + (u / 0.75) * (k - range.xMin);
+    return k + ((u - 0.75) / 0.25) * (range.xMax - k);
+  }
   return range.xMin + u * (range.xMax - range.xMin);
 }
 

@@ -30,6 +30,8 @@ export interface CurveBladeParams extends BaseBladeParams {
   yMin?: number;
   yMax?: number;
   yScale?: 'linear' | 'log';
+  /** x value drawn at 75 % of the width (e.g. 1 so that slow motion 0…1 gets most of the graph). */
+  xKnee?: number;
 }
 
 function parseSpec(v: unknown): CurveSpec | undefined {
@@ -56,6 +58,7 @@ function rangeOf(p: CurveBladeParams): CurveRange | null {
     yMin: p.yMin ?? 0,
     yMax: p.yMax ?? 1,
     yScale: p.yScale ?? 'linear',
+    xKnee: p.xKnee,
   };
   if (!(r.xMax > r.xMin) || !(r.yMax > r.yMin) || (r.yScale === 'log' && !(r.yMin > 0))) return null;
   return Object.freeze(r);
@@ -77,6 +80,7 @@ export const CurveBladePlugin: BladePlugin<CurveBladeParams> = createPlugin<Blad
       yMin: p.optional.number,
       yMax: p.optional.number,
       yScale: p.optional.custom(parseScale),
+      xKnee: p.optional.number,
     }));
     if (!result || !rangeOf(result)) return null;
     return { params: result };

@@ -165,12 +165,15 @@ export class CurveView implements View {
   private drawGrid(): void {
     this.gridGroup.replaceChildren();
     const r = this.range;
-    const xTicks = r.xMax - r.xMin > 2 ? [0, 1, 2, 3, 4].filter((v) => v >= r.xMin && v <= r.xMax) : [0, 0.25, 0.5, 0.75, 1].map((u) => fromUnitX(u, r));
+    const xTicks =
+      r.xKnee !== undefined
+        ? [0, 0.25, 0.5, 0.75, 1, 2, 3, 4].filter((v) => v >= r.xMin && v <= r.xMax)
+        : [0, 0.25, 0.5, 0.75, 1].map((u) => fromUnitX(u, r));
     for (const x of xTicks) {
       const p = this.valueToPoint(x, r.yMin);
       this.gridGroup.appendChild(this.svg('line', { class: x === 1 ? `${cn('gl')} ${cn('gl', 'one')}` : cn('gl'), x1: p.px, x2: p.px, y1: PAD.top, y2: GRAPH_HEIGHT - PAD.bottom }));
       const t = this.svg('text', { class: cn('tx'), x: p.px, y: GRAPH_HEIGHT - 4, 'text-anchor': 'middle' });
-      t.textContent = formatNumber(x);
+      t.textContent = x === 0.25 || x === 0.75 ? '' : formatNumber(x);
       this.gridGroup.appendChild(t);
     }
     const yTicks = r.yScale === 'log' ? [100, 1000, 10000].filter((v) => v > r.yMin && v < r.yMax) : [0, 0.5, 1].map((u) => r.yMin + u * (r.yMax - r.yMin));

@@ -1,0 +1,93 @@
+// Live readouts: per-voice table (ratio in cents, radial speed, distance, cutoff), ratio graph, spectrum, engine load.
+import type { FolderApi, Pane } from 'tweakpane';
+import type { EngineStats, VoiceMonitor } from '../../src';
+import { RatioGraph, type RatioTrace } from '../monitors/ratio-graph';
+import { SpectrumView } from '../monitors/spectrum-view';
+
+/** A named voice shown in the readouts. */
+export interface NamedVoice {
+  voiceId: number;
+  name: string;
+  colour: string;
+}
+
+/** Readouts section state, updated every frame by the panel. */
+export class ReadoutsSection {
+  readonly folder: FolderApi;
+  readonly spectrum: SpectrumView;
+  private readonly tableBody: HTMLTableSectionElement;
+  private readonly graph: RatioGraph;
+  private readonly voices: readonly NamedVoice[];
+  private readonly load = { active: 0, virtual: 0, steals: 0, clamps: 0, peakDb: -120, limiterDb: 0, poolUse: 0, errors: 0, tier: '' };
+  private readonly cents: number[];
+  private frame = 0;
+
+  constructor(pane: Pane, doc: Document, context: BaseAudioContext, voices: readonly NamedVoice[]) {
+    this.voices = voices;
+    this.cents = voices.map(() => NaN);
+    this.folder = pane.addFolder({ title: 'Live readouts' });
+    const table = doc.createElement('table');
+    table.className = 'rl-voices';
+    table.innerHTML = '<thead><tr><th>voice</th><th>ratio ¢</th><th>Doppler ¢</th><th>radial m/s</th><th>dist m</th><th>cutoff</th></tr></thead>';
+    this.tableBody = doc.createElement('tbody');
+    table.appendChild(this.tableBody);
+    this.folder.addBlade({ view: 'ralenti-element', element: table });
+    this.graph = new RatioGraph(doc, { traces: voices.map<RatioTrace>((v) => ({ name: v.name, colour: v.colour })) });
+    this.folder.addBlade({ view: 'ralenti-element', element: this.graph.element });
+    this.spectrum = new SpectrumView(doc, context);
+    this.folder.addBlade({ view: 'ralenti-element', element: this.spectrum.element });
+    const l = this.load;
+    const fmt0 = (v: number) => v.toFixed(0);
+    this.folder.addBinding(l, 'active', { label: 'voices playing', readonly: true, format: fmt0 });
+    this.folder.addBinding(l, 'virtual', { label: 'voices virtual', readonly: true, format: fmt0 });
+    this.folder.addBinding(l, 'peakDb', { label: 'peak out (dBFS)', readonly: true, format: (v: number) => v.toFixed(1) });
+    this.folder.addBinding(l, 'limiterDb', { label: 'limiter (dB)', readonly: true, format: (v: number) => v.toFixed(1) });
+    this.folder.addBinding(l, 'poolUse', { label: 'voice pool use %', readonly: true, view: 'graph', min: 0, max: 100 });
+    this.folder.addBinding(l, 'steals', { label: 'steals · clamps', readonly: true, format: () => `${l.steals} · ${l.clamps}` });
+    this.folder.addBinding(l, 'errors', { label: 'audio errors', readonly: true, format: fmt0 });
+  }
+
+  /** Updates readouts from the runtime's latest stats and monitors; `capacity` is the engine's voice pool size. */
+  update(stats: EngineStats, monitors: readonly VoiceMonitor[], capacity: number): void {
+    const l = this.load;
+    l.active = stats.activeVoices;
+    l.virtual = stats.virtualVoices;
+    l.steals = stats.steals;
+    l.clamps = stats.clamps;
+    l.peakDb = stats.peakOut > 0 ? 20 * Math.log10(stats.peakOut) : -120;
+    l.limiterDb = stats.limiterDb;
+    l.errors = stats.errors;
+    l.poolUse = (100 * (stats.activeVoices + stats.virtualVoices)) / Math.max(1, capacity);
+    this.voices.forEach((v, i) => {
+      const m = monitors.find((x) => x.voice === v.voiceId);
+      this.cents[i] = m ? m.ratioCents : NaN;
+    });
+    this.graph.push(this.cents);
+    this.frame++;
+    if (this.frame % 2 === 0) {
+      this.graph.draw();
+      this.spectrum.draw();
+    }
+    if (this.frame % 6 === 0) this.fillTable(monitors);
+  }
+
+  private fillTable(monitors: readonly VoiceMonitor[]): void {
+    const rows: string[] = [];
+    for (const v of this.voices) {
+      const m = monitors.find((x) => x.voice === v.voiceId);
+      if (!m) continue;
+      const cutoff = m.cutoffHz >= 20000 ? 'open' : m.cutoffHz >= 1000 ? `${(m.cutoffHz / 1000).toFixed(1)}k` : m.cutoffHz.toFixed(0);
+      rows.push(
+        `<tr data-voice="${v.voiceId}"><td><i style="background:${v.colour}"></i>${v.name}</td><td>${signed(m.ratioCents)}</td><td>${signed(m.dopplerCents)}</td>` +
+          `<td>${m.sourceId > 0 ? signed(m.radialSpeed, 1) : '–'}</td><td>${m.sourceId > 0 ? m.distance.toFixed(1) : '–'}</td><td>${cutoff}</td></tr>`,
+      );
+    }
+    this.tableBody.innerHTML = rows.join('');
+  }
+}
+
+function signed(v: number, digits = 0): string {
+  if (!Number.isFinite(v)) return '–';
+  const s = v.toFixed(digits);
+  return v > 0 && s !== (0).toFixed(digits) ? `+${s}` : s;
+}

@@ -1,0 +1,77 @@
+// window.ralentiScene: a small read-only inspection handle for tests and curious visitors.
+import type { EngineStats, VoiceMonitor } from '../src';
+import type { TuningProblem } from '../editor';
+import type { SceneAudio } from './scene-audio';
+
+/** One voice as the handle reports it: the runtime's monitor plus the scene's name and the ratio. */
+export interface InspectedVoice extends VoiceMonitor {
+  name: string;
+  /** Playback ratio (2^(ratioCents/1200)). */
+  ratio: number;
+}
+
+/** Shape of window.ralentiScene (all members read-only; values are fresh copies). */
+export interface RalentiSceneHandle {
+  readonly ready: boolean;
+  readonly error: string | null;
+  readonly timeScale: number;
+  readonly slowMotion: boolean;
+  readonly gameTime: number;
+  readonly stats: EngineStats | null;
+  readonly voices: InspectedVoice[];
+  /** The running tuning as JSON text (serializeTuning). */
+  readonly tuningJson: string | null;
+  readonly lastLoadProblems: TuningProblem[];
+  readonly playbackPath: 'engine' | 'builtin';
+}
+
+/** Live state the handle reads from. */
+export interface SceneState {
+  audio: SceneAudio | null;
+  error: string | null;
+  slowMotion: boolean;
+  gameTime: number;
+  tuningJson: () => string | null;
+  lastLoadProblems: () => TuningProblem[];
+  playbackPath: () => 'engine' | 'builtin';
+}
+
+/** Installs window.ralentiScene over `state`. */
+export function installSceneHandle(state: SceneState): RalentiSceneHandle {
+  const handle: RalentiSceneHandle = Object.freeze({
+    get ready() {
+      return state.audio !== null;
+    },
+    get error() {
+      return state.error;
+    },
+    get timeScale() {
+      return state.audio ? state.audio.ralenti.timeScale : 1;
+    },
+    get slowMotion() {
+      return state.slowMotion;
+    },
+    get gameTime() {
+      return state.gameTime;
+    },
+    get stats() {
+      return state.audio ? { ...state.audio.ralenti.stats } : null;
+    },
+    get voices() {
+      const a = state.audio;
+      if (!a) return [];
+      return a.ralenti.voices.map((v) => ({ ...v, name: a.names.get(v.voice) ?? v.group, ratio: 2 ** (v.ratioCents / 1200) }));
+    },
+    get tuningJson() {
+      return state.tuningJson();
+    },
+    get lastLoadProblems() {
+      return state.lastLoadProblems().map((p) => ({ ...p }));
+    },
+    get playbackPath() {
+      return state.playbackPath();
+    },
+  });
+  Object.defineProperty(window, 'ralentiScene', { value: handle, writable: false, configurable: false, enumerable: true });
+  return handle;
+}
