@@ -13,3 +13,6 @@ export type { TuningIssue } from './tuning';
 // Analysis (pitch tracking, spectrum, levels, pitch error statistics).
 export { yinPitch, YinEstimator, trackPitch, PitchTracker, magnitudeSpectrum, peakFrequency, toneLevelDb, SpectrumAnalyzer, rmsLevel, peakLevel, rmsDb, peakDb, centsBetween, pitchErrorStats } from './analysis';
 export type { YinOptions, PitchEstimate, PitchTrackerOptions, PitchTrack, SpectrumOptions, SpectralPeak, PitchErrorStats } from './analysis';
+// DSP (resampler, kernel tables, biquad low-pass, smoothing, unit helpers).
+export { resample, qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, KernelTable, StreamReader, DspArgumentError, BiquadLowpass, OnePoleSmoother, dbToGain, gainToDb, centsToRatio, ratioToCents } from './dsp';
+export type { ResampleOptions, StreamReaderOptions, StreamSourceOptions, KernelTableOptions, TierDesign, BiquadLowpassOptions, OnePoleSmootherOptions } from './dsp';
