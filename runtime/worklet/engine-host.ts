@@ -1,0 +1,216 @@
+// Hosts one Engine behind the message protocol: decodes commands, maps handles, renders, reports stats and errors.
+// Used by the AudioWorkletProcessor; free of worklet globals so that Node tests can drive it directly.
+import { Engine } from '../../src/engine/index';
+import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
+import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type Report } from '../protocol';
+
+/** What the host needs from its surroundings. */
+export interface EngineHostOptions {
+  /** Output sample rate in Hz. */
+  sampleRate: number;
+  /** Context time when the host is created, in seconds (the engine clock starts at 0 there). */
+  startContextTime: Seconds;
+  processorOptions: ProcessorOptions;
+  /** Sends a report to the main thread. */
+  post: (report: Report) => void;
+}
+
+/** Error messages posted per stats interval at most. */
+const MAX_ERROR_REPORTS = 4;
+/** Voice monitors sent per stats report at most. */
+const MAX_MONITORS = 64;
+
+/** One engine plus the main-thread ↔ engine handle maps; `process` never throws. */
+export class EngineHost {
+  /** The hosted engine. */
+  readonly engine: Engine;
+  /** Errors caught on the audio thread so far. */
+  errors = 0;
+  /** True after render threw; output stays silent until the next valid command. */
+  faulted = false;
+  private readonly post: (report: Report) => void;
+  private readonly sampleRate: number;
+  private readonly timeOffset: Seconds;
+  private readonly sounds = new Map<number, number>();
+  private readonly voices = new Map<number, number>();
+  private readonly voiceOwners = new Map<number, number>();
+  private readonly scratch: Float32Array[];
+  private readonly monitors: VoiceMonitor[] = [];
+  private readonly statsIntervalFrames: number;
+  private framesSinceStats = 0;
+  private reportedErrors = 0;
+
+  constructor(options: EngineHostOptions) {
+    const p = options.processorOptions;
+    this.post = options.post;
+    this.sampleRate = options.sampleRate;
+    this.timeOffset = options.startContextTime;
+    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning });
+    this.scratch = [new Float32Array(128), new Float32Array(128)];
+    for (let i = 0; i < MAX_MONITORS; i++) this.monitors.push(emptyMonitor());
+    const interval = Math.min(10, Math.max(0.05, Number(p.statsIntervalSeconds) || 0.25));
+    this.statsIntervalFrames = Math.round(interval * options.sampleRate);
+    this.post({ type: 'ready', sampleRate: options.sampleRate, capacity: p.capacity });
+  }
+
+  /** Context time → engine time: the engine clock started at the host's creation. */
+  toEngineTime(contextTime: Seconds): Seconds {
+    return contextTime - this.timeOffset;
+  }
+
+  /** Handles one message from the port; malformed or failing commands are reported, never thrown. */
+  handle(data: unknown): void {
+    const command = decodeCommand(data);
+    if (typeof command === 'string') {
+      this.fail('command', command);
+      return;
+    }
+    try {
+      this.apply(command);
+      this.faulted = false;
+    } catch (err) {
+      this.fail('command', `${command.type}: ${errorMessage(err)}`);
+    }
+  }
+
+  private apply(c: Command): void {
+    const e = this.engine;
+    switch (c.type) {
+      case 'add-sound': {
+        const old = this.sounds.get(c.sound);
+        if (old !== undefined) e.removeSound(old);
+        const id = e.addSound(c.channels, c.sampleRate);
+        if (id < 0) throw new Error('no free sound slot');
+        this.sounds.set(c.sound, id);
+        return;
+      }
+      case 'remove-sound': {
+        const id = this.sounds.get(c.sound);
+        if (id !== undefined) e.removeSound(id);
+        this.sounds.delete(c.sound);
+        return;
+      }
+      case 'play': {
+        const id = this.sounds.get(c.sound);
+        if (id === undefined) throw new Error(`unknown sound ${c.sound}`);
+        const v = e.play(id, c.options);
+        if (v >= 0) {
+          this.voices.set(c.voice, v);
+          this.voiceOwners.set(v, c.voice);
+        }
+        return;
+      }
+      case 'stop': {
+        const v = this.voices.get(c.voice);
+        if (v === undefined) return;
+        e.stop(v, c.fadeSeconds);
+        this.voices.delete(c.voice);
+        this.voiceOwners.delete(v);
+        return;
+      }
+      case 'set-voice': {
+        const v = this.voices.get(c.voice);
+        if (v !== undefined) e.setVoice(v, { gain: c.gain, ratio: c.ratio });
+        return;
+      }
+      case 'snapshot': {
+        const s = decodeSnapshot(c.data, this.timeOffset);
+        if (s) e.pushSnapshot(s);
+        return;
+      }
+      case 'time-scale': {
+        const r = c.request;
+        const startTime = r.startTime === undefined ? undefined : this.toEngineTime(r.startTime);
+        e.setTimeScale({ target: r.target, rampSeconds: r.rampSeconds, easing: r.easing, startTime });
+        return;
+      }
+      case 'tuning':
+        e.setTuning(c.tuning);
+        return;
+      case 'sync':
+        this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
+        return;
+    }
+  }
+
+  /**
+   * Renders one block into `output` (the node's first output, one Float32Array per channel).
+   * Never throws: on failure the block is silent, the error counted and reported. Returns true (keep alive).
+   */
+  process(output: Float32Array[] | undefined): boolean {
+    if (!output || output.length === 0) return true;
+    const frames = output[0].length;
+    try {
+      if (this.faulted) {
+        silence(output);
+      } else if (output.length === 2) {
+        this.engine.render(output, frames);
+      } else {
+        this.renderVia(output, frames);
+      }
+    } catch (err) {
+      silence(output);
+      this.faulted = true;
+      this.fail('process', errorMessage(err));
+    }
+    this.framesSinceStats += frames;
+    if (this.framesSinceStats >= this.statsIntervalFrames) {
+      this.framesSinceStats = 0;
+      this.reportedErrors = 0;
+      this.sendStats();
+    }
+    return true;
+  }
+
+  /** Renders through the stereo scratch pair when the node has a channel count other than 2. */
+  private renderVia(output: Float32Array[], frames: number): void {
+    const s = this.scratch;
+    if (s[0].length < frames) throw new Error(`block of ${frames} frames exceeds 128`);
+    const l = frames === s[0].length ? s[0] : s[0].subarray(0, frames);
+    const r = frames === s[1].length ? s[1] : s[1].subarray(0, frames);
+    this.engine.render([l, r], frames);
+    if (output.length === 1) for (let i = 0; i < frames; i++) output[0][i] = 0.5 * (l[i] + r[i]);
+    else {
+      output[0].set(l);
+      output[1].set(r);
+      for (let c = 2; c < output.length; c++) output[c].fill(0);
+    }
+  }
+
+  /** Posts the current stats and voice monitors now. */
+  sendStats(): void {
+    try {
+      const count = this.engine.monitor(this.monitors);
+      const voices: VoiceMonitor[] = [];
+      for (let i = 0; i < count && i < this.monitors.length; i++) {
+        const m = this.monitors[i];
+        voices.push({ ...m, voice: this.voiceOwners.get(m.voice) ?? -1 });
+      }
+      const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
+      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices });
+    } catch (err) {
+      this.fail('stats', errorMessage(err));
+    }
+  }
+
+  private fail(where: string, message: string): void {
+    this.errors += 1;
+    // At most a few messages per stats interval; the count in the stats carries the rest.
+    if (this.reportedErrors < MAX_ERROR_REPORTS) {
+      this.reportedErrors += 1;
+      this.post({ type: 'error', where, message, count: this.errors });
+    }
+  }
+}
+
+function silence(output: Float32Array[]): void {
+  for (const ch of output) ch.fill(0);
+}
+
+function errorMessage(err: unknown): string {
+  return err instanceof Error ? err.message : String(err);
+}
+
+function emptyMonitor(): VoiceMonitor {
+  return { voice: -1, sourceId: -1, group: '', ratioCents: 0, dopplerCents: 0, radialSpeed: 0, distance: 0, cutoffHz: 0, gainDb: 0, virtual: false };
+}

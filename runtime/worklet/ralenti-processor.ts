@@ -1,0 +1,32 @@
+// The AudioWorkletProcessor: registration, message hand-off and one call into the engine host per render quantum.
+import { EngineHost } from './engine-host';
+import { PROCESSOR_NAME, type ProcessorOptions, type Report } from '../protocol';
+
+/** Hosts the Ralenti engine on the audio thread; process() never throws. */
+class RalentiProcessor extends AudioWorkletProcessor {
+  private readonly host: EngineHost | null = null;
+
+  constructor(options: AudioWorkletNodeOptions) {
+    super(options);
+    const post = (report: Report): void => this.port.postMessage(report);
+    try {
+      this.host = new EngineHost({
+        sampleRate,
+        startContextTime: currentTime,
+        processorOptions: options.processorOptions as ProcessorOptions,
+        post,
+      });
+    } catch (err) {
+      post({ type: 'error', where: 'construct', message: err instanceof Error ? err.message : String(err), count: 1 });
+    }
+    this.port.onmessage = (event: MessageEvent): void => this.host?.handle(event.data);
+  }
+
+  process(_inputs: Float32Array[][], outputs: Float32Array[][]): boolean {
+    if (this.host) return this.host.process(outputs[0]);
+    for (const ch of outputs[0] ?? []) ch.fill(0);
+    return true;
+  }
+}
+
+registerProcessor(PROCESSOR_NAME, RalentiProcessor);

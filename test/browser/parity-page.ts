@@ -1,0 +1,72 @@
+// Browser side of the parity suite: renders a ParityScene through createRalenti in an OfflineAudioContext,
+// applying each step at its frame with OfflineAudioContext.suspend() and waiting for the worklet to take it.
+import { createRalenti, type RalentiVoice } from '../../runtime/index';
+import { createRalenti as createRalentiInline } from '../../runtime/inline';
+import { PARITY_RATE, type SceneAction, type SceneStep } from './parity-scene';
+
+/** A scene as it crosses into the page (plain arrays). */
+export interface WireScene {
+  frames: number;
+  sounds: { channels: number[][]; sampleRate: number }[];
+  sources: number;
+  steps: SceneStep[];
+}
+
+/** What a render returns to the test. */
+export interface PageRender {
+  left: number[];
+  right: number[];
+  errors: string[];
+  renderMs: number;
+}
+
+/** Renders with the processor from `workletUrl`, or from the inlined entry's Blob URL when it is null. */
+async function renderScene(scene: WireScene, workletUrl: string | null): Promise<PageRender> {
+  const ctx = new OfflineAudioContext(2, scene.frames, PARITY_RATE);
+  const r = workletUrl === null ? await createRalentiInline(ctx) : await createRalenti(ctx, { workletUrl });
+  r.connect(ctx.destination);
+  const errors: string[] = [];
+  r.onError((e) => errors.push(`${e.where}: ${e.message}`));
+  const sounds = scene.sounds.map((s) => r.load({ channels: s.channels.map((c) => Float32Array.from(c)), sampleRate: s.sampleRate }));
+  const sources = Array.from({ length: scene.sources }, () => r.createSource());
+  const voices = new Map<number, RalentiVoice>();
+  const apply = (actions: SceneAction[], frame: number) => {
+    for (const a of actions) {
+      if (a.kind === 'play') voices.set(a.voice, r.play(sounds[a.sound], { ...a.options, source: a.source ? sources[a.source - 1] : undefined }));
+      else if (a.kind === 'stop') voices.get(a.voice)?.stop(a.fadeSeconds);
+      else if (a.kind === 'set-ratio') voices.get(a.voice)?.setRatio(a.ratio);
+      else if (a.kind === 'time-scale') r.setTimeScale(a.target, { ramp: a.ramp, easing: a.easing });
+      else {
+        r.setListener(a.listener);
+        for (const s of a.sources) {
+          const src = sources[s.id - 1].setPosition(s.position.x, s.position.y, s.position.z);
+          if (s.velocity) src.setVelocity(s.velocity.x, s.velocity.y, s.velocity.z);
+        }
+        r.update(frame / PARITY_RATE);
+      }
+    }
+  };
+  const pending: Promise<void>[] = [];
+  for (const step of scene.steps) {
+    if (step.frame === 0) {
+      apply(step.actions, 0);
+      continue;
+    }
+    pending.push(
+      ctx.suspend(step.frame / PARITY_RATE).then(async () => {
+        apply(step.actions, step.frame);
+        await r.flush();
+        await ctx.resume();
+      }),
+    );
+  }
+  await r.flush();
+  const t0 = performance.now();
+  const buffer = await ctx.startRendering();
+  const renderMs = performance.now() - t0;
+  await Promise.all(pending);
+  r.dispose();
+  return { left: Array.from(buffer.getChannelData(0)), right: Array.from(buffer.getChannelData(1)), errors, renderMs };
+}
+
+Object.assign(globalThis, { renderScene });
