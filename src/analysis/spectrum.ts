@@ -16,13 +16,13 @@ export interface SpectrumAnalyzerOptions {
   /** Samples analysed (window length), 2…size (default size); the rest is zero padding. */
   frames?: number;
   /** Window shape (default 'hann'). */
-  window?: SpectrumWindow;
+  windowShape?: SpectrumWindow;
   /** Kaiser shape β, 0…40 (default 12: side lobes near −90 dB). */
   kaiserBeta?: number;
 }
 
 /** Frozen defaults of SpectrumAnalyzerOptions. */
-export const spectrumDefaults = Object.freeze({ window: 'hann' as SpectrumWindow, kaiserBeta: 12, zeroPad: 4 });
+export const spectrumDefaults = Object.freeze({ windowShape: 'hann' as SpectrumWindow, kaiserBeta: 12, zeroPad: 4 });
 
 /** One analysed frame's strongest component. */
 export interface SpectralPeak {
@@ -60,7 +60,7 @@ export class SpectrumAnalyzer {
     this.frames = frames;
     this.fft = new FFT(size);
     this.win = new Float64Array(frames);
-    const shape = options.window ?? spectrumDefaults.window;
+    const shape = options.windowShape ?? spectrumDefaults.windowShape;
     const beta = options.kaiserBeta ?? spectrumDefaults.kaiserBeta;
     if (shape === 'kaiser') kaiserWindow(this.win, beta);
     else hannWindow(this.win);
@@ -134,8 +134,8 @@ export class SpectrumAnalyzer {
 /** Options of the one-call spectrum helpers. */
 export interface SpectrumOptions {
   /** Window shape (default 'hann'). */
-  window?: SpectrumWindow;
-  /** Kaiser shape β when window is 'kaiser' (default 12). */
+  windowShape?: SpectrumWindow;
+  /** Kaiser shape β when windowShape is 'kaiser' (default 12). */
   kaiserBeta?: number;
   /** FFT size ÷ signal length, rounded up to a power of two (default 4 for peaks and levels, 1 for spectra). */
   zeroPad?: number;
@@ -144,7 +144,7 @@ export interface SpectrumOptions {
 function analyzerFor(length: number, options: SpectrumOptions, zeroPad: number): SpectrumAnalyzer {
   let size = 4;
   while (size < length * zeroPad) size *= 2;
-  return new SpectrumAnalyzer({ size, frames: Math.max(2, length), window: options.window, kaiserBeta: options.kaiserBeta });
+  return new SpectrumAnalyzer({ size, frames: Math.max(2, length), windowShape: options.windowShape, kaiserBeta: options.kaiserBeta });
 }
 
 /** Amplitude-normalised magnitude spectrum of the whole signal (bins k·sampleRate/size, size = returned length·2 − 2). */

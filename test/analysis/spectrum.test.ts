@@ -20,21 +20,21 @@ const tones = [
 describe('spectrum helpers', () => {
   it.each(tones)('finds a $f Hz sine of amplitude $amplitude within 0.01 Hz through a $window window', ({ window, f, amplitude }) => {
     // Quadratic interpolation of the dB peak: J. O. Smith, Spectral Audio Signal Processing (QIFFT), with 4× zero padding.
-    const peak = peakFrequency(sine(f, amplitude, 8192), sampleRate, { window });
+    const peak = peakFrequency(sine(f, amplitude, 8192), sampleRate, { windowShape: window });
     expect(Math.abs(peak!.frequency - f)).toBeLessThan(0.01);
     expect(peak!.amplitude / amplitude).toBeCloseTo(1, 3);
   });
 
   it.each(tones)('reads the level of a $f Hz sine of amplitude $amplitude within 0.01 dB ($window)', ({ window, f, amplitude }) => {
     // A sine of amplitude A is 20·log10(A) dB re 1 (definition of the level); main-lobe power by Parseval's theorem.
-    expect(toneLevelDb(sine(f, amplitude, 8192), sampleRate, f, { window })).toBeCloseTo(20 * Math.log10(amplitude), 2);
+    expect(toneLevelDb(sine(f, amplitude, 8192), sampleRate, f, { windowShape: window })).toBeCloseTo(20 * Math.log10(amplitude), 2);
   });
 
   it('measures a tone 80 dB below a louder one through the Kaiser window', () => {
     const x = sine(1000, 1, 16384);
     const quiet = sine(3000, 1e-4, 16384);
     for (let i = 0; i < x.length; i++) x[i] += quiet[i];
-    expect(toneLevelDb(x, sampleRate, 3000, { window: 'kaiser' })).toBeCloseTo(-80, 1);
+    expect(toneLevelDb(x, sampleRate, 3000, { windowShape: 'kaiser' })).toBeCloseTo(-80, 1);
   });
 
   it('gives a bin-centred cosine its amplitude in its own bin and nothing two bins away (periodic Hann)', () => {
