@@ -1,0 +1,49 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+// @ts-expect-error: plain ESM script without declarations
+import { buildDist } from '../../scripts/build.mjs';
+
+describe('npm run build (scripts/build.mjs)', () => {
+  const out = mkdtempSync(join(tmpdir(), 'ralenti-dist-'));
+  beforeAll(async () => {
+    await buildDist({ outdir: out, log: () => undefined });
+  }, 120_000);
+  afterAll(() => rmSync(out, { recursive: true, force: true }));
+
+  it('writes the ESM entries, the worklet as its own file, and declarations for core and runtime', () => {
+    for (const f of ['index.js', 'runtime.js', 'runtime-inline.js', 'three.js', 'howler.js', 'ralenti-processor.js']) {
+      expect(existsSync(join(out, f)), f).toBe(true);
+    }
+    for (const f of ['src/index.d.ts', 'runtime/index.d.ts', 'runtime/inline.d.ts', 'runtime/three/index.d.ts', 'runtime/howler/index.d.ts']) {
+      expect(existsSync(join(out, 'types', f)), f).toBe(true);
+    }
+    expect(readFileSync(join(out, 'types/runtime/index.d.ts'), 'utf8')).toContain('createRalenti');
+  });
+
+  it('bundles the worklet self-contained (no imports) and registers the processor', () => {
+    const w = readFileSync(join(out, 'ralenti-processor.js'), 'utf8');
+    expect(w).toContain('registerProcessor(');
+    expect(w).not.toMatch(/^\s*import\s/m);
+  });
+
+  it('embeds the processor source only in the inlined entry', () => {
+    const inline = readFileSync(join(out, 'runtime-inline.js'), 'utf8');
+    expect(inline).toContain('registerProcessor(');
+    const others = readdirSync(out).filter((f) => f.endsWith('.js') && f !== 'runtime-inline.js' && f !== 'ralenti-processor.js');
+    for (const f of others) expect(readFileSync(join(out, f), 'utf8'), f).not.toContain('registerProcessor(');
+  });
+
+  it('keeps the chunk holding the default worklet URL beside ralenti-processor.js', () => {
+    const holder = readdirSync(out).filter((f) => f.endsWith('.js') && readFileSync(join(out, f), 'utf8').includes('"./ralenti-processor.js"'));
+    expect(holder.length).toBeGreaterThan(0);
+  });
+
+  it('loads the core bundle as plain ESM in Node', async () => {
+    const core = await import(pathToFileURL(join(out, 'index.js')).href);
+    expect(typeof core.parseTuning).toBe('function');
+    expect(core.qualityTiers).toEqual(['draft', 'standard', 'high']);
+  });
+});
