@@ -1,10 +1,11 @@
 // `npm start`: builds the sample scene and worklet, serves build/ on 127.0.0.1, rebuilds on change.
-// Options: --port N (default 5173, or the next free one), --no-watch.
+// Options: --port N (default 5173, or the next free one), --no-watch, --outdir DIR (default build/).
+import { resolve } from 'node:path';
 import { buildScene, defaultOutdir } from './dev-build.mjs';
 import { serveStatic } from './static-server.mjs';
 
 function parseArgs(argv) {
-  const out = { port: 5173, strictPort: false, watch: true };
+  const out = { port: 5173, strictPort: false, watch: true, outdir: defaultOutdir };
   for (let i = 0; i < argv.length; i++) {
     const a = argv[i];
     if (a === '--port' || a.startsWith('--port=')) {
@@ -14,14 +15,15 @@ function parseArgs(argv) {
       out.port = n;
       out.strictPort = true;
     } else if (a === '--no-watch') out.watch = false;
-    else throw new Error(`unknown option ${a} (options: --port N, --no-watch)`);
+    else if (a === '--outdir') out.outdir = resolve(argv[++i] ?? '');
+    else throw new Error(`unknown option ${a} (options: --port N, --no-watch, --outdir DIR)`);
   }
   return out;
 }
 
 const args = parseArgs(process.argv.slice(2));
-const build = await buildScene({ outdir: defaultOutdir, watch: args.watch });
-const served = await serveStatic({ root: defaultOutdir, port: args.port, strictPort: args.strictPort });
+const build = await buildScene({ outdir: args.outdir, watch: args.watch });
+const served = await serveStatic({ root: args.outdir, port: args.port, strictPort: args.strictPort });
 console.log(`Ralenti sample scene: ${served.url}`);
 console.log('Start at a low listening level; the master limiter is on by default. Ctrl+C stops.');
 
