@@ -28,7 +28,7 @@ export interface ThreeBindingOptions {
 export const threeBindingDefaults = Object.freeze({ estimateVelocity: true, updateMatrices: false });
 
 interface Bound {
-  object: Object3D;
+  readonly object: Object3D;
   source: RalentiSource;
   estimator: VelocityEstimator;
   position: Vec3Like;
@@ -36,7 +36,7 @@ interface Bound {
 
 /** Listener and sources from three.js objects; call update() once per animation frame. */
 export class ThreeBinding {
-  private readonly target: SnapshotTarget;
+  private target: SnapshotTarget;
   private readonly estimate: boolean;
   private readonly updateMatrices: boolean;
   private readonly bound = new Map<Object3D, Bound>();
@@ -85,6 +85,16 @@ export class ThreeBinding {
     if (!b) return;
     b.source.dispose();
     this.bound.delete(object);
+  }
+
+  /** Moves every binding to a new target (e.g. a runtime rebuilt by HowlerBridge): new sources, same objects. */
+  retarget(target: SnapshotTarget): void {
+    this.target = target;
+    for (const b of this.bound.values()) {
+      b.source.dispose();
+      b.source = target.createSource();
+    }
+    this.retune();
   }
 
   /** Number of bound sources. */

@@ -84,3 +84,20 @@ describe('ThreeBinding', () => {
     expect(binding.sourceOf(a)).toBeUndefined();
   });
 });
+
+describe('ThreeBinding.retarget', () => {
+  it('moves bound objects to a new runtime with fresh sources', () => {
+    const first = setup(false);
+    const obj = new Object3D();
+    obj.position.set(3, 0, 0);
+    const old = first.binding.bindSource(obj);
+    const node = new FakeWorkletNode();
+    const next = new Ralenti({ context: fakeContext(), node: node as unknown as AudioWorkletNode, tuning: defaultTuning, capacity: 8 });
+    first.binding.retarget(next);
+    const fresh = first.binding.sourceOf(obj)!;
+    expect(old.alive).toBe(false);
+    expect(fresh).not.toBe(old);
+    first.binding.update(0);
+    expect(decodeSnapshot(node.commands('snapshot').at(-1)!.data)!.sources).toEqual([{ id: fresh.id, position: { x: 3, y: 0, z: 0 } }]);
+  });
+});
