@@ -193,13 +193,28 @@ export class StreamReader {
           let k = (a1n * stride + halfDense + ci) | 0;
           let a0 = 0;
           let a1 = 0;
-          for (let j = 0; j < count; j++) {
+          let b0 = 0;
+          let b1 = 0;
+          const stride2 = stride * 2;
+          const even = count & ~1;
+          let j = 0;
+          for (; j < even; j += 2) {
+            const s0 = x[mLo + j];
+            const s1 = x[mLo + j + 1];
+            const k2 = k - stride;
+            a0 += dense[k] * s0;
+            a1 += dense[k + 1] * s0;
+            b0 += dense[k2] * s1;
+            b1 += dense[k2 + 1] * s1;
+            k -= stride2;
+          }
+          if (j < count) {
             const s0 = x[mLo + j];
             a0 += dense[k] * s0;
             a1 += dense[k + 1] * s0;
-            k -= stride;
           }
-          y[o + i] = (stride / phases) * (a0 + (c - ci) * (a1 - a0));
+          a0 += b0;
+          y[o + i] = (stride / phases) * (a0 + (c - ci) * (a1 + b1 - a0));
           this.lastStretch = phases / stride;
         } else this.renderOne(out, o + i, stride);
       }
