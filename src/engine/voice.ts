@@ -160,6 +160,12 @@ export class Voice {
       this.filterWet = cutoffTarget < OPEN_LOG2;
       this.filter.reset();
     }
+    if (this.thawing && !frozen && this.env === 0) {
+      // Resuming from a hold: start at the current pitch (masked by the resume fade) rather than gliding up from ~0.
+      this.ratioCents.reset(ratioTarget);
+      this.dopplerCents.reset(dopplerTarget);
+      this.startRatio = clampRatio(t.ratio);
+    }
     const rc = this.ratioCents.advance(ratioTarget, frames);
     const dc = this.dopplerCents.advance(dopplerTarget, frames);
     const ratioEnd = rc === ratioTarget && dc === dopplerTarget ? clampRatio(t.ratio) : clampRatio(Math.pow(2, (rc + dc) / 1200));
