@@ -15,7 +15,7 @@ const panelHost = document.getElementById('panel') as HTMLElement;
 const hud = document.getElementById('hud') as HTMLElement;
 const range = createTestRange(rangeHost);
 const fly = new FlyCamera({ camera: range.camera, element: range.renderer.domElement });
-fly.lookAt(0, 3, -20);
+fly.lookAt(-4, 0, -26);
 fly.setEnabled(false);
 showHelp(document.getElementById('help') as HTMLElement);
 
@@ -133,8 +133,6 @@ function frame(ms: number): void {
   setBody(range.kart.object, a?.sources.kart, kartPosition(t, tmp));
   range.kart.object.rotation.y = kartHeading(t);
   setBody(range.orb.object, a?.sources.orb, orbPosition(t, range.camera.position, tmp));
-  range.orb.object.position.y = Math.max(0.4, range.orb.object.position.y - 0.3);
-  a?.sources.orb.setPosition(range.orb.object.position.x, range.orb.object.position.y, range.orb.object.position.z);
   a?.sources.generator.setPosition(GENERATOR_POSITION.x, 1, GENERATOR_POSITION.z);
   range.animate(t);
 

@@ -64,17 +64,17 @@ export function createTestRange(host: HTMLElement): TestRange {
   scene.background = new THREE.Color(0x0b1020);
   scene.fog = new THREE.Fog(0x0b1020, 40, 260);
   const camera = new THREE.PerspectiveCamera(70, 16 / 9, 0.1, 600);
-  camera.position.set(0, 1.7, 6);
+  camera.position.set(10, 9, 30);
 
   scene.add(new THREE.HemisphereLight(0x5068a0, 0x101018, 1.1));
   const moon = new THREE.DirectionalLight(0xb8c8ff, 0.9);
   moon.position.set(-40, 60, 20);
   scene.add(moon);
 
-  const ground = new THREE.Mesh(new THREE.PlaneGeometry(800, 800), new THREE.MeshStandardMaterial({ color: 0x1a2130, roughness: 1 }));
+  const ground = new THREE.Mesh(new THREE.PlaneGeometry(800, 800), new THREE.MeshStandardMaterial({ color: 0x222c40, roughness: 1 }));
   ground.rotation.x = -Math.PI / 2;
   scene.add(ground);
-  const grid = new THREE.GridHelper(800, 160, 0x2c3a55, 0x1f2a40);
+  const grid = new THREE.GridHelper(800, 160, 0x3a4a6a, 0x2a3650);
   grid.position.y = 0.01;
   scene.add(grid);
 
@@ -119,8 +119,9 @@ export function createTestRange(host: HTMLElement): TestRange {
   const beacon = new THREE.Mesh(new THREE.SphereGeometry(0.16, 10, 8), glow(0xff3355, 3));
   beacon.position.set(0, -0.25, 0);
   droneObj.add(beacon);
+  droneObj.scale.setScalar(2.2);
   scene.add(droneObj);
-  const drone = label(droneObj, 'Fly-by drone', 'vehicles · straight pass', '#7fd6ff', 1.4);
+  const drone = label(droneObj, 'Fly-by drone', 'vehicles · straight pass', '#7fd6ff', 1.0);
 
   // Kart: low box with a roll bar.
   const kartObj = new THREE.Group();
@@ -129,12 +130,13 @@ export function createTestRange(host: HTMLElement): TestRange {
   const bar = new THREE.Mesh(new THREE.TorusGeometry(0.5, 0.06, 6, 16, Math.PI), glow(0xffe0b0, 0.4));
   bar.position.set(-0.3, 0.25, 0);
   kartObj.add(bar);
+  kartObj.scale.setScalar(1.6);
   scene.add(kartObj);
-  const kart = label(kartObj, 'Loop kart', 'vehicles · loop track', '#ff9a55', 1.5);
+  const kart = label(kartObj, 'Loop kart', 'vehicles · loop track', '#ff9a55', 1.2);
 
   // Orb: an emissive sphere with its own point light.
   const orbObj = new THREE.Group();
-  orbObj.add(new THREE.Mesh(new THREE.SphereGeometry(0.28, 20, 14), glow(0x6dffc0, 2.4)));
+  orbObj.add(new THREE.Mesh(new THREE.SphereGeometry(0.16, 20, 14), glow(0x6dffc0, 2.4)));
   orbObj.add(new THREE.PointLight(0x6dffc0, 6, 8, 2));
   scene.add(orbObj);
   const orb = label(orbObj, 'Buzz orb', 'effects · close orbit', '#6dffc0', 0.7);

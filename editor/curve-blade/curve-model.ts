@@ -10,6 +10,8 @@ export interface CurveRange {
   readonly yScale: 'linear' | 'log';
   /** Optional x value drawn at 75 % of the width (the slow-motion range 0…1 gets room); undefined = linear. */
   readonly xKnee?: number;
+  /** Optional y value drawn at 60 % of the height on a linear y axis (e.g. 1 for pitch 0…4); undefined = linear. */
+  readonly yKnee?: number;
 }
 
 /** Default range: time scale 0…1 against 0…1. */
@@ -120,11 +122,21 @@ export function fromUnitX(u: number, range: CurveRange): number {
 /** Maps y to 0…1 along the range's y scale. */
 export function toUnitY(y: number, range: CurveRange): number {
   if (range.yScale === 'log') return Math.log(Math.max(y, range.yMin) / range.yMin) / Math.log(range.yMax / range.yMin);
+  const k = range.yKnee;
+  if (k !== undefined && k > range.yMin && k < range.yMax) {
+    if (y <= k) return (0.6 * (y - range.yMin)) / (k - range.yMin);
+    return 0.6 + (0.4 * (y - k)) / (range.yMax - k);
+  }
   return (y - range.yMin) / (range.yMax - range.yMin);
 }
 
 /** Inverse of toUnitY. */
 export function fromUnitY(u: number, range: CurveRange): number {
   if (range.yScale === 'log') return range.yMin * (range.yMax / range.yMin) ** u;
+  const k = range.yKnee;
+  if (k !== undefined && k > range.yMin && k < range.yMax) {
+    if (u <= 0.6) return range.yMin + (u / 0.6) * (k - range.yMin);
+    return k + ((u - 0.6) / 0.4) * (range.yMax - k);
+  }
   return range.yMin + u * (range.yMax - range.yMin);
 }

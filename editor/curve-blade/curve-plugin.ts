@@ -32,6 +32,8 @@ export interface CurveBladeParams extends BaseBladeParams {
   yScale?: 'linear' | 'log';
   /** x value drawn at 75 % of the width (e.g. 1 so that slow motion 0…1 gets most of the graph). */
   xKnee?: number;
+  /** y value drawn at 60 % of the height on a linear y axis (e.g. 1 for pitch). */
+  yKnee?: number;
 }
 
 function parseSpec(v: unknown): CurveSpec | undefined {
@@ -59,6 +61,7 @@ function rangeOf(p: CurveBladeParams): CurveRange | null {
     yMax: p.yMax ?? 1,
     yScale: p.yScale ?? 'linear',
     xKnee: p.xKnee,
+    yKnee: p.yKnee,
   };
   if (!(r.xMax > r.xMin) || !(r.yMax > r.yMin) || (r.yScale === 'log' && !(r.yMin > 0))) return null;
   return Object.freeze(r);
@@ -81,6 +84,7 @@ export const CurveBladePlugin: BladePlugin<CurveBladeParams> = createPlugin<Blad
       yMax: p.optional.number,
       yScale: p.optional.custom(parseScale),
       xKnee: p.optional.number,
+      yKnee: p.optional.number,
     }));
     if (!result || !rangeOf(result)) return null;
     return { params: result };

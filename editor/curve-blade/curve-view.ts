@@ -1,14 +1,14 @@
 // The curve blade's view: an SVG graph (grid, curve, keys, live marker) and a row of fields for the selected key.
 import { ClassName, SVG_NS, type ViewProps, type View } from '@tweakpane/core';
 import type { CurveSpec } from '../../src';
-import { curveInterpolations, fromUnitX, toUnitX, toUnitY, type CurveRange } from './curve-model';
+import { curveInterpolations, fromUnitX, fromUnitY, toUnitX, toUnitY, type CurveRange } from './curve-model';
 
 const cn = ClassName('rlcurve');
 
 /** Default graph size in CSS pixels (the width follows the panel). */
 export const GRAPH_HEIGHT = 118;
 const FALLBACK_WIDTH = 236;
-const PAD = Object.freeze({ left: 30, right: 6, top: 6, bottom: 16 });
+const PAD = Object.freeze({ left: 40, right: 7, top: 7, bottom: 16 });
 /** Pointer distance in pixels within which a key is picked. */
 export const PICK_RADIUS = 9;
 
@@ -176,20 +176,23 @@ export class CurveView implements View {
       t.textContent = x === 0.25 || x === 0.75 ? '' : formatNumber(x);
       this.gridGroup.appendChild(t);
     }
-    const yTicks = r.yScale === 'log' ? [100, 1000, 10000].filter((v) => v > r.yMin && v < r.yMax) : [0, 0.5, 1].map((u) => r.yMin + u * (r.yMax - r.yMin));
+    const yTicks =
+      r.yScale === 'log'
+        ? [100, 1000, 10000].filter((v) => v > r.yMin && v < r.yMax)
+        : r.yKnee !== undefined
+          ? [r.yKnee / 2, r.yKnee, (r.yKnee + r.yMax) / 2, r.yMax]
+          : [0.5, 1].map((u) => r.yMin + u * (r.yMax - r.yMin)).concat(r.yMin < 0 && r.yMax > 0 ? [0] : []);
     for (const y of yTicks) {
       const p = this.valueToPoint(r.xMin, y);
       this.gridGroup.appendChild(this.svg('line', { class: cn('gl'), x1: PAD.left, x2: this.width - PAD.right, y1: p.py, y2: p.py }));
-      const t = this.svg('text', { class: cn('tx'), x: PAD.left - 3, y: p.py + 3, 'text-anchor': 'end' });
+      const t = this.svg('text', { class: cn('tx'), x: PAD.left - 8, y: p.py + 3, 'text-anchor': 'end' });
       t.textContent = y >= 1000 ? `${y / 1000}k` : formatNumber(y);
       this.gridGroup.appendChild(t);
     }
   }
 
   private fromUnitYClamped(u: number): number {
-    const c = Math.min(1, Math.max(0, u));
-    if (this.range.yScale === 'log') return this.range.yMin * (this.range.yMax / this.range.yMin) ** c;
-    return this.range.yMin + c * (this.range.yMax - this.range.yMin);
+    return fromUnitY(Math.min(1, Math.max(0, u)), this.range);
   }
 
   private setField(input: HTMLInputElement, text: string): void {

@@ -56,7 +56,7 @@ export function addGroupsSection(pane: Pane, ctx: TunableContext): FolderApi {
     page.addBinding(g, 'doppler', { label: 'Doppler' }).on('change', (e) => ctx.changed(e.last));
     page.addBinding(g, 'priority', { label: 'priority', min: 0, max: 255, step: 1 }).on('change', (e) => ctx.changed(e.last));
     const curves = g as unknown as { [k: string]: CurveSpec };
-    addCurve(page, ctx, curves, 'pitch', { title: `${name} · speed & pitch ×`, unit: '×', yMin: 0, yMax: 4 });
+    addCurve(page, ctx, curves, 'pitch', { title: `${name} · speed & pitch ×`, unit: '×', yMin: 0, yMax: 4, yKnee: 1 });
     addCurve(page, ctx, curves, 'tone', { title: `${name} · tone cutoff`, unit: 'Hz', yMin: 20, yMax: 20000, yScale: 'log' });
     addCurve(page, ctx, curves, 'level', { title: `${name} · level`, unit: 'dB', yMin: -48, yMax: 12 });
     page.element.dataset.group = name;

@@ -1,6 +1,6 @@
 // Edits of the curve blade's model keep a valid curve: sorted keys, at least one key, values inside the range.
 import { describe, expect, it } from 'vitest';
-import { addKey, curveEquals, freezeCurve, fromUnitY, insertionPoint, moveKey, removeKey, toUnitY, withInterpolation, type CurveRange } from '../../editor/curve-blade';
+import { addKey, curveEquals, freezeCurve, fromUnitX, fromUnitY, toUnitX, insertionPoint, moveKey, removeKey, toUnitY, withInterpolation, type CurveRange } from '../../editor/curve-blade';
 import type { CurveSpec } from '../../src';
 
 const range: CurveRange = { xMin: 0, xMax: 4, yMin: 0, yMax: 4, yScale: 'linear' };
@@ -58,5 +58,33 @@ describe('curve model', () => {
     const log: CurveRange = { xMin: 0, xMax: 1, yMin: 20, yMax: 20000, yScale: 'log' };
     expect(toUnitY(hz, log)).toBeCloseTo(u, 6);
     expect(fromUnitY(u, log)).toBeCloseTo(hz, 3);
+  });
+});
+
+describe('curve x axis with a knee', () => {
+  const knee: CurveRange = { xMin: 0, xMax: 4, yMin: 0, yMax: 4, yScale: 'linear', xKnee: 1 };
+  it.each([
+    [0, 0],
+    [0.5, 0.375],
+    [1, 0.75],
+    [2.5, 0.875],
+    [4, 1],
+  ])('draws time scale %f at %f of the width and maps back', (x, u) => {
+    expect(toUnitX(x, knee)).toBeCloseTo(u, 12);
+    expect(fromUnitX(u, knee)).toBeCloseTo(x, 12);
+  });
+});
+
+describe('curve y axis with a knee', () => {
+  const knee: CurveRange = { xMin: 0, xMax: 4, yMin: 0, yMax: 4, yScale: 'linear', yKnee: 1 };
+  it.each([
+    [0, 0],
+    [0.5, 0.3],
+    [1, 0.6],
+    [2.5, 0.8],
+    [4, 1],
+  ])('draws pitch %f at %f of the height and maps back', (y, u) => {
+    expect(toUnitY(y, knee)).toBeCloseTo(u, 12);
+    expect(fromUnitY(u, knee)).toBeCloseTo(y, 12);
   });
 });
