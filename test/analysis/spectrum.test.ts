@@ -75,3 +75,16 @@ describe('levels', () => {
     expect(rmsLevel(new Float32Array(4), 3, 3)).toBe(0);
   });
 });
+
+describe('spectrum option alias', () => {
+  it("accepts the deprecated 'window' key as windowShape", () => {
+    // Kaiser β 12 side lobes sit far below Hann's, so a quiet tone next to a loud one reads differently (common practice).
+    const x = new Float32Array(4096);
+    for (let i = 0; i < x.length; i++) x[i] = Math.sin((2 * Math.PI * 1000 * i) / sampleRate) + 1e-5 * Math.sin((2 * Math.PI * 1300 * i) / sampleRate);
+    const viaAlias = toneLevelDb(x, sampleRate, 1300, { window: 'kaiser' });
+    const viaName = toneLevelDb(x, sampleRate, 1300, { windowShape: 'kaiser' });
+    const hann = toneLevelDb(x, sampleRate, 1300);
+    expect(viaAlias).toBe(viaName);
+    expect(Math.abs(hann - viaName)).toBeGreaterThan(1);
+  });
+});
