@@ -54,7 +54,7 @@ describe('Engine rendering', () => {
     const { engine } = playOne([sine(1000, SR, 1)], SR, { group, loop: true });
     engine.setTimeScale({ target: scale, rampSeconds: 0.2, easing: 'smooth' });
     const [left] = renderFor(engine, 1.5);
-    const peak = peakFrequency(left.subarray(SR, SR + 16384), SR, { window: 'kaiser' });
+    const peak = peakFrequency(left.subarray(SR, SR + 16384), SR, { windowShape: 'kaiser' });
     expect(peak).not.toBeNull();
     expect(Math.abs(peak!.frequency - expected)).toBeLessThan(0.5);
   });
@@ -68,7 +68,7 @@ describe('Engine rendering', () => {
       const { engine } = playOne([sine(tone, SR, 1, 0.25)], SR, { group: 'music', loop: true });
       engine.setTimeScale({ target: scale, rampSeconds: 0.1, easing: 'linear' });
       const [left] = renderFor(engine, 1.2);
-      const measured = toneLevelDb(left.subarray(SR / 2, SR / 2 + 16384), SR, tone, { window: 'kaiser' });
+      const measured = toneLevelDb(left.subarray(SR / 2, SR / 2 + 16384), SR, tone, { windowShape: 'kaiser' });
       const expected = 20 * Math.log10(0.25) + levelDb + cookbookLowpassDb(cutoff, Math.SQRT1_2, SR, tone);
       expect(Math.abs(measured - expected)).toBeLessThan(0.05);
     }
@@ -87,7 +87,7 @@ describe('Engine rendering', () => {
     });
     const { engine } = playOne([sine(tone, SR, 1, 0.25)], SR, { group: 'music', loop: true }, { tuning });
     const [left] = renderFor(engine, 0.8);
-    const measured = toneLevelDb(left.subarray(SR / 4, SR / 4 + 16384), SR, tone, { window: 'kaiser' }) - 20 * Math.log10(0.25);
+    const measured = toneLevelDb(left.subarray(SR / 4, SR / 4 + 16384), SR, tone, { windowShape: 'kaiser' }) - 20 * Math.log10(0.25);
     expect(Math.abs(measured - db)).toBeLessThan(0.05);
   });
 
@@ -107,7 +107,7 @@ describe('Engine rendering', () => {
     const plain = run(false);
     const frozen = run(true);
     expect(rmsLevel(frozen.left, Math.round(0.6 * SR), Math.round(1.25 * SR))).toBe(0);
-    const back = peakFrequency(frozen.left.subarray(Math.round(1.5 * SR), Math.round(1.5 * SR) + 8192), SR, { window: 'kaiser' });
+    const back = peakFrequency(frozen.left.subarray(Math.round(1.5 * SR), Math.round(1.5 * SR) + 8192), SR, { windowShape: 'kaiser' });
     expect(Math.abs(back!.frequency - 1000)).toBeLessThan(0.5);
     // The frozen second is added to the voice's life (up to the glides of the ratio into and out of the freeze).
     expect(frozen.ended - plain.ended).toBeGreaterThan(0.9);
