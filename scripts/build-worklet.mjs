@@ -1,10 +1,13 @@
 // Bundles the AudioWorklet processor (runtime/worklet/ralenti-processor.ts) with esbuild as one self-contained file.
 import * as esbuild from 'esbuild';
+import { existsSync } from 'node:fs';
 import { mkdir } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
-const repo = resolve(dirname(fileURLToPath(import.meta.url)), '..');
+// The repository root: beside this script, or the working directory when this file was bundled elsewhere (bench).
+const here = resolve(dirname(fileURLToPath(import.meta.url)), '..');
+const repo = existsSync(join(here, 'runtime', 'worklet', 'ralenti-processor.ts')) ? here : process.cwd();
 
 /** Entry file of the processor. */
 export const workletEntry = join(repo, 'runtime', 'worklet', 'ralenti-processor.ts');

@@ -18,7 +18,8 @@ export function browserSuiteMode(): 'run' | 'skip' | 'fail' {
   return process.env.CI ? 'fail' : 'skip';
 }
 
-const repo = resolve(__dirname, '../..');
+// npm scripts and vitest run from the repository root (this file is also bundled by the bench driver).
+const repo = process.cwd();
 
 /** Bundles a browser entry (ESM) in memory; `define` as esbuild's. */
 export async function bundleForBrowser(entry: string, define: Record<string, string> = {}): Promise<string> {

@@ -1,0 +1,71 @@
+// Chromium timing of the engine bench scene: the bundled worklet in an OfflineAudioContext, against the same
+// scene rendered by the engine in Node in the same run, as fractions of real time (one core).
+import { Engine } from '../src/engine/index';
+import { workletSourceText } from '../scripts/build-worklet.mjs';
+import { browserSuiteMode, bundleForBrowser, openPage } from '../test/browser/browser-harness';
+import { BENCH_RAMP, BENCH_RATE, benchPlays, benchSounds } from './browser-engine-scene';
+
+const SECONDS = 1;
+/** Runs per row; the fastest counts (the machine is shared, so the minimum is the least disturbed). */
+const REPEATS = 2;
+const VOICES = [0, 32, 64, 128, 256];
+
+function nodeMs(voices: number, seconds: number): number {
+  const engine = new Engine({ sampleRate: BENCH_RATE, capacity: Math.max(1, voices) });
+  const ids = benchSounds().map((s) => engine.addSound(s.channels, s.sampleRate));
+  for (const p of benchPlays(voices)) engine.play(ids[p.sound], p.options);
+  engine.setTimeScale({ target: BENCH_RAMP.target, rampSeconds: seconds, easing: BENCH_RAMP.easing, startTime: 0 });
+  const l = new Float32Array(128);
+  const r = new Float32Array(128);
+  const blocks = Math.round((seconds * BENCH_RATE) / 128);
+  const t0 = performance.now();
+  for (let b = 0; b < blocks; b++) engine.render([l, r], 128);
+  return performance.now() - t0;
+}
+
+/** Runs the benchmark; prints a table unless `json`. Skips (with a note) when Chromium is absent. */
+export async function run(options: { json: boolean }): Promise<object> {
+  if (browserSuiteMode() !== 'run') {
+    if (!options.json) console.log('skipped: /usr/bin/chromium not found');
+    return { skipped: true };
+  }
+  const worklet = await workletSourceText({ minify: false });
+  const page = await bundleForBrowser('bench/browser-engine-page.ts');
+  const session = await openPage({
+    '/index.html': '<!doctype html><meta charset="utf-8"><script type="module" src="/page.js"></script>',
+    '/page.js': page,
+    '/ralenti-processor.js': worklet,
+  });
+  const rows: { voices: number; chromiumRealTime: number; nodeRealTime: number; chromiumOverNode: number; active: number }[] = [];
+  try {
+    await session.page.waitForFunction(() => 'renderBench' in globalThis);
+    const render = (voices: number) =>
+      session.page.evaluate(
+        ([v, s]) => (globalThis as unknown as { renderBench(v: number, s: number): Promise<{ ms: number; active: number }> }).renderBench(v, s),
+        [voices, SECONDS] as const,
+      );
+    await render(8); // warm-up: JIT of the worklet scope
+    nodeMs(8, 0.25); // warm-up
+    for (const voices of VOICES) {
+      let c = { ms: Infinity, active: 0 };
+      let n = Infinity;
+      // Interleaved, so that both hosts see the same background load.
+      for (let k = 0; k < REPEATS; k++) {
+        const ck = await render(voices);
+        if (ck.ms < c.ms) c = ck;
+        n = Math.min(n, nodeMs(voices, SECONDS));
+      }
+      rows.push({ voices, chromiumRealTime: c.ms / 1000 / SECONDS, nodeRealTime: n / 1000 / SECONDS, chromiumOverNode: c.ms / n, active: c.active });
+    }
+  } finally {
+    await session.close();
+  }
+  if (!options.json) {
+    console.log(`${SECONDS} s rendered per row, best of ${REPEATS}; fractions of one core in real time (OfflineAudioContext wall time ÷ audio duration)`);
+    console.log('voices | Chromium worklet (OfflineAudioContext) | Node engine, same scene | Chromium ÷ Node | active');
+    for (const r of rows) {
+      console.log(`${r.voices} | ${(r.chromiumRealTime * 100).toFixed(1)} % | ${(r.nodeRealTime * 100).toFixed(1)} % | ${r.voices === 0 ? '—' : r.chromiumOverNode.toFixed(2) + '×'} | ${r.active}`);
+    }
+  }
+  return { seconds: SECONDS, rows };
+}
