@@ -36,6 +36,7 @@ export class EngineHost {
   private readonly voiceOwners = new Map<number, number>();
   private readonly scratch: Float32Array[];
   private readonly monitors: VoiceMonitor[] = [];
+  private readonly live = new Set<number>();
   private readonly statsIntervalFrames: number;
   private framesSinceStats = 0;
   private reportedErrors = 0;
@@ -47,10 +48,15 @@ export class EngineHost {
     this.timeOffset = options.startContextTime;
     this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning });
     this.scratch = [new Float32Array(128), new Float32Array(128)];
-    for (let i = 0; i < MAX_MONITORS; i++) this.monitors.push(emptyMonitor());
+    for (let i = 0; i < p.capacity; i++) this.monitors.push(emptyMonitor());
     const interval = Math.min(10, Math.max(0.05, Number(p.statsIntervalSeconds) || 0.25));
     this.statsIntervalFrames = Math.round(interval * options.sampleRate);
     this.post({ type: 'ready', sampleRate: options.sampleRate, capacity: p.capacity });
+  }
+
+  /** Main-thread voice handles currently mapped to engine voices. */
+  get mappedVoices(): number {
+    return this.voices.size;
   }
 
   /** Context time → engine time: the engine clock started at the host's creation. */
@@ -182,9 +188,17 @@ export class EngineHost {
     try {
       const count = this.engine.monitor(this.monitors);
       const voices: VoiceMonitor[] = [];
-      for (let i = 0; i < count && i < this.monitors.length; i++) {
+      this.live.clear();
+      for (let i = 0; i < count; i++) {
         const m = this.monitors[i];
-        voices.push({ ...m, voice: this.voiceOwners.get(m.voice) ?? -1 });
+        this.live.add(m.voice);
+        if (voices.length < MAX_MONITORS) voices.push({ ...m, voice: this.voiceOwners.get(m.voice) ?? -1 });
+      }
+      // Voices that ended on their own (one-shots, steals) leave the handle maps here, so they never grow.
+      for (const [engineVoice, mainVoice] of this.voiceOwners) {
+        if (this.live.has(engineVoice)) continue;
+        this.voiceOwners.delete(engineVoice);
+        this.voices.delete(mainVoice);
       }
       const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
       this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices });

@@ -97,3 +97,19 @@ describe('EngineHost (audio-thread side)', () => {
     expect(h.errors).toBe(0);
   });
 });
+
+describe('EngineHost handle maps', () => {
+  it('forgets voices that ended on their own, so 1000 one-shots leave no mapped handles', () => {
+    const { h, out } = host(0.05);
+    const click = new Float32Array(64).fill(0.1);
+    h.handle({ type: 'add-sound', sound: 1, channels: [click], sampleRate: 48000 });
+    for (let k = 0; k < 1000; k++) {
+      h.handle({ type: 'play', voice: k + 1, sound: 1, options: { group: 'interface' } });
+      h.process(out());
+    }
+    expect(h.mappedVoices).toBeGreaterThan(0);
+    for (let b = 0; b < 40; b++) h.process(out());
+    expect(h.mappedVoices).toBe(0);
+    expect(h.errors).toBe(0);
+  });
+});
