@@ -50,7 +50,7 @@ export const ORB_CENTER_OFFSET = 2.2;
 export function orbPosition(t: number, center: Vec3Like, out: Vec3Like): Vec3Like {
   const a = t * ORB_ANGULAR_SPEED;
   out.x = center.x + ORB_RADIUS * Math.cos(a);
-  out.y = center.y + 0.8 + 0.4 * Math.sin(2 * a);
+  out.y = center.y - 1.4 + 0.3 * Math.sin(2 * a);
   out.z = center.z - ORB_CENTER_OFFSET + ORB_RADIUS * Math.sin(a);
   return out;
 }
@@ -58,6 +58,6 @@ export function orbPosition(t: number, center: Vec3Like, out: Vec3Like): Vec3Lik
 /** Fixed places of the stationary objects. */
 export const GENERATOR_POSITION: Readonly<Vec3Like> = Object.freeze({ x: 22, y: 0, z: -22 });
 /** The music mast (the music loop is non-positional; the mast only marks it). */
-export const MUSIC_MAST_POSITION: Readonly<Vec3Like> = Object.freeze({ x: -26, y: 0, z: -10 });
+export const MUSIC_MAST_POSITION: Readonly<Vec3Like> = Object.freeze({ x: -14, y: 0, z: -2 });
 /** The interface console (its clicks are non-positional; the console only marks them). */
 export const CONSOLE_POSITION: Readonly<Vec3Like> = Object.freeze({ x: -4, y: 0, z: 6 });

@@ -63,13 +63,26 @@ export function createTestRange(host: HTMLElement): TestRange {
   const scene = new THREE.Scene();
   scene.background = new THREE.Color(0x0b1020);
   scene.fog = new THREE.Fog(0x0b1020, 40, 260);
-  const camera = new THREE.PerspectiveCamera(70, 16 / 9, 0.1, 600);
+  const camera = new THREE.PerspectiveCamera(70, 16 / 9, 0.1, 1000);
   camera.position.set(10, 9, 30);
 
   scene.add(new THREE.HemisphereLight(0x5068a0, 0x101018, 1.1));
   const moon = new THREE.DirectionalLight(0xb8c8ff, 0.9);
   moon.position.set(-40, 60, 20);
   scene.add(moon);
+
+  // A seeded star field on a dome (the same sky every start).
+  let seed = 12345;
+  const rand = () => ((seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0) / 4294967296);
+  const starPositions = new Float32Array(900 * 3);
+  for (let i = 0; i < 900; i++) {
+    const az = rand() * Math.PI * 2;
+    const el = Math.asin(0.08 + 0.92 * rand());
+    starPositions.set([Math.cos(az) * Math.cos(el) * 450, Math.sin(el) * 450, Math.sin(az) * Math.cos(el) * 450], i * 3);
+  }
+  const starGeo = new THREE.BufferGeometry();
+  starGeo.setAttribute('position', new THREE.BufferAttribute(starPositions, 3));
+  scene.add(new THREE.Points(starGeo, new THREE.PointsMaterial({ color: 0xc8d4ff, size: 1.6, sizeAttenuation: false, fog: false })));
 
   const ground = new THREE.Mesh(new THREE.PlaneGeometry(800, 800), new THREE.MeshStandardMaterial({ color: 0x222c40, roughness: 1 }));
   ground.rotation.x = -Math.PI / 2;
