@@ -13,9 +13,9 @@ export const CHROMIUM_PATH = '/usr/bin/chromium';
 export const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-quic', '--no-first-run', '--disable-component-update', '--disable-sync'];
 
 /** 'run' when Chromium is present; 'skip' without it outside CI; 'fail' without it under CI. */
-export function browserSuiteMode(): 'run' | 'skip' | 'fail' {
-  if (existsSync(CHROMIUM_PATH)) return 'run';
-  return process.env.CI ? 'fail' : 'skip';
+export function browserSuiteMode(path: string = CHROMIUM_PATH, env: Record<string, string | undefined> = process.env): 'run' | 'skip' | 'fail' {
+  if (existsSync(path)) return 'run';
+  return env.CI ? 'fail' : 'skip';
 }
 
 // npm scripts and vitest run from the repository root (this file is also bundled by the bench driver).
