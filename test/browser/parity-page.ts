@@ -69,4 +69,30 @@ async function renderScene(scene: WireScene, workletUrl: string | null): Promise
   return { left: Array.from(buffer.getChannelData(0)), right: Array.from(buffer.getChannelData(1)), errors, renderMs };
 }
 
-Object.assign(globalThis, { renderScene });
+/** Sends a malformed command straight to the port mid-render; returns the reported errors, the last stats and the peak after it. */
+async function probeBadCommand(): Promise<{ errors: string[]; statsErrors: number; activeVoices: number; peakAfter: number }> {
+  const ctx = new OfflineAudioContext(2, 0.3 * PARITY_RATE, PARITY_RATE);
+  const r = await createRalenti(ctx, { workletUrl: '/ralenti-processor.js', statsIntervalSeconds: 0.05 });
+  r.connect(ctx.destination);
+  const errors: string[] = [];
+  r.onError((e) => errors.push(`${e.where}: ${e.message}`));
+  const tone = new Float32Array(4800).map((_, i) => 0.25 * Math.sin((2 * Math.PI * 500 * i) / PARITY_RATE));
+  r.play(r.load({ channels: [tone], sampleRate: PARITY_RATE }), { group: 'interface', loop: true });
+  const done = ctx.suspend(0.1).then(async () => {
+    r.node.port.postMessage({ type: 'play', voice: 'not-a-handle' });
+    await r.flush();
+    await ctx.resume();
+  });
+  await r.flush();
+  const buffer = await ctx.startRendering();
+  await done;
+  await r.flush();
+  const left = buffer.getChannelData(0);
+  let peakAfter = 0;
+  for (let i = Math.round(0.15 * PARITY_RATE); i < left.length; i++) peakAfter = Math.max(peakAfter, Math.abs(left[i]));
+  const result = { errors, statsErrors: r.stats.errors, activeVoices: r.stats.activeVoices, peakAfter };
+  r.dispose();
+  return result;
+}
+
+Object.assign(globalThis, { renderScene, probeBadCommand });

@@ -78,4 +78,14 @@ describe.skipIf(mode === 'skip')('worklet in Chromium (OfflineAudioContext)', ()
     expect(maxDiff(inline.left, fromFile.left)).toBe(0);
     expect(maxDiff(inline.right, fromFile.right)).toBe(0);
   });
+
+  it('reports a malformed command from the audio thread and keeps playing', async () => {
+    const r = await session!.page.evaluate(() =>
+      (globalThis as unknown as { probeBadCommand(): Promise<{ errors: string[]; statsErrors: number; activeVoices: number; peakAfter: number }> }).probeBadCommand(),
+    );
+    expect(r.errors).toEqual(['command: play.voice: expected a handle']);
+    expect(r.statsErrors).toBe(1);
+    expect(r.activeVoices).toBe(1);
+    expect(r.peakAfter).toBeGreaterThan(0.05);
+  });
 });
