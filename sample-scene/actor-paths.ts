@@ -58,6 +58,6 @@ export function orbPosition(t: number, center: Vec3Like, out: Vec3Like): Vec3Lik
 /** Fixed places of the stationary objects. */
 export const GENERATOR_POSITION: Readonly<Vec3Like> = Object.freeze({ x: 22, y: 0, z: -22 });
 /** The music mast (the music loop is non-positional; the mast only marks it). */
-export const MUSIC_MAST_POSITION: Readonly<Vec3Like> = Object.freeze({ x: -14, y: 0, z: -2 });
+export const MUSIC_MAST_POSITION: Readonly<Vec3Like> = Object.freeze({ x: -9, y: 0, z: 15 });
 /** The interface console (its clicks are non-positional; the console only marks them). */
 export const CONSOLE_POSITION: Readonly<Vec3Like> = Object.freeze({ x: -4, y: 0, z: 6 });

@@ -152,7 +152,7 @@ export function createTestRange(host: HTMLElement): TestRange {
   orbObj.add(new THREE.Mesh(new THREE.SphereGeometry(0.16, 20, 14), glow(0x6dffc0, 2.4)));
   orbObj.add(new THREE.PointLight(0x6dffc0, 6, 8, 2));
   scene.add(orbObj);
-  const orb = label(orbObj, 'Buzz orb', 'effects · close orbit', '#6dffc0', 0.7);
+  const orb = label(orbObj, 'Buzz orb', 'effects · close orbit', '#6dffc0', 0.25);
 
   // Generator: a squat housing with a pulsing vent.
   const genObj = new THREE.Group();
