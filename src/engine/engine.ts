@@ -287,9 +287,10 @@ export class Engine {
     const mixR = this.mixR;
     mixL.fill(0, 0, n);
     mixR.fill(0, 0, n);
-    const tEnd = (this.frameCount + n) / this.sampleRate;
-    this.snapshots.interpolate(tEnd);
-    const s = this.flow.valueAt(tEnd);
+    // Control values at the block's midpoint: the smoothers then follow a moving target without a half-block lead.
+    const tMid = (this.frameCount + n / 2) / this.sampleRate;
+    this.snapshots.interpolate(tMid);
+    const s = this.flow.valueAt(tMid);
     for (let i = 0; i < this.voices.length; i++) {
       const v = this.voices[i];
       if (v.state === VOICE_FREE) continue;

@@ -1,0 +1,4 @@
+// Entry point of the bundled `ralenti` program (dist/cli/ralenti.mjs).
+import { runFromProcess } from './ralenti';
+
+runFromProcess();
