@@ -1,6 +1,7 @@
 // Hosts one Engine behind the message protocol: decodes commands, maps handles, renders, reports stats and errors.
 // Used by the AudioWorkletProcessor; free of worklet globals so that Node tests can drive it directly.
 import { Engine } from '../../src/engine/index';
+import { parseTuning } from '../../src/tuning/index';
 import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
 import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type Report } from '../protocol';
 
@@ -131,7 +132,8 @@ export class EngineHost {
         return;
       }
       case 'tuning':
-        e.setTuning(c.tuning);
+        // Validated again here: a malformed document must be refused whole, not half-applied to the engine.
+        e.setTuning(parseTuning(c.tuning));
         return;
       case 'sync':
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
