@@ -56,7 +56,7 @@ export const malformedCorpus: readonly CorpusCase[] = [
   // extra and hostile keys
   { name: 'an extra top-level key', input: patch((d) => (d.colour = 'blue')), path: 'colour' },
   { name: '__proto__ at the top level (JSON text)', input: text((t) => t.replace('{', '{"__proto__": {"polluted": true},')), path: '__proto__' },
-  { name: 'constructor at the top level', input: patch((d) => ((d as Record<string, unknown>).constructor = { prototype: { polluted: true } })), path: 'constructor' },
+  { name: 'constructor at the top level', input: patch((d) => (d[String('constructor')] = { prototype: { polluted: true } })), path: 'constructor' },
   { name: 'prototype inside a section', input: patch((d) => (d.air.prototype = { polluted: true })), path: 'air.prototype' },
   { name: '__proto__ inside a group (JSON text)', input: text((t) => t.replace('"policy": "follow-time"', '"__proto__": {"polluted": true}, "policy": "follow-time"')), path: 'groups.effects.__proto__' },
   { name: '__proto__ inside a curve key (JSON text)', input: text((t) => t.replace('"x": 0,', '"x": 0, "__proto__": {"polluted": 1},')), path: 'groups.effects.pitch.keys[0].__proto__' },
