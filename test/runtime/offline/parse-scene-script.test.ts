@@ -63,3 +63,16 @@ describe('parseSceneScript', () => {
     expect(issues.map((i) => i.path)).toEqual(['duration', 'voices[0].sound', 'voices[1].sound']);
   });
 });
+
+describe('README scene script example', () => {
+  it('parses the scene script shown in the README', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { resolve } = await import('node:path');
+    const readme = readFileSync(resolve(__dirname, '../../../README.md'), 'utf8');
+    const section = readme.slice(readme.indexOf('## Scene scripts'));
+    const json = section.slice(section.indexOf('```json') + 7, section.indexOf('```', section.indexOf('```json') + 7));
+    const s = parseSceneScript(JSON.parse(json));
+    expect(s.voices[0].group).toBe('vehicles');
+    expect(s.timeScale[0].target).toBe(0.5);
+  });
+});
