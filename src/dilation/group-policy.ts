@@ -33,6 +33,30 @@ export class CompiledGroup {
   /** Stealing priority 0…255. */
   readonly priority: number;
 
+  /** Time scale of the cached curve values below (NaN = none yet). */
+  cachedScale = Number.NaN;
+  /** pitch(cachedScale), or 1 when the policy keeps speed. */
+  cachedSpeed = 1;
+  /** tone(cachedScale) clamped to 20…20000 Hz, or open when exempt. */
+  cachedCutoffHz = 20000;
+  /** 10^(level(cachedScale)/20), or 1 when exempt. */
+  cachedLevelGain = 1;
+
+  /** Evaluates the curves at time scale s (0…4) into the cached fields; reuses them when s is unchanged. */
+  evaluateAt(s: number, minCutoffHz: number, openCutoffHz: number): void {
+    if (s === this.cachedScale) return;
+    this.cachedScale = s;
+    this.cachedSpeed = this.followsSpeed ? this.pitch.evaluate(s) : 1;
+    if (this.appliesTone) {
+      const c = this.tone.evaluate(s);
+      this.cachedCutoffHz = c < minCutoffHz ? minCutoffHz : c > openCutoffHz ? openCutoffHz : c;
+      this.cachedLevelGain = Math.pow(10, this.level.evaluate(s) / 20);
+    } else {
+      this.cachedCutoffHz = openCutoffHz;
+      this.cachedLevelGain = 1;
+    }
+  }
+
   /** Builds the group's curves (throws RangeError on malformed curves; parseTuning output never is). */
   constructor(name: string, group: GroupTuning) {
     this.name = name;

@@ -3,7 +3,7 @@ export { TimeFlow, timeFlowDefaults, clampTimeScale, easeValue, EXPONENTIAL_FLOO
 export type { TimeFlowOptions } from './time-flow';
 export { Curve, fritschCarlsonTangents, MIN_KEY_SPACING } from './curve';
 export { CompiledGroup, policyFollowsSpeed, policyAppliesTone } from './group-policy';
-export { distanceGain, azimuthDegrees, equalPowerGains } from './spatial-gains';
+export { distanceGain, azimuthDegrees, equalPowerGains, equalPowerFromSine } from './spatial-gains';
 export {
   TargetMapper,
   createVoiceTargets,

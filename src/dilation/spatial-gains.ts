@@ -58,3 +58,15 @@ export function equalPowerGains(azimuth: number, out: Float64Array): Float64Arra
   out[1] = Math.sin((x * Math.PI) / 2);
   return out;
 }
+
+/**
+ * Equal-power gains from the sine of the azimuth (the source direction's component along the listener's right,
+ * over its length in the listener's horizontal plane), −1…1: the spec's folding and cos/sin law reduce exactly to
+ * gainL = sqrt((1 − a)/2), gainR = sqrt((1 + a)/2). Writes out[0], out[1]; no trigonometry.
+ */
+export function equalPowerFromSine(sinAzimuth: number, out: Float64Array): Float64Array {
+  const a = sinAzimuth > 1 ? 1 : sinAzimuth < -1 ? -1 : sinAzimuth === sinAzimuth ? sinAzimuth : 0;
+  out[0] = Math.sqrt((1 - a) * 0.5);
+  out[1] = Math.sqrt((1 + a) * 0.5);
+  return out;
+}

@@ -6,7 +6,7 @@ import type { Vec3Like } from '../units';
 import { dopplerFromSpeeds, speedOfSound, createDopplerStats, type DopplerStats } from '../motion';
 import type { ListenerState, SourceState, VoiceTargets } from './snapshot-types';
 import { CompiledGroup } from './group-policy';
-import { azimuthDegrees, distanceGain, equalPowerGains } from './spatial-gains';
+import { distanceGain, equalPowerFromSine } from './spatial-gains';
 
 /** Largest target ratio (the resampler's maximum playback ratio). */
 export const MAX_TARGET_RATIO = 4;
@@ -50,8 +50,8 @@ export function createVoiceTargets(): VoiceTargets {
   return { ratio: 1, cutoffHz: OPEN_CUTOFF_HZ, gain: 1, left: 1, right: 1, doppler: 1, radialSpeed: 0, distance: 0, frozen: false };
 }
 
-function finiteCoord(v: number): boolean {
-  return v >= -MAX_COORDINATE && v <= MAX_COORDINATE;
+function finiteCoord(v: number, limit: number): boolean {
+  return v >= -limit && v <= limit;
 }
 
 /** Maps voices to targets under one tuning; allocation-free per call; counts every clamped input. */
@@ -68,6 +68,23 @@ export class TargetMapper {
   private c = 343;
   private minDoppler = 0.5;
   private maxDoppler = 2;
+  // Non-small-integer constants copied into fields: in an ES module, reading a module-level double
+  // constant on the hot path made V8 allocate a heap number per call (measured by bench/mapping.bench.ts).
+  private readonly minRatio: number = MIN_TARGET_RATIO;
+  private readonly maxCoordinate: number = MAX_COORDINATE;
+  private readonly maxRadialSpeed: number = MAX_RADIAL_SPEED;
+  private readonly gameClockMinScale: number = GAME_CLOCK_MIN_TIME_SCALE;
+  private gameClock = false;
+  private scale = 0.5;
+  private dopplerFactor = 1;
+  private distanceModel: Tuning['distance']['model'] = 'inverse';
+  private refDistance = 1;
+  private maxDistance = 10000;
+  private rolloff = 1;
+  /** Listener orientation the scratch fwd/right were computed from (recomputed only when it changes). */
+  private readonly lastForward: Vec3Like = { x: Number.NaN, y: 0, z: 0 };
+  private readonly lastUp: Vec3Like = { x: Number.NaN, y: 0, z: 0 };
+  private lastOrientationValid = true;
   private readonly pan = new Float64Array(2);
   private readonly dir: Vec3Like = { x: 0, y: 0, z: 0 };
   private readonly fwd: Vec3Like = { x: 0, y: 0, z: -1 };
@@ -89,6 +106,12 @@ export class TargetMapper {
     const maxShift = t.doppler.maxShiftCents;
     this.maxDoppler = Math.min(Math.pow(2, maxShift / 1200), MAX_TARGET_RATIO);
     this.minDoppler = 1 / this.maxDoppler;
+    this.gameClock = t.doppler.velocityClock === 'game';
+    this.dopplerFactor = t.doppler.factor;
+    this.distanceModel = t.distance.model;
+    this.refDistance = t.distance.refDistance;
+    this.maxDistance = t.distance.maxDistance;
+    this.rolloff = t.distance.rolloffFactor;
   }
 
   /** The tuning in use. */
@@ -138,29 +161,25 @@ export class TargetMapper {
       this.clamps += 1;
     }
 
-    const speed = g.followsSpeed ? g.pitch.evaluate(s) : 1;
-    let cutoff = OPEN_CUTOFF_HZ;
-    let levelDb = 0;
-    if (g.appliesTone) {
-      cutoff = g.tone.evaluate(s);
-      levelDb = g.level.evaluate(s);
-      cutoff = cutoff < MIN_CUTOFF_HZ ? MIN_CUTOFF_HZ : cutoff > OPEN_CUTOFF_HZ ? OPEN_CUTOFF_HZ : cutoff;
-    }
-    out.cutoffHz = cutoff;
-    out.gain = gain * Math.pow(10, levelDb / 20);
+    g.evaluateAt(s, MIN_CUTOFF_HZ, OPEN_CUTOFF_HZ);
+    const speed = g.cachedSpeed;
+    out.cutoffHz = g.cachedCutoffHz;
+    out.gain = gain * g.cachedLevelGain;
 
-    let doppler = 1;
     out.radialSpeed = 0;
     out.distance = 0;
     out.left = 1;
     out.right = 1;
+    out.doppler = 1;
     const src = input.source;
-    if (src !== null) doppler = this.spatial(out, input, src, g, s);
-    out.doppler = doppler;
+    // The time scale travels in a field: a double argument to a non-inlined call would be boxed (allocated).
+    this.scale = s;
+    if (src !== null) this.spatial(out, input, src, g);
 
-    let ratio = base * speed * doppler;
-    out.frozen = g.followsSpeed && !(ratio >= MIN_TARGET_RATIO);
-    if (!(ratio >= MIN_TARGET_RATIO)) ratio = MIN_TARGET_RATIO;
+    let ratio = base * speed * out.doppler;
+    const minRatio = this.minRatio;
+    out.frozen = g.followsSpeed && !(ratio >= minRatio);
+    if (!(ratio >= minRatio)) ratio = minRatio;
     else if (ratio > MAX_TARGET_RATIO) {
       ratio = MAX_TARGET_RATIO;
       this.clamps += 1;
@@ -169,22 +188,22 @@ export class TargetMapper {
     return out;
   }
 
-  /** Spatial gains and Doppler of a positioned voice; returns the (max-shift clamped) Doppler ratio. */
-  private spatial(out: VoiceTargets, input: VoiceInput, src: SourceState & { velocity: Vec3Like }, g: CompiledGroup, s: number): number {
+  /** Writes spatial gains, distance, radial speed and the (max-shift clamped) Doppler ratio of a positioned voice. */
+  private spatial(out: VoiceTargets, input: VoiceInput, src: SourceState & { velocity: Vec3Like }, g: CompiledGroup): void {
     const lis = input.listener;
     const sp = src.position;
     const lp = lis.position;
-    if (!finiteCoord(sp.x) || !finiteCoord(sp.y) || !finiteCoord(sp.z) || !finiteCoord(lp.x) || !finiteCoord(lp.y) || !finiteCoord(lp.z)) {
+    const lim = this.maxCoordinate;
+    if (!finiteCoord(sp.x, lim) || !finiteCoord(sp.y, lim) || !finiteCoord(sp.z, lim) || !finiteCoord(lp.x, lim) || !finiteCoord(lp.y, lim) || !finiteCoord(lp.z, lim)) {
       this.clamps += 1;
-      return 1;
+      return;
     }
     // Listener → source, for distance and panning.
     const dx = sp.x - lp.x;
     const dy = sp.y - lp.y;
     const dz = sp.z - lp.z;
     const d = Math.sqrt(dx * dx + dy * dy + dz * dz);
-    const t = this.tuning.distance;
-    const dist = distanceGain(t.model, d, t.refDistance, t.maxDistance, t.rolloffFactor);
+    const dist = distanceGain(this.distanceModel, d, this.refDistance, this.maxDistance, this.rolloff);
     out.distance = d;
     const dir = this.dir;
     if (d > 0) {
@@ -192,12 +211,16 @@ export class TargetMapper {
       dir.y = dy / d;
       dir.z = dz / d;
       this.orientation(lis);
-      equalPowerGains(azimuthDegrees(dir, this.fwd, this.right), this.pan);
+      // Sine of the Web Audio azimuth: the direction's right component over its length in the horizontal plane.
+      const r = dx * this.right.x + dy * this.right.y + dz * this.right.z;
+      const f = dx * this.fwd.x + dy * this.fwd.y + dz * this.fwd.z;
+      const h = Math.sqrt(r * r + f * f);
+      equalPowerFromSine(h > 1e-12 * d ? r / h : 0, this.pan);
     } else {
       dir.x = 0;
       dir.y = 0;
       dir.z = 0;
-      equalPowerGains(0, this.pan);
+      equalPowerFromSine(0, this.pan);
     }
     out.left = dist * this.pan[0];
     out.right = dist * this.pan[1];
@@ -209,25 +232,27 @@ export class TargetMapper {
     let vls = -(lv.x * dir.x + lv.y * dir.y + lv.z * dir.z);
     vss = this.clampSpeed(vss);
     vls = this.clampSpeed(vls);
-    if (this.tuning.doppler.velocityClock === 'game') {
-      const k = 1 / (s > GAME_CLOCK_MIN_TIME_SCALE ? s : GAME_CLOCK_MIN_TIME_SCALE);
+    if (this.gameClock) {
+      const s = this.scale;
+      const floor = this.gameClockMinScale;
+      const k = 1 / (s > floor ? s : floor);
       vss *= k;
       vls *= k;
     }
     out.radialSpeed = vss - vls;
-    const factor = this.tuning.doppler.factor;
-    if (!g.doppler || factor === 0 || d === 0) return 1;
-    let ratio = dopplerFromSpeeds(vls, vss, this.c, factor, this.dopplerStats);
-    ratio = ratio < this.minDoppler ? this.minDoppler : ratio > this.maxDoppler ? this.maxDoppler : ratio;
-    return ratio;
+    const factor = this.dopplerFactor;
+    if (!g.doppler || factor === 0 || d === 0) return;
+    const ratio = dopplerFromSpeeds(vls, vss, this.c, factor, this.dopplerStats);
+    out.doppler = ratio < this.minDoppler ? this.minDoppler : ratio > this.maxDoppler ? this.maxDoppler : ratio;
   }
 
   /** Non-finite speeds → 0, beyond ±MAX_RADIAL_SPEED → clamped; both counted. */
   private clampSpeed(v: number): number {
-    if (v >= -MAX_RADIAL_SPEED && v <= MAX_RADIAL_SPEED) return v;
+    const lim = this.maxRadialSpeed;
+    if (v >= -lim && v <= lim) return v;
     this.clamps += 1;
-    if (v > MAX_RADIAL_SPEED) return MAX_RADIAL_SPEED;
-    if (v < -MAX_RADIAL_SPEED) return -MAX_RADIAL_SPEED;
+    if (v > lim) return lim;
+    if (v < -lim) return -lim;
     return 0;
   }
 
@@ -235,6 +260,18 @@ export class TargetMapper {
   private orientation(lis: ListenerState): void {
     const f = lis.forward;
     const u = lis.up;
+    const lf = this.lastForward;
+    const lu = this.lastUp;
+    if (f.x === lf.x && f.y === lf.y && f.z === lf.z && u.x === lu.x && u.y === lu.y && u.z === lu.z) {
+      if (!this.lastOrientationValid) this.clamps += 1;
+      return;
+    }
+    lf.x = f.x;
+    lf.y = f.y;
+    lf.z = f.z;
+    lu.x = u.x;
+    lu.y = u.y;
+    lu.z = u.z;
     let fx = f.x;
     let fy = f.y;
     let fz = f.z;
@@ -243,7 +280,8 @@ export class TargetMapper {
     let ry = fz * u.x - fx * u.z;
     let rz = fx * u.y - fy * u.x;
     let rl = Math.sqrt(rx * rx + ry * ry + rz * rz);
-    if (!(fl > 1e-12) || fl === Infinity || !(rl > 1e-12 * fl) || rl === Infinity) {
+    this.lastOrientationValid = fl > 1e-12 && fl < Infinity && rl > 1e-12 * fl && rl < Infinity;
+    if (!this.lastOrientationValid) {
       this.clamps += 1;
       fx = 0;
       fy = 0;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { azimuthDegrees, distanceGain, equalPowerGains } from '../../src/dilation';
+import { azimuthDegrees, distanceGain, equalPowerFromSine, equalPowerGains } from '../../src/dilation';
 
 describe('distanceGain (Web Audio API PannerNode distance models)', () => {
   // W3C Web Audio API, PannerNode distance models; check values COMPUTED from the spec formulas (REFERENCES.md §5), 1e-12.
@@ -72,5 +72,30 @@ describe('azimuthDegrees (Web Audio API azimuth from listener orientation)', () 
     // Behind is ±180 (both fold to the centre).
     if (Math.abs(az) === 180) expect(Math.abs(a)).toBeCloseTo(180, 9);
     else expect(a).toBeCloseTo(az, 9);
+  });
+});
+
+describe('equalPowerFromSine (trigonometry-free form of the spec’s equal-power law)', () => {
+  it('equals the spec’s azimuth + cos/sin computation for directions all around the listener', () => {
+    const forward = { x: 0, y: 0, z: -1 };
+    const right = { x: 1, y: 0, z: 0 };
+    const spec = new Float64Array(2);
+    const fast = new Float64Array(2);
+    for (let i = 0; i < 720; i++) {
+      const a = (i * Math.PI) / 360;
+      const el = Math.sin(i * 0.37) * 1.2;
+      const dir = { x: Math.cos(el) * Math.sin(a), y: Math.sin(el), z: -Math.cos(el) * Math.cos(a) };
+      equalPowerGains(azimuthDegrees(dir, forward, right), spec);
+      const h = Math.hypot(dir.x, dir.z);
+      equalPowerFromSine(dir.x / h, fast);
+      expect(fast[0]).toBeCloseTo(spec[0], 12);
+      expect(fast[1]).toBeCloseTo(spec[1], 12);
+    }
+  });
+
+  it('centres NaN and clamps out-of-range sines', () => {
+    const out = new Float64Array(2);
+    expect([...equalPowerFromSine(Number.NaN, out)]).toEqual([Math.SQRT1_2, Math.SQRT1_2]);
+    expect([...equalPowerFromSine(2, out)]).toEqual([0, 1]);
   });
 });
