@@ -2,7 +2,7 @@
 // the worklet inlined (Blob URL), and .d.ts declarations from tsc (TypeScript 7 emits declarations).
 import * as esbuild from 'esbuild';
 import { spawnSync } from 'node:child_process';
-import { rmSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { buildWorklet, workletSourceText } from './build-worklet.mjs';
@@ -18,9 +18,18 @@ export const distEntries = Object.freeze({
   howler: 'runtime/howler/index.ts',
 });
 
+/** Removes what an earlier build wrote (root files and types/), leaving other folders such as dist/cli/ alone. */
+function cleanOwnOutputs(outdir) {
+  if (!existsSync(outdir)) return;
+  for (const f of readdirSync(outdir, { withFileTypes: true })) {
+    if (f.isFile() && /\.(js|map|txt)$/.test(f.name)) rmSync(join(outdir, f.name), { force: true });
+  }
+  rmSync(join(outdir, 'types'), { recursive: true, force: true });
+}
+
 /** Builds dist/ under `outdir` (default <repo>/dist); resolves to the list of written files. */
 export async function buildDist({ outdir = join(repo, 'dist'), declarations = true, log = console.log } = {}) {
-  rmSync(outdir, { recursive: true, force: true });
+  cleanOwnOutputs(outdir);
   const workletFile = await buildWorklet({ outdir, minify: false });
   const inlined = await workletSourceText({ minify: true });
   const entryPoints = Object.fromEntries(Object.entries(distEntries).map(([k, v]) => [k, join(repo, v)]));

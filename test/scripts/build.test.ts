@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { existsSync, mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -9,6 +9,10 @@ import { buildDist } from '../../scripts/build.mjs';
 describe('npm run build (scripts/build.mjs)', () => {
   const out = mkdtempSync(join(tmpdir(), 'ralenti-dist-'));
   beforeAll(async () => {
+    // Another build's output (the CLI under dist/cli) must survive; a stale root file must not.
+    mkdirSync(join(out, 'cli'));
+    writeFileSync(join(out, 'cli', 'ralenti.mjs'), '// cli');
+    writeFileSync(join(out, 'chunk-STALE.js'), '// old chunk');
     await buildDist({ outdir: out, log: () => undefined });
   }, 120_000);
   afterAll(() => rmSync(out, { recursive: true, force: true }));
@@ -21,6 +25,11 @@ describe('npm run build (scripts/build.mjs)', () => {
       expect(existsSync(join(out, 'types', f)), f).toBe(true);
     }
     expect(readFileSync(join(out, 'types/runtime/index.d.ts'), 'utf8')).toContain('createRalenti');
+  });
+
+  it('replaces its own earlier outputs and leaves other folders of dist/ alone', () => {
+    expect(existsSync(join(out, 'cli', 'ralenti.mjs'))).toBe(true);
+    expect(existsSync(join(out, 'chunk-STALE.js'))).toBe(false);
   });
 
   it('bundles the worklet self-contained (no imports) and registers the processor', () => {
