@@ -133,3 +133,26 @@ describe('Engine rendering', () => {
     expect(r1).toEqual(r2);
   });
 });
+
+describe('Engine snapshots', () => {
+  const listener = { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } };
+  const mon = () => [{ voice: 0, sourceId: 0, group: '', ratioCents: 0, dopplerCents: 0, radialSpeed: 0, distance: 0, cutoffHz: 0, gainDb: 0, virtual: false }];
+
+  it('glides a source linearly from the previous snapshot to the latest over their interval', () => {
+    const engine = engineAt({ maxBlockFrames: 480 });
+    const s = engine.addSound([sine(300, SR, 1)], SR);
+    engine.play(s, { loop: true, sourceId: 9 });
+    engine.pushSnapshot({ time: 10, listener, sources: [{ id: 9, position: { x: 0, y: 0, z: -10 } }] });
+    engine.pushSnapshot({ time: 10.1, listener, sources: [{ id: 9, position: { x: 0, y: 0, z: -20 } }] });
+    const m = mon();
+    const distances: number[] = [];
+    renderFor(engine, 0.12, 480, () => {
+      engine.monitor(m);
+      distances.push(m[0].distance);
+    });
+    // Blocks of 480 frames (10 ms), evaluated at their midpoints 5, 15, 25 … ms after the second snapshot arrived.
+    distances.shift();
+    const expected = [10.5, 11.5, 12.5, 13.5, 14.5, 15.5, 16.5, 17.5, 18.5, 19.5, 20];
+    distances.slice(0, expected.length).forEach((d, i) => expect(d).toBeCloseTo(expected[i], 9));
+  });
+});
