@@ -16,6 +16,8 @@ import {
 } from './tuning-limits';
 
 const MAX_ISSUES = 100;
+/** Optional top-level key naming the JSON Schema for editors; accepted and not kept. */
+const SCHEMA_KEY = '$schema';
 const MAX_DEPTH = 32;
 
 type Json = unknown;
@@ -233,7 +235,10 @@ function parseVersion(doc: Obj, issues: IssueSink): number | undefined {
 
 /** Validates a version-1 document object and builds the complete tuning (not yet frozen). */
 function parseVersion1(doc: Obj, issues: IssueSink): Tuning {
-  checkKeys(doc, topLevelKeys, '', issues);
+  checkKeys(doc, [SCHEMA_KEY, ...topLevelKeys], '', issues);
+  if (Object.prototype.hasOwnProperty.call(doc, SCHEMA_KEY) && typeof doc[SCHEMA_KEY] !== 'string') {
+    issues.add(SCHEMA_KEY, `expected the schema's URL or path as a string, got ${describe(doc[SCHEMA_KEY])}`);
+  }
   const out: Obj = { version: TUNING_VERSION };
   for (const name of Object.keys(sectionLimits) as SectionName[]) {
     out[name] = Object.prototype.hasOwnProperty.call(doc, name) ? parseSection(name, doc[name], issues) : defaultTuning[name];
@@ -253,7 +258,7 @@ function deepFreeze<T>(value: T): T {
 /**
  * Parses a tuning document (an object, or its JSON text) into a complete, deeply frozen Tuning.
  * Whole sections (and `groups`) may be omitted and take the built-in values; a present section must be
- * complete. Version 0 documents are migrated. Throws TuningError listing every problem with its JSON path.
+ * complete. A top-level "$schema" string (for editors) is accepted and dropped. Version 0 documents are migrated. Throws TuningError listing every problem with its JSON path.
  */
 export function parseTuning(json: unknown): Tuning {
   const issues: IssueSink = new Issues();

@@ -52,6 +52,11 @@ describe('parseTuning: valid documents', () => {
     expect(Object.is(t.master.ceilingDb, 0)).toBe(true);
   });
 
+  it('accepts and drops a top-level $schema string for editors', () => {
+    expect(parseTuning({ $schema: './tuning.schema.json', version: 1 })).toEqual(defaultTuning);
+    expect(issuesOf({ $schema: 5, version: 1 })[0].path).toBe('$schema');
+  });
+
   it('accepts a null speed of sound and an explicit one', () => {
     expect(parseTuning(withDoc((d) => (d.air.speedOfSound = 343.3))).air.speedOfSound).toBe(343.3);
   });
