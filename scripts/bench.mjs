@@ -4,6 +4,7 @@ import { build } from 'esbuild';
 import { readdirSync, mkdtempSync, rmSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { buildWasm } from './build-wasm.mjs';
 
 const args = process.argv.slice(2);
 const json = args.includes('--json');
@@ -16,6 +17,7 @@ const files = readdirSync(benchDir)
 // Bundles go under node_modules/ so that their external package imports resolve from the project.
 const out = mkdtempSync(join(resolve('node_modules'), '.ralenti-bench-'));
 const results = {};
+await buildWasm({ log: json ? () => {} : console.log });
 try {
   for (const file of files) {
     const name = file.replace(/\.bench\.ts$/, '');

@@ -6,6 +6,7 @@ import { existsSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { buildWorklet, workletSourceText } from './build-worklet.mjs';
+import { buildWasm } from './build-wasm.mjs';
 
 const repo = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 
@@ -29,6 +30,7 @@ function cleanOwnOutputs(outdir) {
 
 /** Builds dist/ under `outdir` (default <repo>/dist); resolves to the list of written files. */
 export async function buildDist({ outdir = join(repo, 'dist'), declarations = true, log = console.log } = {}) {
+  await buildWasm({ log });
   cleanOwnOutputs(outdir);
   const workletFile = await buildWorklet({ outdir, minify: false });
   const inlined = await workletSourceText({ minify: true });

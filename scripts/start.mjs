@@ -2,6 +2,7 @@
 // Options: --port N (default 5173, or the next free one), --no-watch, --outdir DIR (default build/).
 import { resolve } from 'node:path';
 import { buildScene, defaultOutdir } from './dev-build.mjs';
+import { buildWasm } from './build-wasm.mjs';
 import { serveStatic } from './static-server.mjs';
 
 function parseArgs(argv) {
@@ -22,6 +23,7 @@ function parseArgs(argv) {
 }
 
 const args = parseArgs(process.argv.slice(2));
+await buildWasm();
 const build = await buildScene({ outdir: args.outdir, watch: args.watch });
 const served = await serveStatic({ root: args.outdir, port: args.port, strictPort: args.strictPort });
 console.log(`Ralenti sample scene: ${served.url}`);

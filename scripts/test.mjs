@@ -1,10 +1,14 @@
 // Runs the type checks and every vitest suite, then prints the plain "N passed, N failed" line CI reads.
 import { spawnSync } from 'node:child_process';
 import { readFileSync, rmSync, existsSync } from 'node:fs';
+import { buildWasm } from './build-wasm.mjs';
 
 const extra = process.argv.slice(2);
 let failed = 0;
 let passed = 0;
+
+// The WebAssembly kernel's generated module must exist before type checks and suites import it.
+await buildWasm();
 
 function run(cmd, args) {
   const r = spawnSync(cmd, args, { stdio: 'inherit', shell: false });

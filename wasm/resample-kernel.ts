@@ -1,0 +1,163 @@
+// Polyphase windowed-sinc interpolation (J. O. Smith, "Digital Audio Resampling", CCRMA) as WebAssembly SIMD (f32x4)
+// dot products over contiguous residue rows; the TypeScript StreamReader in src/dsp is the reference it must match.
+//
+// AssemblyScript source (compiled by scripts/build-wasm.mjs, not by tsc). Memory is laid out by the JavaScript side
+// (src/dsp/wasm/wasm-kernel.ts); this module only reads and writes the regions it is handed.
+//
+// Table header at `table` (bytes): 0 i32 phases P · 4 i32 halfDense (= halfTaps·P) · 8 f64 stretchPerRatio ·
+// 16 i32 gridFloor (P+1 i32: largest grid stride ≤ m) · 20 i32 descByStride (P+1 i32: descriptor base per stride).
+// Descriptor of (stride s, sub-phase ci), 16 bytes: row0 ptr · row1 ptr · a1n (taps left of the centre) · count8.
+
+let lastPosition: f64 = 0;
+let lastStrideUsed: i32 = 0;
+
+/** First free byte after the module's own data (the JavaScript allocator starts here). */
+export function heapBase(): usize {
+  return __heap_base;
+}
+
+/** Read position after the last `render` call (source frames, not wrapped). */
+export function endPosition(): f64 {
+  return lastPosition;
+}
+
+/** Table stride used for the last output sample of the last `render` call. */
+export function endStride(): i32 {
+  return lastStrideUsed;
+}
+
+/** Floats of the row block of one stride: every dense entry once (total + 2) plus 8 zeros after each residue row. */
+export function rowFloats(total: i32, s: i32): i32 {
+  return total + 2 + 8 * s;
+}
+
+@inline function rowBase(rho: i32, s: i32, count: i32): i32 {
+  // Entries of residues below rho: floor(count/s) each, one more for the first (count mod s); plus 8 pad per row.
+  const q = count / s;
+  const rem = count % s;
+  return rho * (q + 8) + (rho < rem ? rho : rem);
+}
+
+/**
+ * Lays out the stretched kernel of stride `s`: residue row ρ holds dense[K − m·s] for m = 0… (K = largest k ≤ total + 1
+ * with k ≡ ρ mod s), so the taps of one output sample are contiguous and ascend with the source frame.
+ */
+export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc: usize, rows: usize): void {
+  const halfDense = load<i32>(table, 4);
+  const count = total + 2;
+  for (let rho = 0; rho < s; rho++) {
+    const nr = (count - 1 - rho) / s + 1;
+    const k = rho + (nr - 1) * s;
+    const base = rows + (<usize>rowBase(rho, s, count) << 2);
+    for (let m = 0; m < nr; m++) store<f32>(base + (<usize>m << 2), load<f32>(dense + (<usize>(k - m * s) << 2)));
+    for (let m = nr; m < nr + 8; m++) store<f32>(base + (<usize>m << 2), 0);
+  }
+  for (let ci = 0; ci < s; ci++) {
+    const a1n = (halfDense - 1 - ci) / s;
+    const cnt = a1n + (halfDense + ci) / s + 1;
+    const k0 = a1n * s + halfDense + ci;
+    const r0 = k0 % s;
+    const r1 = (k0 + 1) % s;
+    const kTop0 = r0 + ((count - 1 - r0) / s) * s;
+    const kTop1 = r1 + ((count - 1 - r1) / s) * s;
+    const d = desc + (<usize>ci << 4);
+    store<i32>(d, <i32>rows + ((rowBase(r0, s, count) + (kTop0 - k0) / s) << 2));
+    store<i32>(d, <i32>rows + ((rowBase(r1, s, count) + (kTop1 - k0 - 1) / s) << 2), 4);
+    store<i32>(d, a1n, 8);
+    store<i32>(d, (cnt + 7) & ~7, 12);
+  }
+  store<i32>(load<i32>(table, 20) + (s << 2), <i32>desc);
+}
+
+@inline function pairSums(a: v128, b: v128): v128 {
+  // lanes 0 and 2 of the result: the sums of a's and b's lanes.
+  const t = f32x4.add(v128.shuffle<f32>(a, b, 0, 1, 4, 5), v128.shuffle<f32>(a, b, 2, 3, 6, 7));
+  return f32x4.add(t, v128.shuffle<f32>(t, t, 1, 0, 3, 2));
+}
+
+/**
+ * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i], f64, when `ratios` ≠ 0),
+ * position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose float 0 is source frame
+ * `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance reaches `loopEnd`.
+ * Returns the samples written; `endPosition()` and `endStride()` give the state after them.
+ */
+export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: usize, out1: usize, pos: f64, iStart: i32, iEnd: i32, frames: f64, rs: f64, dr: f64, ratios: usize, loopEnd: f64): i32 {
+  const phases = load<i32>(table, 0);
+  const spr = load<f64>(table, 8);
+  const grid = <usize>load<i32>(table, 16);
+  const descs = <usize>load<i32>(table, 20);
+  const fp = <f64>phases;
+  let p = pos;
+  let st = phases;
+  let i = iStart;
+  while (i < iEnd) {
+    const r = ratios != 0 ? load<f64>(ratios + (<usize>i << 3)) : rs + (dr * <f64>i) / frames;
+    const sr = r * spr;
+    st = sr <= 1 ? phases : load<i32>(grid + (<usize>(<i32>Math.floor(fp / sr)) << 2));
+    const nf = Math.floor(p);
+    const n = <i32>nf;
+    const c = (p - <f64>n) * <f64>st;
+    const ci = <i32>c;
+    const f = c - <f64>ci;
+    const d = <usize>load<i32>(descs + (<usize>st << 2)) + (<usize>ci << 4);
+    const row0 = <usize>load<i32>(d);
+    const row1 = <usize>load<i32>(d, 4);
+    const a1n = load<i32>(d, 8);
+    const cnt = load<i32>(d, 12);
+    const xo = <usize>(n - a1n - spanBase) << 2;
+    const scale = <f64>st / fp;
+    const o = <usize>(i - iStart) << 2;
+    if (x1 == 0) {
+      const xp = x0 + xo;
+      let a0 = f32x4.splat(0);
+      let b0 = f32x4.splat(0);
+      let a1 = f32x4.splat(0);
+      let b1 = f32x4.splat(0);
+      for (let j = 0; j < cnt; j += 8) {
+        const jo = <usize>j << 2;
+        const s0 = v128.load(xp + jo);
+        const s1 = v128.load(xp + jo, 16);
+        a0 = f32x4.add(a0, f32x4.mul(v128.load(row0 + jo), s0));
+        b0 = f32x4.add(b0, f32x4.mul(v128.load(row1 + jo), s0));
+        a1 = f32x4.add(a1, f32x4.mul(v128.load(row0 + jo, 16), s1));
+        b1 = f32x4.add(b1, f32x4.mul(v128.load(row1 + jo, 16), s1));
+      }
+      const u = pairSums(f32x4.add(a0, a1), f32x4.add(b0, b1));
+      const ya = <f64>f32x4.extract_lane(u, 0);
+      const yb = <f64>f32x4.extract_lane(u, 2);
+      store<f32>(out0 + o, <f32>(scale * (ya + f * (yb - ya))));
+    } else {
+      const xp = x0 + xo;
+      const xq = x1 + xo;
+      let a0 = f32x4.splat(0);
+      let b0 = f32x4.splat(0);
+      let a1 = f32x4.splat(0);
+      let b1 = f32x4.splat(0);
+      for (let j = 0; j < cnt; j += 4) {
+        const jo = <usize>j << 2;
+        const h0 = v128.load(row0 + jo);
+        const h1 = v128.load(row1 + jo);
+        const s0 = v128.load(xp + jo);
+        const s1 = v128.load(xq + jo);
+        a0 = f32x4.add(a0, f32x4.mul(h0, s0));
+        b0 = f32x4.add(b0, f32x4.mul(h1, s0));
+        a1 = f32x4.add(a1, f32x4.mul(h0, s1));
+        b1 = f32x4.add(b1, f32x4.mul(h1, s1));
+      }
+      const u = pairSums(a0, b0);
+      const w = pairSums(a1, b1);
+      const ya = <f64>f32x4.extract_lane(u, 0);
+      const yb = <f64>f32x4.extract_lane(u, 2);
+      const za = <f64>f32x4.extract_lane(w, 0);
+      const zb = <f64>f32x4.extract_lane(w, 2);
+      store<f32>(out0 + o, <f32>(scale * (ya + f * (yb - ya))));
+      store<f32>(out1 + o, <f32>(scale * (za + f * (zb - za))));
+    }
+    p += r;
+    i++;
+    if (p >= loopEnd) break;
+  }
+  lastPosition = p;
+  lastStrideUsed = st;
+  return i - iStart;
+}
