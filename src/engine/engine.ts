@@ -354,9 +354,16 @@ export class Engine {
       if (victim === null || v.priority < victim.priority || (v.priority === victim.priority && (v.audibility < victim.audibility || (v.audibility === victim.audibility && v.sequence < victim.sequence)))) victim = v;
     }
     if (victim === null || victim.priority > priority || (victim.priority === priority && victim.audibility > audibility)) return false;
+    // A sounding victim needs a fade slot; with every fade slot busy, making room would cut a voice (a click): refuse.
+    if (victim.env !== 0 && !this.hasFreeSlot()) return false;
     this.stats.steals++;
     this.release(victim, engineDefaults.stealFadeSeconds);
     return true;
+  }
+
+  private hasFreeSlot(): boolean {
+    for (let i = 0; i < this.voices.length; i++) if (this.voices[i].state === VOICE_FREE) return true;
+    return false;
   }
 
   private release(v: Voice, fadeSeconds: Seconds): void {
