@@ -165,17 +165,19 @@ function parseMotion(r: Reader, v: unknown, path: string): MotionSpec {
   }
   r.known(o, path, ['type', 'interpolation', 'keys']);
   const interpolation = r.choice(o, 'interpolation', path, ['linear', 'cubic'] as const, 'linear');
-  const keys: { time: number; position: Triple }[] = [];
+  const keys: { time: number; position: Triple; cut?: boolean }[] = [];
   const kp = join(path, 'keys');
   if (!Array.isArray(o.keys) || o.keys.length === 0) r.fail(kp, `expected a non-empty array of { time, position }, got ${describe(o.keys)}`);
   else
     o.keys.forEach((k, i) => {
       const ko = r.object(k, join(kp, i));
       if (!ko) return;
-      r.known(ko, join(kp, i), ['time', 'position']);
+      r.known(ko, join(kp, i), ['time', 'position', 'cut']);
       const time = r.number(ko, 'time', join(kp, i), undefined, -1e6, 1e6);
       if (keys.length > 0 && time <= keys[keys.length - 1].time) r.fail(join(join(kp, i), 'time'), `key times must increase strictly (previous ${keys[keys.length - 1].time})`);
-      keys.push({ time, position: r.triple(ko, 'position', join(kp, i)) });
+      const position = r.triple(ko, 'position', join(kp, i));
+      if (r.bool(ko, 'cut', join(kp, i), false)) keys.push({ time, position, cut: true });
+      else keys.push({ time, position });
     });
   return { type, interpolation, keys };
 }

@@ -47,10 +47,22 @@ export function evaluateMotion(motion: MotionSpec, t: number, position: Vec3Like
         set(velocity, 0, 0, 0);
         return;
       }
+      // Segment [keys[i].time, keys[i + 1].time) holding t, by bisection (recorded paths hold thousands of keys).
       let i = 0;
-      while (i < n - 2 && t >= keys[i + 1].time) i++;
+      let hi = n - 1;
+      while (hi - i > 1) {
+        const mid = (i + hi) >> 1;
+        if (t >= keys[mid].time) i = mid;
+        else hi = mid;
+      }
       const k0 = keys[i];
       const k1 = keys[i + 1];
+      if (k1.cut === true) {
+        // A jump: hold the previous key, at rest, until the cut key's time.
+        set(position, k0.position[0], k0.position[1], k0.position[2]);
+        set(velocity, 0, 0, 0);
+        return;
+      }
       const h = k1.time - k0.time;
       const s = (t - k0.time) / h;
       const coords = ['x', 'y', 'z'] as const;
@@ -74,11 +86,11 @@ export function evaluateMotion(motion: MotionSpec, t: number, position: Vec3Like
   }
 }
 
-/** Catmull–Rom tangent (units per second) at key i, one-sided at the ends. */
-function tangent(keys: readonly { time: number; position: readonly number[] }[], i: number, c: number): number {
-  const a = keys[Math.max(0, i - 1)];
-  const b = keys[Math.min(keys.length - 1, i + 1)];
-  return (b.position[c] - a.position[c]) / (b.time - a.time);
+/** Catmull–Rom tangent (units per second) at key i, one-sided at the ends and beside a cut. */
+function tangent(keys: readonly { time: number; position: readonly number[]; cut?: boolean }[], i: number, c: number): number {
+  const a = keys[i > 0 && keys[i].cut !== true ? i - 1 : i];
+  const b = keys[i + 1 < keys.length && keys[i + 1].cut !== true ? i + 1 : i];
+  return a === b ? 0 : (b.position[c] - a.position[c]) / (b.time - a.time);
 }
 
 function set(v: Vec3Like, x: number, y: number, z: number): void {

@@ -38,7 +38,17 @@ export type MotionSpec =
       readonly plane: 'xz' | 'xy' | 'yz';
       readonly phaseDegrees: number;
     }
-  | { readonly type: 'keyframes'; readonly interpolation: KeyframeInterpolation; readonly keys: readonly { readonly time: number; readonly position: Triple }[] };
+  | { readonly type: 'keyframes'; readonly interpolation: KeyframeInterpolation; readonly keys: readonly MotionKey[] };
+
+/**
+ * One key of a keyframed path. `cut: true` marks a jump (a teleport): the path holds the previous key's position,
+ * at rest, until this key's time and then continues from here, with no interpolation across the jump.
+ */
+export interface MotionKey {
+  readonly time: number;
+  readonly position: Triple;
+  readonly cut?: boolean;
+}
 
 /** A positioned source. */
 export interface SourceSpec {
