@@ -76,7 +76,7 @@ export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc
 }
 
 /**
- * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i], f64, when `ratios` ≠ 0),
+ * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i − iStart], f64, when `ratios` ≠ 0),
  * position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose float 0 is source frame
  * `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance reaches `loopEnd`.
  * Returns the samples written; `endPosition()` and `endStride()` give the state after them.
@@ -91,7 +91,7 @@ export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: 
   let st = phases;
   let i = iStart;
   while (i < iEnd) {
-    const r = ratios != 0 ? load<f64>(ratios + (<usize>i << 3)) : rs + (dr * <f64>i) / frames;
+    const r = ratios != 0 ? load<f64>(ratios + (<usize>(i - iStart) << 3)) : rs + (dr * <f64>i) / frames;
     const sr = r * spr;
     st = sr <= 1 ? phases : load<i32>(grid + (<usize>(<i32>Math.floor(fp / sr)) << 2));
     const nf = Math.floor(p);

@@ -2,10 +2,12 @@
 export { besselI0, kaiserBeta, kaiserTaps, kaiserAt, kaiserWindow } from './kaiser';
 export { qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, ALIAS_STOP_FRACTION, tierDesigns, isQualityTier } from './quality-tiers';
 export type { QualityTierName, TierDesign } from './quality-tiers';
-export { KernelTable } from './kernel-table';
+export { KernelTable, STRETCH_GRID_STEP } from './kernel-table';
 export type { KernelTableOptions } from './kernel-table';
 export { StreamReader } from './stream-reader';
 export type { StreamReaderOptions, StreamSourceOptions } from './stream-reader';
+export { wasmSimdSupported, activeKernel } from './wasm/wasm-kernel';
+export type { KernelName, KernelPreference } from './wasm/wasm-kernel';
 export { resample } from './resample';
 export type { ResampleOptions } from './resample';
 export { DspArgumentError } from './dsp-argument-error';

@@ -1,7 +1,7 @@
 // Polyphase Kaiser-windowed sinc table for bandlimited interpolation (J. O. Smith, "Digital Audio Resampling",
 // CCRMA: one stored low-pass impulse response, linear interpolation between table entries; Kaiser 1974 design).
 import { besselI0, kaiserBeta, kaiserTaps } from './kaiser';
-import { ALIAS_STOP_FRACTION, tierDesigns, isQualityTier, type QualityTierName, type TierDesign } from './quality-tiers';
+import { ALIAS_STOP_FRACTION, MAX_RATIO, tierDesigns, isQualityTier, type QualityTierName, type TierDesign } from './quality-tiers';
 import { DspArgumentError } from './dsp-argument-error';
 
 /** Options of a custom kernel table (the tiers use `KernelTable.forTier`). */
@@ -15,6 +15,14 @@ export interface KernelTableOptions {
 }
 
 const cache = new Map<QualityTierName, KernelTable>();
+
+/**
+ * Geometric step (5 %) between the kernel widths used above ratio 1: the stretch takes one of a small set of table
+ * strides (about 27 per tier), each rounded down so the stretch is never below ratio · stretchPerRatio (the stopband
+ * edge never rises above its design point; the passband edge may sit up to 5 % lower). The WebAssembly kernel keeps
+ * one contiguous table per stride of this set.
+ */
+export const STRETCH_GRID_STEP = 1.05;
 
 /**
  * One windowed-sinc kernel sampled at `phases` points per input sample, stored twice:
@@ -42,6 +50,10 @@ export class KernelTable {
   readonly phaseMajor: Float32Array;
   /** Time-major samples h(k/phases − taps/2), k = 0…taps·phases, plus one trailing zero. */
   readonly dense: Float32Array;
+  /** The table strides used (descending from `phases`; stretch = phases / stride) for ratios up to MAX_RATIO. */
+  readonly strideGrid: Int32Array;
+  /** gridFloor[m] = the largest stride of `strideGrid` ≤ m (the smallest one below it), m = 0…phases. */
+  readonly gridFloor: Int32Array;
 
   /** Builds a table from a design (allocates; do this off the audio path). */
   constructor(options: KernelTableOptions) {
@@ -82,6 +94,18 @@ export class KernelTable {
     for (let p = 0; p <= l; p++) {
       for (let t = 0; t < n; t++) this.phaseMajor[p * n + t] = this.dense[(n - 1 - t) * l + p];
     }
+    const grid = [l];
+    const last = Math.max(1, Math.floor(l / (MAX_RATIO * this.stretchPerRatio)));
+    while (grid[grid.length - 1] > last) {
+      const s = grid[grid.length - 1];
+      grid.push(Math.max(last, Math.min(s - 1, Math.floor(s / STRETCH_GRID_STEP))));
+    }
+    this.strideGrid = Int32Array.from(grid);
+    this.gridFloor = new Int32Array(l + 1);
+    for (let m = 0, g = grid.length - 1; m <= l; m++) {
+      while (g > 0 && grid[g - 1] <= m) g--;
+      this.gridFloor[m] = grid[g];
+    }
   }
 
   /** The shared table of a quality tier, built on first use and cached for the process (or worklet scope). */
@@ -94,10 +118,10 @@ export class KernelTable {
     return t;
   }
 
-  /** Stride through `dense` at playback ratio `ratio`: phases when unstretched, else round(phases / stretch) (stretch = phases/stride, within ½ stride step of ratio · stretchPerRatio). */
+  /** Stride through `dense` at playback ratio `ratio`: phases when unstretched, else the largest grid stride ≤ phases / (ratio · stretchPerRatio). */
   strideFor(ratio: number): number {
     const s = ratio * this.stretchPerRatio;
-    return s <= 1 ? this.phases : Math.min(this.phases, Math.round(this.phases / s));
+    return s <= 1 ? this.phases : this.gridFloor[Math.floor(this.phases / s)];
   }
 
   /** Largest window (source frames) any ratio up to `maxRatio` needs. */

@@ -1,0 +1,177 @@
+// Host side of the WebAssembly SIMD resample kernel (wasm/resample-kernel.ts): feature detection, instantiation,
+// a bump allocator over the module's memory, and the per-stride contiguous tables of each KernelTable.
+import type { KernelTable } from '../kernel-table';
+import { MAX_RATIO } from '../quality-tiers';
+import { decodeBase64 } from './base64';
+import { kernelModuleBase64 } from './kernel-bytes.generated';
+
+/** Which inner loop a reader runs: the WebAssembly SIMD kernel or the TypeScript reference. */
+export type KernelName = 'wasm-simd' | 'typescript';
+/** A kernel request: 'auto' takes WebAssembly SIMD when the platform has it, else TypeScript. */
+export type KernelPreference = 'auto' | KernelName;
+
+/** The parts of the WebAssembly JavaScript API used here (an ES global in Node and AudioWorkletGlobalScope). */
+export interface WasmApi {
+  validate(bytes: Uint8Array): boolean;
+  Module: new (bytes: Uint8Array) => object;
+  Instance: new (module: object, imports: object) => { exports: object };
+}
+
+interface WasmMemory {
+  readonly buffer: ArrayBuffer;
+  grow(pages: number): number;
+}
+
+interface KernelExports {
+  memory: WasmMemory;
+  heapBase(): number;
+  endPosition(): number;
+  endStride(): number;
+  rowFloats(total: number, stride: number): number;
+  buildStride(table: number, dense: number, total: number, stride: number, desc: number, rows: number): void;
+  render(table: number, x0: number, x1: number, spanBase: number, out0: number, out1: number, pos: number, iStart: number, iEnd: number, frames: number, rs: number, dr: number, ratios: number, loopEnd: number): number;
+}
+
+/** Output samples per kernel call; the source span copied for one call covers at most RUN_FRAMES · MAX_RATIO frames plus the window. */
+export const RUN_FRAMES = 512;
+
+// (module (func (result v128) i32.const 0 i8x16.splat)): validates only where SIMD (WebAssembly 2.0 fixed-width SIMD) is on.
+const SIMD_PROBE = new Uint8Array([0, 97, 115, 109, 1, 0, 0, 0, 1, 5, 1, 96, 0, 1, 123, 3, 2, 1, 0, 10, 8, 1, 6, 0, 65, 0, 253, 15, 11]);
+
+/** The global WebAssembly API, or null where there is none. */
+export function globalWasmApi(): WasmApi | null {
+  const api = (globalThis as { WebAssembly?: WasmApi }).WebAssembly;
+  return api !== undefined && typeof api.validate === 'function' ? api : null;
+}
+
+/** True when `api` validates a module that uses v128 (fixed-width SIMD). */
+export function wasmSimdSupported(api: WasmApi | null = globalWasmApi()): boolean {
+  try {
+    return api !== null && api.validate(SIMD_PROBE);
+  } catch {
+    return false;
+  }
+}
+
+let shared: WasmKernel | null | undefined;
+
+/** The kernel an 'auto' request gets in this realm: 'wasm-simd' when the module loads, else 'typescript'. */
+export function activeKernel(): KernelName {
+  return WasmKernel.shared() === null ? 'typescript' : 'wasm-simd';
+}
+
+/** One instance of the kernel module with its memory: tables built per KernelTable, one scratch shared by all readers (single thread). */
+export class WasmKernel {
+  /** The module's exports. */
+  readonly exports: KernelExports;
+  /** Views of the module memory, renewed after every growth (read them afresh after `tablePointer`). */
+  f32!: Float32Array;
+  f64!: Float64Array;
+  i32!: Int32Array;
+  /** Byte offsets of the shared scratch: two source spans, two outputs, ratios (f64). */
+  span0 = 0;
+  span1 = 0;
+  out0 = 0;
+  out1 = 0;
+  ratios = 0;
+  /** Floats each span holds. */
+  spanFloats = 0;
+  private top: number;
+  private readonly tables = new Map<KernelTable, number>();
+
+  private constructor(exports: KernelExports) {
+    this.exports = exports;
+    this.top = align(exports.heapBase());
+    this.refresh();
+    this.out0 = this.alloc(RUN_FRAMES * 4);
+    this.out1 = this.alloc(RUN_FRAMES * 4);
+    this.ratios = this.alloc(RUN_FRAMES * 8);
+  }
+
+  /** The kernel of this realm (created on first call), or null when WebAssembly SIMD is not available or fails to load. */
+  static shared(): WasmKernel | null {
+    if (shared === undefined) shared = WasmKernel.create(globalWasmApi());
+    return shared;
+  }
+
+  /** A new kernel instance through `api`, or null when SIMD is unsupported or the module does not compile. */
+  static create(api: WasmApi | null): WasmKernel | null {
+    if (api === null || !wasmSimdSupported(api)) return null;
+    try {
+      const bytes = decodeBase64(kernelModuleBase64);
+      if (!api.validate(bytes)) return null;
+      const instance = new api.Instance(new api.Module(bytes), {});
+      return new WasmKernel(instance.exports as KernelExports);
+    } catch {
+      return null; // e.g. a host that forbids synchronous compilation
+    }
+  }
+
+  /** Byte offset of `table`'s header in module memory, building its per-stride rows on first use (allocates; not on the audio path). */
+  tablePointer(table: KernelTable): number {
+    const known = this.tables.get(table);
+    if (known !== undefined) return known;
+    const p = table.phases;
+    const total = table.taps * p;
+    const header = this.alloc(32 + 8 * (p + 1));
+    const dense = this.alloc(4 * table.dense.length);
+    let bytes = 0;
+    for (const s of table.strideGrid) bytes += align(16 * s) + align(4 * this.exports.rowFloats(total, s));
+    const block = this.alloc(bytes);
+    const h = header >> 2;
+    this.i32[h] = p;
+    this.i32[h + 1] = table.halfTaps * p;
+    this.f64[(header + 8) >> 3] = table.stretchPerRatio;
+    this.i32[h + 4] = header + 32;
+    this.i32[h + 5] = header + 32 + 4 * (p + 1);
+    this.i32.set(table.gridFloor, h + 8);
+    this.f32.set(table.dense, dense >> 2);
+    let at = block;
+    for (const s of table.strideGrid) {
+      const desc = at;
+      const rows = desc + align(16 * s);
+      at = rows + align(4 * this.exports.rowFloats(total, s));
+      this.exports.buildStride(header, dense, total, s, desc, rows);
+    }
+    const smallest = table.strideGrid[table.strideGrid.length - 1];
+    const need = spanFloatsFor(table.halfTaps * p, smallest);
+    if (need > this.spanFloats) {
+      this.span0 = this.alloc(4 * need);
+      this.span1 = this.alloc(4 * need);
+      this.spanFloats = need;
+    }
+    this.tables.set(table, header);
+    return header;
+  }
+
+  private alloc(bytes: number): number {
+    const at = this.top;
+    this.top = align(at + bytes);
+    const mem = this.exports.memory;
+    const have = mem.buffer.byteLength;
+    if (this.top > have) mem.grow(Math.ceil((this.top - have) / 65536));
+    this.refresh();
+    return at;
+  }
+
+  private refresh(): void {
+    const buf = this.exports.memory.buffer;
+    if (this.f32 !== undefined && this.f32.buffer === buf) return;
+    this.f32 = new Float32Array(buf);
+    this.f64 = new Float64Array(buf);
+    this.i32 = new Int32Array(buf);
+  }
+}
+
+/** Half-width in source frames (either side of the position) that a stride's window can reach, with one frame to spare. */
+export function halfWindowFor(halfDense: number, stride: number): number {
+  return Math.ceil(halfDense / stride) + 1;
+}
+
+function spanFloatsFor(halfDense: number, smallestStride: number): number {
+  return RUN_FRAMES * MAX_RATIO + 2 * halfWindowFor(halfDense, smallestStride) + 16;
+}
+
+function align(n: number): number {
+  return (n + 15) & ~15;
+}
