@@ -3,11 +3,14 @@ import { DspArgumentError } from './dsp-argument-error';
 import { KernelTable } from './kernel-table';
 import { MAX_RATIO, MIN_RATIO, defaultQualityTier, isQualityTier } from './quality-tiers';
 import { StreamReader } from './stream-reader';
+import type { KernelPreference } from './wasm/wasm-kernel';
 
 /** Options of `resample`. */
 export interface ResampleOptions {
   /** Quality tier name ('draft' | 'standard' | 'high'); default 'standard'. */
   quality?: string;
+  /** Inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (the reference) or 'wasm-simd' (throws where unavailable). */
+  kernel?: KernelPreference;
 }
 
 function checkRatio(r: number, argument: string): void {
@@ -21,10 +24,12 @@ function checkRatio(r: number, argument: string): void {
  * Replays `input` at playback ratio `ratio` (source frames per output frame, (0, 4]): a number gives
  * floor(input.length / ratio) output samples; a Float32Array gives one ratio per output sample. Throws DspArgumentError.
  */
-export function resample(input: Float32Array, ratio: number | Float32Array, options?: { quality?: string }): Float32Array {
+export function resample(input: Float32Array, ratio: number | Float32Array, options?: ResampleOptions): Float32Array {
   const q = options?.quality ?? defaultQualityTier;
   if (!isQualityTier(q)) throw new DspArgumentError('quality', `unknown quality tier ${JSON.stringify(q)} (expected draft, standard or high)`);
-  const reader = new StreamReader({ table: KernelTable.forTier(q), channels: 1 });
+  const kernel = options?.kernel ?? 'auto';
+  if (kernel !== 'auto' && kernel !== 'typescript' && kernel !== 'wasm-simd') throw new DspArgumentError('kernel', `unknown kernel ${JSON.stringify(kernel)} (expected auto, typescript or wasm-simd)`);
+  const reader = new StreamReader({ table: KernelTable.forTier(q), channels: 1, kernel });
   reader.setSource([input]);
   if (typeof ratio === 'number') {
     checkRatio(ratio, 'ratio');

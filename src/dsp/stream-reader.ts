@@ -2,6 +2,8 @@
 // a fractional read position, a per-sample playback ratio, a kernel stretched by the ratio above 1.
 import { KernelTable } from './kernel-table';
 import { MAX_RATIO, MIN_RATIO } from './quality-tiers';
+import { DspArgumentError } from './dsp-argument-error';
+import { RUN_FRAMES, WasmKernel, halfWindowFor, type KernelName, type KernelPreference } from './wasm/wasm-kernel';
 
 /** Construction options of a StreamReader. */
 export interface StreamReaderOptions {
@@ -9,6 +11,8 @@ export interface StreamReaderOptions {
   table: KernelTable;
   /** Most source channels this reader will be given (1…32). */
   channels: number;
+  /** Inner loop: 'auto' (default) takes the WebAssembly SIMD kernel where available; 'typescript' forces the reference; 'wasm-simd' throws DspArgumentError where it is unavailable. */
+  kernel?: KernelPreference;
 }
 
 /** How a source is read. */
@@ -44,6 +48,8 @@ export class StreamReader {
   private pos = 0;
   private lastRatio = 1;
   private lastStretch = 1;
+  private readonly wasm: WasmKernel | null;
+  private tablePtr = 0;
 
   /** Allocates scratch for `options.channels` channels and the table's widest (ratio 4) window. */
   constructor(options: StreamReaderOptions) {
@@ -52,6 +58,9 @@ export class StreamReader {
     this.sources = new Array<Float32Array>(channels).fill(EMPTY);
     this.scratch = [];
     this.weights = new Float64Array(0);
+    const kernel = options.kernel ?? 'auto';
+    this.wasm = kernel === 'typescript' ? null : WasmKernel.shared();
+    if (kernel === 'wasm-simd' && this.wasm === null) throw new DspArgumentError('kernel', 'WebAssembly SIMD is not available here');
     this.setTable(options.table);
     for (let c = 0; c < channels; c++) this.scratch.push(new Float32Array(this.weights.length));
   }
@@ -59,11 +68,17 @@ export class StreamReader {
   /** Switches the kernel table (tier); allocates only when the new table needs a wider scratch window. */
   setTable(table: KernelTable): void {
     this.table = table;
+    if (this.wasm !== null) this.tablePtr = this.wasm.tablePointer(table);
     const need = table.maxWindow(MAX_RATIO);
     if (this.weights.length < need) {
       this.weights = new Float64Array(need);
       for (let c = 0; c < this.scratch.length; c++) this.scratch[c] = new Float32Array(need);
     }
+  }
+
+  /** The inner loop this reader runs ('wasm-simd' or 'typescript'). */
+  get kernelName(): KernelName {
+    return this.wasm === null ? 'typescript' : 'wasm-simd';
   }
 
   /** The kernel table in use. */
@@ -142,6 +157,10 @@ export class StreamReader {
 
   /** The block loop: ratio per sample from (rs, dr) or from `ratios`; a mono in-range fast path, the general path otherwise. */
   private render(out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
+    if (this.wasm !== null) {
+      this.renderWasm(this.wasm, out, o, frames, rs, dr, ratios, ro);
+      return;
+    }
     const t = this.table;
     const taps = t.taps | 0;
     const phases = t.phases | 0;
@@ -225,6 +244,79 @@ export class StreamReader {
         lo = this.loopStart;
       }
       this.pos = p;
+    }
+  }
+
+  /**
+   * The same block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once, the
+   * source span the run can touch is copied (wrapped or silent as `mapIndex` says) into module memory, and the kernel
+   * runs until the run ends or a loop wraps (the wrap and the next span are handled here, as the reference does).
+   */
+  private renderWasm(k: WasmKernel, out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
+    const t = this.table;
+    const chans = this.channelsInUse;
+    const halfDense = t.halfTaps * t.phases;
+    const loopEnd = this.loop ? this.loopEnd : Infinity;
+    const reMax = rs + dr > rs ? rs + dr : rs;
+    for (let run = 0; run < frames; ) {
+      const runEnd = frames - run < RUN_FRAMES ? frames : run + RUN_FRAMES;
+      let rmax = reMax;
+      if (ratios !== null) {
+        const f64 = k.f64;
+        const rb = k.ratios >> 3;
+        rmax = 0;
+        for (let i = run; i < runEnd; i++) {
+          const r = this.sanitize(ratios[ro + i]);
+          f64[rb + i - run] = r;
+          if (r > rmax) rmax = r;
+        }
+      }
+      const halfW = halfWindowFor(halfDense, t.strideFor(rmax));
+      for (let i = run; i < runEnd; ) {
+        const lower = Math.floor(this.pos) - halfW;
+        const upper = Math.floor(this.pos + (runEnd - i) * rmax + 1) + halfW + 10;
+        const dp = ratios === null ? 0 : k.ratios + 8 * (i - run);
+        let done = 0;
+        for (let c = 0; c < chans; c += 2) {
+          const pair = c + 1 < chans;
+          this.copySpan(k.f32, k.span0 >> 2, this.sources[c], lower, upper);
+          if (pair) this.copySpan(k.f32, k.span1 >> 2, this.sources[c + 1], lower, upper);
+          done = k.exports.render(this.tablePtr, k.span0, pair ? k.span1 : 0, lower, k.out0, k.out1, this.pos, i, runEnd, frames, rs, dr, dp, loopEnd);
+          const f32 = k.f32;
+          const y0 = out[c];
+          const b0 = (k.out0 >> 2) - (o + i);
+          for (let j = o + i; j < o + i + done; j++) y0[j] = f32[b0 + j];
+          if (pair) {
+            const y1 = out[c + 1];
+            const b1 = (k.out1 >> 2) - (o + i);
+            for (let j = o + i; j < o + i + done; j++) y1[j] = f32[b1 + j];
+          }
+        }
+        let p = k.exports.endPosition();
+        if (this.loop && p >= this.loopEnd) {
+          while (p >= this.loopEnd) p -= this.loopLength;
+          this.wrapped = true;
+        }
+        this.pos = p;
+        this.lastStretch = t.phases / k.exports.endStride();
+        i += done;
+      }
+      run = runEnd;
+    }
+  }
+
+  /** Copies source frames lower…upper−1 of `x` into f32[at…], mapped (wrapped, or 0 outside) as the reference reads them. */
+  private copySpan(f32: Float32Array, at: number, x: Float32Array, lower: number, upper: number): void {
+    const hi = this.loop ? this.loopEnd : this.length;
+    const lo = this.loop && this.wrapped ? this.loopStart : 0;
+    const d = at - lower;
+    if (lower >= lo && upper <= hi) {
+      for (let m = lower; m < upper; m++) f32[d + m] = x[m];
+      return;
+    }
+    for (let m = lower; m < upper; m++) {
+      const mi = this.mapIndex(m);
+      f32[d + m] = mi < 0 ? 0 : x[mi];
     }
   }
 
