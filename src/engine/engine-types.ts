@@ -2,6 +2,7 @@
 import type { Decibels, Hz, Seconds } from '../units';
 import type { Easing, QualityTierName, Tuning } from '../tuning/tuning-types';
 import type { ListenerState, SourceState } from '../dilation/snapshot-types';
+import type { KernelName, KernelPreference } from '../dsp';
 
 /** Engine construction options; capacities are fixed here for the engine's lifetime. */
 export interface EngineOptions {
@@ -17,6 +18,8 @@ export interface EngineOptions {
   maxBlockFrames?: number;
   /** A parsed tuning; defaults to the built-in tuning. */
   tuning?: Tuning;
+  /** Resampler inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (reference), 'wasm-simd' (throws where unavailable). */
+  kernel?: KernelPreference;
 }
 
 /** Options of one play request. */
@@ -65,6 +68,8 @@ export interface EngineStats {
   errors: number;
   /** Resampler tier in use. */
   tier: QualityTierName;
+  /** Resampler inner loop in use: 'wasm-simd' or 'typescript' (the fallback where WebAssembly SIMD is unavailable). */
+  kernel: KernelName;
 }
 
 /** Per-voice state for monitors (editor), filled without allocation into caller-owned objects. */

@@ -78,7 +78,7 @@ export class Engine {
     this.master = this.masterPrev = Math.pow(10, t.master.gainDb / 20);
     const table = KernelTable.forTier(t.resampler.tier);
     for (let i = 0; i < 2 * this.capacity; i++) {
-      const v = new Voice(table, sr, this.smoothing(t));
+      const v = new Voice(table, sr, this.smoothing(t), options.kernel ?? 'auto');
       v.index = i;
       this.voices.push(v);
     }
@@ -90,7 +90,7 @@ export class Engine {
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null };
     this.stats = {
       activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
-      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: t.resampler.tier,
+      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: t.resampler.tier, kernel: this.voices[0].reader.kernelName,
     };
   }
 

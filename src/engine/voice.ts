@@ -1,6 +1,6 @@
 // One voice of the engine: smoothing of its targets (ratio in cents, cutoff in log frequency, gains in dB,
 // setTargetAtTime-style one-pole smoothing), band-limited resampling, dilation-tone low-pass and the mix.
-import { BiquadLowpass, OnePoleSmoother, KernelTable, StreamReader, MAX_RATIO, MIN_RATIO } from '../dsp';
+import { BiquadLowpass, OnePoleSmoother, KernelTable, StreamReader, MAX_RATIO, MIN_RATIO, type KernelPreference } from '../dsp';
 import { createVoiceTargets, type VoiceTargets } from '../dilation';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { Hz, Seconds } from '../units';
@@ -88,10 +88,10 @@ export class Voice {
   private readonly sampleRate: Hz;
 
   /** Allocates the voice's resampler (2 channels), filter and smoothers. */
-  constructor(table: KernelTable, sampleRate: Hz, smoothing: { ratio: Seconds; doppler: Seconds; cutoff: Seconds; gain: Seconds }) {
+  constructor(table: KernelTable, sampleRate: Hz, smoothing: { ratio: Seconds; doppler: Seconds; cutoff: Seconds; gain: Seconds }, kernel: KernelPreference = 'auto') {
     this.sampleRate = sampleRate;
     this.freezeStep = 1 / (FREEZE_FADE_SECONDS * sampleRate);
-    this.reader = new StreamReader({ table, channels: 2 });
+    this.reader = new StreamReader({ table, channels: 2, kernel });
     this.ratioCents = new OnePoleSmoother({ timeConstantSeconds: smoothing.ratio, sampleRate });
     this.dopplerCents = new OnePoleSmoother({ timeConstantSeconds: smoothing.doppler, sampleRate });
     this.cutoffLog2 = new OnePoleSmoother({ timeConstantSeconds: smoothing.cutoff, sampleRate, initial: OPEN_LOG2 });
