@@ -4,3 +4,5 @@ export type { ExpectedPitchInput, ExpectedTargets, MotionAt, MotionSample } from
 export { renderReportSvg, renderReportHtml, reportSvgDefaults, escapeXml, niceTicks, pathData } from './report-svg';
 export type { CheckReport, ReportSource, ReportSvgOptions } from './report-svg';
 export { writeReport } from './write-report';
+export { checkScene, scriptTimeScale, CHECK_EDGE_SECONDS, CHECK_WINDOW_SECONDS } from './check-scene';
+export type { CheckableScene, CheckSceneOptions, CheckSceneResult } from './check-scene';
