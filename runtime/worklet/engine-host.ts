@@ -41,6 +41,8 @@ export class EngineHost {
   private readonly statsIntervalFrames: number;
   private framesSinceStats = 0;
   private reportedErrors = 0;
+  /** engine.stats.errors already accounted for (the engine catches its own render exceptions and counts them). */
+  private engineErrors = 0;
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
@@ -75,6 +77,7 @@ export class EngineHost {
     try {
       this.apply(command);
       this.faulted = false;
+      this.engineErrors = this.engine.stats.errors;
     } catch (err) {
       this.fail('command', `${command.type}: ${errorMessage(err)}`);
     }
@@ -156,6 +159,13 @@ export class EngineHost {
       } else {
         this.renderVia(output, frames);
       }
+      if (this.engine.stats.errors !== this.engineErrors) {
+        // The engine caught an exception inside render (that block is already silent): report it and stay silent.
+        this.engineErrors = this.engine.stats.errors;
+        silence(output);
+        this.faulted = true;
+        this.report('process', `the engine failed while rendering (${this.engineErrors} so far); silent until the next command`);
+      }
     } catch (err) {
       silence(output);
       this.faulted = true;
@@ -211,10 +221,15 @@ export class EngineHost {
 
   private fail(where: string, message: string): void {
     this.errors += 1;
+    this.report(where, message);
+  }
+
+  /** Posts an error already counted (in `errors` or the engine's stats). */
+  private report(where: string, message: string): void {
     // At most a few messages per stats interval; the count in the stats carries the rest.
     if (this.reportedErrors < MAX_ERROR_REPORTS) {
       this.reportedErrors += 1;
-      this.post({ type: 'error', where, message, count: this.errors });
+      this.post({ type: 'error', where, message, count: this.errors + this.engine.stats.errors });
     }
   }
 }
