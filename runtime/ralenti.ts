@@ -129,8 +129,10 @@ export class Ralenti {
     let channels: Float32Array[];
     let sampleRate: number;
     if (isAudioBuffer(data)) {
+      if (!(data.numberOfChannels >= 1 && data.numberOfChannels <= 2))
+        throw new RalentiOptionError('load.channels', `expected a mono or stereo AudioBuffer, got ${data.numberOfChannels} channels (downmix it first)`);
       channels = [];
-      for (let c = 0; c < Math.min(2, data.numberOfChannels); c++) channels.push(data.getChannelData(c).slice());
+      for (let c = 0; c < data.numberOfChannels; c++) channels.push(data.getChannelData(c).slice());
       sampleRate = data.sampleRate;
     } else {
       if (!Array.isArray(data.channels) || data.channels.length < 1 || data.channels.length > 2)
