@@ -1,6 +1,7 @@
-// Resampler benchmark: the agreed quality metric and streaming throughput per tier, beside libsamplerate-js
-// "sinc fastest" / "sinc medium" and linear interpolation, all measured in the same run.
-import { KernelTable, StreamReader, qualityTiers, resample, type QualityTierName } from '../src/dsp';
+// Resampler benchmark: the agreed quality metric and streaming throughput per tier, through the TypeScript reference
+// kernel and the WebAssembly SIMD kernel ('-wasm' rows), beside libsamplerate-js "sinc fastest" / "sinc medium" and
+// linear interpolation, all measured in the same run.
+import { KernelTable, StreamReader, qualityTiers, resample, type KernelName, type QualityTierName } from '../src/dsp';
 import { measure, metricMultisine, passbandInput, inputFramesNeeded, rejectionDb, passbandGainDb } from '../test/dsp/resampler-metric';
 import { SINC_FASTEST, SINC_MEDIUM, libsamplerate, libsamplerateResample, linearInto, linearResample } from './resampler-reference';
 
@@ -10,8 +11,15 @@ const ROUNDS = 3;
 const SLICE_MS = 300;
 const BLOCK = 128;
 
-type Name = QualityTierName | 'sinc-fastest' | 'sinc-medium' | 'linear';
-const names: Name[] = [...qualityTiers, 'sinc-fastest', 'sinc-medium', 'linear'];
+type WasmTier = `${QualityTierName}-wasm`;
+type Name = QualityTierName | WasmTier | 'sinc-fastest' | 'sinc-medium' | 'linear';
+const wasmTiers: WasmTier[] = qualityTiers.map((t) => `${t}-wasm` as WasmTier);
+/** Each of our rows: tier and kernel. */
+const ours: { name: QualityTierName | WasmTier; tier: QualityTierName; kernel: KernelName }[] = [
+  ...qualityTiers.map((tier) => ({ name: tier, tier, kernel: 'typescript' as KernelName })),
+  ...qualityTiers.map((tier) => ({ name: `${tier}-wasm` as WasmTier, tier, kernel: 'wasm-simd' as KernelName })),
+];
+const names: Name[] = [...qualityTiers, ...wasmTiers, 'sinc-fastest', 'sinc-medium', 'linear'];
 
 interface Speed {
   msps: number;
@@ -40,11 +48,11 @@ function timeIt(step: () => number): number {
 async function speedProducers(ratio: number): Promise<Record<Name, () => number>> {
   const src = metricMultisine();
   const out: Record<string, () => number> = {};
-  for (const tier of qualityTiers) {
-    const reader = new StreamReader({ table: KernelTable.forTier(tier), channels: 1 });
+  for (const { name, tier, kernel } of ours) {
+    const reader = new StreamReader({ table: KernelTable.forTier(tier), channels: 1, kernel });
     reader.setSource([src], { loop: true });
     const block = [new Float32Array(BLOCK)];
-    out[tier] = () => {
+    out[name] = () => {
       for (let b = 0; b < 32; b++) reader.read(block, 0, BLOCK, ratio, ratio);
       return 32 * BLOCK;
     };
@@ -83,7 +91,7 @@ export async function run(options: { json: boolean }): Promise<object> {
   const quality: Record<string, Record<string, { rejectionDb: number; passbandDb: number }>> = {};
   for (const name of names) quality[name] = {};
   for (const r of QUALITY_RATIOS) {
-    for (const tier of qualityTiers) quality[tier][r] = measure((x, rr) => resample(x, rr, { quality: tier }), r);
+    for (const { name, tier, kernel } of ours) quality[name][r] = measure((x, rr) => resample(x, rr, { quality: tier, kernel }), r);
     quality.linear[r] = measure(linearResample, r);
     for (const [name, type] of [['sinc-fastest', SINC_FASTEST], ['sinc-medium', SINC_MEDIUM]] as const) {
       const ms = await libsamplerateResample(metricMultisine().subarray(0, inputFramesNeeded(r) + 4096), r, type);
@@ -98,19 +106,20 @@ export async function run(options: { json: boolean }): Promise<object> {
   }
   // Throughput, interleaved rounds so that machine load hits every resampler alike.
   const samples: Record<string, Record<string, number[]>> = {};
-  const ratioSamples: Record<string, Record<string, { fastest: number[]; medium: number[] }>> = {};
+  const ratioSamples: Record<string, Record<string, { fastest: number[]; medium: number[]; typescript: number[] }>> = {};
   for (const name of names) samples[name] = {};
   for (const r of SPEED_RATIOS) {
     const prod = await speedProducers(r);
     for (const name of names) samples[name][r] = [];
-    for (const tier of qualityTiers) (ratioSamples[tier] ??= {})[r] = { fastest: [], medium: [] };
+    for (const { name } of ours) (ratioSamples[name] ??= {})[r] = { fastest: [], medium: [], typescript: [] };
     for (let round = 0; round < ROUNDS; round++) {
       const got: Record<string, number> = {};
       for (const name of names) got[name] = timeIt(prod[name]);
       for (const name of names) samples[name][r].push(got[name]);
-      for (const tier of qualityTiers) {
-        ratioSamples[tier][r].fastest.push(got[tier] / got['sinc-fastest']);
-        ratioSamples[tier][r].medium.push(got[tier] / got['sinc-medium']);
+      for (const { name, tier } of ours) {
+        ratioSamples[name][r].fastest.push(got[name] / got['sinc-fastest']);
+        ratioSamples[name][r].medium.push(got[name] / got['sinc-medium']);
+        ratioSamples[name][r].typescript.push(got[name] / got[tier]);
       }
     }
   }
@@ -127,19 +136,22 @@ export async function run(options: { json: boolean }): Promise<object> {
     }
     log(name.padEnd(14) + cells.join(''));
   }
-  const ratios: Record<string, Record<string, { vsFastest: number; vsFastestRange: [number, number]; vsMedium: number; vsMediumRange: [number, number] }>> = {};
-  log('\nSame-run throughput ratios, ours / theirs (median [min–max] over rounds)');
-  for (const tier of qualityTiers) {
-    ratios[tier] = {};
+  type Ratio = { vsFastest: number; vsFastestRange: [number, number]; vsMedium: number; vsMediumRange: [number, number]; vsTypescript: number; vsTypescriptRange: [number, number] };
+  const ratios: Record<string, Record<string, Ratio>> = {};
+  const range = (v: number[]): [number, number] => [Math.min(...v), Math.max(...v)];
+  const fmt = (v: number, rg: [number, number]) => `×${v.toFixed(2)} [${rg.map((q) => q.toFixed(2)).join('–')}]`;
+  log('\nSame-run throughput ratios, ours / theirs (median [min–max] over rounds); -wasm rows also ÷ the TypeScript kernel');
+  for (const { name } of ours) {
+    ratios[name] = {};
     const cells: string[] = [];
     for (const r of SPEED_RATIOS) {
-      const f = ratioSamples[tier][r].fastest;
-      const m = ratioSamples[tier][r].medium;
-      ratios[tier][r] = { vsFastest: median(f), vsFastestRange: [Math.min(...f), Math.max(...f)], vsMedium: median(m), vsMediumRange: [Math.min(...m), Math.max(...m)] };
-      const x = ratios[tier][r];
-      cells.push(`r=${r}: ×${x.vsFastest.toFixed(2)} fastest [${x.vsFastestRange.map((q) => q.toFixed(2)).join('–')}], ×${x.vsMedium.toFixed(2)} medium [${x.vsMediumRange.map((q) => q.toFixed(2)).join('–')}]`.padEnd(66));
+      const { fastest: f, medium: m, typescript: t } = ratioSamples[name][r];
+      ratios[name][r] = { vsFastest: median(f), vsFastestRange: range(f), vsMedium: median(m), vsMediumRange: range(m), vsTypescript: median(t), vsTypescriptRange: range(t) };
+      const x = ratios[name][r];
+      const vsTs = name.endsWith('-wasm') ? `, ${fmt(x.vsTypescript, x.vsTypescriptRange)} ts` : '';
+      cells.push(`r=${r}: ${fmt(x.vsFastest, x.vsFastestRange)} fastest, ${fmt(x.vsMedium, x.vsMediumRange)} medium${vsTs}`.padEnd(90));
     }
-    log(tier.padEnd(14) + cells.join(''));
+    log(name.padEnd(14) + cells.join(''));
   }
   const tables = Object.fromEntries(qualityTiers.map((t) => [t, { taps: KernelTable.forTier(t).taps, phases: KernelTable.forTier(t).phases }]));
   return { quality, speed, ratios, tables };

@@ -8,22 +8,9 @@
 // 16 i32 gridFloor (P+1 i32: largest grid stride ≤ m) · 20 i32 descByStride (P+1 i32: descriptor base per stride).
 // Descriptor of (stride s, sub-phase ci), 16 bytes: row0 ptr · row1 ptr · a1n (taps left of the centre) · count8.
 
-let lastPosition: f64 = 0;
-let lastStrideUsed: i32 = 0;
-
 /** First free byte after the module's own data (the JavaScript allocator starts here). */
 export function heapBase(): usize {
   return __heap_base;
-}
-
-/** Read position after the last `render` call (source frames, not wrapped). */
-export function endPosition(): f64 {
-  return lastPosition;
-}
-
-/** Table stride used for the last output sample of the last `render` call. */
-export function endStride(): i32 {
-  return lastStrideUsed;
 }
 
 /** Floats of the row block of one stride: every dense entry once (total + 2) plus 8 zeros after each residue row. */
@@ -79,9 +66,9 @@ export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc
  * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i − iStart], f64, when `ratios` ≠ 0),
  * position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose float 0 is source frame
  * `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance reaches `loopEnd`.
- * Returns the samples written; `endPosition()` and `endStride()` give the state after them.
+ * Returns the samples written; the position after them (f64) and the last stride (i32) go to state and state + 8.
  */
-export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: usize, out1: usize, pos: f64, iStart: i32, iEnd: i32, frames: f64, rs: f64, dr: f64, ratios: usize, loopEnd: f64): i32 {
+export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: usize, out1: usize, pos: f64, iStart: i32, iEnd: i32, frames: f64, rs: f64, dr: f64, ratios: usize, loopEnd: f64, state: usize): i32 {
   const phases = load<i32>(table, 0);
   const spr = load<f64>(table, 8);
   const grid = <usize>load<i32>(table, 16);
@@ -89,9 +76,11 @@ export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: 
   const fp = <f64>phases;
   let p = pos;
   let st = phases;
+  let scale: f64 = 1; // st / phases, recomputed only when the stride changes
+  let scaleFor = phases;
   let i = iStart;
   while (i < iEnd) {
-    const r = ratios != 0 ? load<f64>(ratios + (<usize>(i - iStart) << 3)) : rs + (dr * <f64>i) / frames;
+    const r = ratios != 0 ? load<f64>(ratios + (<usize>(i - iStart) << 3)) : dr == 0 ? rs : rs + (dr * <f64>i) / frames;
     const sr = r * spr;
     st = sr <= 1 ? phases : load<i32>(grid + (<usize>(<i32>Math.floor(fp / sr)) << 2));
     const nf = Math.floor(p);
@@ -105,7 +94,10 @@ export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: 
     const a1n = load<i32>(d, 8);
     const cnt = load<i32>(d, 12);
     const xo = <usize>(n - a1n - spanBase) << 2;
-    const scale = <f64>st / fp;
+    if (st != scaleFor) {
+      scale = <f64>st / fp;
+      scaleFor = st;
+    }
     const o = <usize>(i - iStart) << 2;
     if (x1 == 0) {
       const xp = x0 + xo;
@@ -157,7 +149,7 @@ export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: 
     i++;
     if (p >= loopEnd) break;
   }
-  lastPosition = p;
-  lastStrideUsed = st;
+  store<f64>(state, p);
+  store<i32>(state, st, 8);
   return i - iStart;
 }

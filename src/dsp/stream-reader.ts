@@ -281,7 +281,7 @@ export class StreamReader {
           const pair = c + 1 < chans;
           this.copySpan(k.f32, k.span0 >> 2, this.sources[c], lower, upper);
           if (pair) this.copySpan(k.f32, k.span1 >> 2, this.sources[c + 1], lower, upper);
-          done = k.exports.render(this.tablePtr, k.span0, pair ? k.span1 : 0, lower, k.out0, k.out1, this.pos, i, runEnd, frames, rs, dr, dp, loopEnd);
+          done = k.exports.render(this.tablePtr, k.span0, pair ? k.span1 : 0, lower, k.out0, k.out1, this.pos, i, runEnd, frames, rs, dr, dp, loopEnd, k.state);
           const f32 = k.f32;
           const y0 = out[c];
           const b0 = (k.out0 >> 2) - (o + i);
@@ -292,13 +292,13 @@ export class StreamReader {
             for (let j = o + i; j < o + i + done; j++) y1[j] = f32[b1 + j];
           }
         }
-        let p = k.exports.endPosition();
+        let p = k.f64[k.state >> 3];
         if (this.loop && p >= this.loopEnd) {
           while (p >= this.loopEnd) p -= this.loopLength;
           this.wrapped = true;
         }
         this.pos = p;
-        this.lastStretch = t.phases / k.exports.endStride();
+        this.lastStretch = t.phases / k.i32[(k.state >> 2) + 2];
         i += done;
       }
       run = runEnd;

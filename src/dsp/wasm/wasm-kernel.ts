@@ -25,11 +25,9 @@ interface WasmMemory {
 interface KernelExports {
   memory: WasmMemory;
   heapBase(): number;
-  endPosition(): number;
-  endStride(): number;
   rowFloats(total: number, stride: number): number;
   buildStride(table: number, dense: number, total: number, stride: number, desc: number, rows: number): void;
-  render(table: number, x0: number, x1: number, spanBase: number, out0: number, out1: number, pos: number, iStart: number, iEnd: number, frames: number, rs: number, dr: number, ratios: number, loopEnd: number): number;
+  render(table: number, x0: number, x1: number, spanBase: number, out0: number, out1: number, pos: number, iStart: number, iEnd: number, frames: number, rs: number, dr: number, ratios: number, loopEnd: number, state: number): number;
 }
 
 /** Output samples per kernel call; the source span copied for one call covers at most RUN_FRAMES · MAX_RATIO frames plus the window. */
@@ -74,6 +72,8 @@ export class WasmKernel {
   out0 = 0;
   out1 = 0;
   ratios = 0;
+  /** Byte offset of the render state written by the kernel: end position (f64), then the last stride (i32). */
+  state = 0;
   /** Floats each span holds. */
   spanFloats = 0;
   private top: number;
@@ -86,6 +86,7 @@ export class WasmKernel {
     this.out0 = this.alloc(RUN_FRAMES * 4);
     this.out1 = this.alloc(RUN_FRAMES * 4);
     this.ratios = this.alloc(RUN_FRAMES * 8);
+    this.state = this.alloc(16);
   }
 
   /** The kernel of this realm (created on first call), or null when WebAssembly SIMD is not available or fails to load. */
