@@ -1,6 +1,6 @@
 // A small static file server for the build folder: 127.0.0.1 only, no path outside the root.
 import { createServer } from 'node:http';
-import { readFile, stat } from 'node:fs/promises';
+import { readFile, realpath, stat } from 'node:fs/promises';
 import { extname, resolve, sep } from 'node:path';
 
 /** Content types of the files the build writes. */
@@ -61,6 +61,10 @@ export async function serveStatic({ root, port = 5173, strictPort = false, log =
     try {
       const info = await stat(file);
       if (!info.isFile()) return send(res, 404, 'not found');
+      // A symbolic link inside the folder may point out of it: serve only files whose real path is inside.
+      const realRoot = await realpath(root);
+      const real = await realpath(file);
+      if (!real.startsWith(realRoot + sep)) return send(res, 404, 'not found');
       const body = await readFile(file);
       res.writeHead(200, {
         'content-type': contentTypes[extname(file)] ?? 'application/octet-stream',
