@@ -95,5 +95,8 @@ export function renderScene(script: SceneScript | unknown, options: RenderSceneO
 
 function isParsed(x: unknown): x is SceneScript {
   const o = x as SceneScript;
-  return o !== null && typeof o === 'object' && o.version === 1 && Array.isArray(o.voices) && o.listener !== undefined && typeof o.listener.motion === 'object' && typeof o.velocities === 'string';
+  if (o === null || typeof o !== 'object' || o.version !== 1 || !Array.isArray(o.voices) || o.listener === undefined || typeof o.listener.motion !== 'object' || typeof o.velocities !== 'string') return false;
+  // A raw document may spell out every field too; only a parsed one holds its tuning as null, { inline } or { path }.
+  const t = o.tuning as unknown;
+  return t === null || (typeof t === 'object' && Object.keys(t as object).length === 1 && ('inline' in (t as object) || 'path' in (t as object)));
 }
