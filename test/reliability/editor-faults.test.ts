@@ -75,9 +75,9 @@ describe('editor under malformed tuning files', () => {
 
   it('shows audio-thread errors reported by the worklet in the readouts', () => {
     vi.useFakeTimers(); // the readouts are tweakpane monitors, refreshed by its interval ticker
-    const { panel, node, container } = setup();
+    const { panel, node, container, ralenti } = setup();
     node.deliver({ type: 'error', where: 'process', message: 'the engine failed while rendering', count: 3 });
-    node.deliver({ type: 'stats', contextTime: 1, stats: { ...emptyStats(), errors: 3 }, voices: [] });
+    node.deliver({ type: 'stats', contextTime: 1, stats: { ...ralenti.stats, errors: 3 }, voices: [] });
     panel.update();
     vi.advanceTimersByTime(1000);
     const text = [...container.querySelectorAll('input')].map((e) => (e as HTMLInputElement).value);
@@ -89,7 +89,3 @@ describe('editor under malformed tuning files', () => {
     vi.useRealTimers();
   });
 });
-
-function emptyStats() {
-  return { activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, limiterDb: 0, timeScale: 1, time: 1, errors: 0, tier: 'standard' as const };
-}
