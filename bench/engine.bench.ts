@@ -1,9 +1,11 @@
-// Engine benchmark: render cost of 32…256 stereo voices as a fraction of real time, against a plain copy-mix
-// of the same voices measured in the same run, and the latency from a time-scale change to the output.
+// Engine benchmark: render cost of 32…256 stereo voices as a fraction of real time, on the TypeScript and the
+// WebAssembly SIMD resampler kernels, against a plain copy-mix and the resampler alone measured in the same run
+// (engine − resampler alone = the share of render time spent outside the kernel), and the latency from a
+// time-scale change to the output.
 import { Engine } from '../src/engine';
 import { parseTuning, defaultTuning, serializeTuning } from '../src/tuning';
 import { KernelTable, StreamReader } from '../src/dsp';
-import type { QualityTierName } from '../src/index';
+import type { KernelName, QualityTierName } from '../src/index';
 
 const SR = 48000;
 const BLOCK = 128;
@@ -20,11 +22,11 @@ function tone(hz: number, seconds: number, channels: number): Float32Array[] {
 }
 
 /** Engine with `voices` stereo voices: half loops, half one-shots restarted when they end, half of them in a toned group. */
-function scene(voices: number, tier: QualityTierName): { engine: Engine; tick: (block: number) => void } {
+function scene(voices: number, tier: QualityTierName, kernel: KernelName): { engine: Engine; tick: (block: number) => void } {
   const json = JSON.parse(serializeTuning(defaultTuning));
   json.resampler.tier = tier;
   const tuning = parseTuning(json);
-  const engine = new Engine({ sampleRate: SR, capacity: voices, tuning });
+  const engine = new Engine({ sampleRate: SR, capacity: voices, tuning, kernel });
   const sounds = [0, 1, 2, 3].map((k) => engine.addSound(tone(110 * (k + 1), 1.5 + k * 0.5, 2), SR));
   const handles: number[] = [];
   const start = (i: number) =>
@@ -73,11 +75,11 @@ function copyMix(voices: number, blocks: number): number {
 }
 
 /** The resampler alone: one StreamReader per voice reading stereo at the same ratios as the engine's voices. */
-function readersOnly(voices: number, blocks: number, tier: QualityTierName): number {
+function readersOnly(voices: number, blocks: number, tier: QualityTierName, kernel: KernelName): number {
   const src = tone(220, 2, 2);
   const out = [new Float32Array(BLOCK), new Float32Array(BLOCK)];
   const readers = Array.from({ length: voices }, () => {
-    const r = new StreamReader({ table: KernelTable.forTier(tier), channels: 2 });
+    const r = new StreamReader({ table: KernelTable.forTier(tier), channels: 2, kernel });
     r.setSource(src, { loop: true });
     return r;
   });
@@ -90,8 +92,8 @@ function readersOnly(voices: number, blocks: number, tier: QualityTierName): num
   return performance.now() - t0;
 }
 
-function timeEngine(voices: number, seconds: number, tier: QualityTierName = 'standard'): { ms: number; active: number } {
-  const { engine, tick } = scene(voices, tier);
+function timeEngine(voices: number, seconds: number, tier: QualityTierName, kernel: KernelName): { ms: number; active: number } {
+  const { engine, tick } = scene(voices, tier, kernel);
   const l = new Float32Array(BLOCK);
   const r = new Float32Array(BLOCK);
   const blocks = Math.round((seconds * SR) / BLOCK);
@@ -133,23 +135,32 @@ function latency(): { firstChangeMs: number; ninetyPercentMs: number; quantumMs:
 /** Runs the engine benchmark; prints a table unless `json`. */
 export async function run(options: { json: boolean }): Promise<object> {
   const seconds = 0.75;
-  const rows: { voices: number; tier: QualityTierName; engineRealTime: number; copyMixRealTime: number; resamplerRealTime: number; ratio: number; active: number }[] = [];
+  type Row = { voices: number; tier: QualityTierName; kernel: KernelName; engineRealTime: number; copyMixRealTime: number; resamplerRealTime: number; ratio: number; outsideKernel: number; active: number };
+  const rows: Row[] = [];
   const cases: [number, QualityTierName][] = [[32, 'standard'], [64, 'standard'], [128, 'standard'], [256, 'standard'], [128, 'draft']];
   for (const [voices, tier] of cases) {
-    const blocks = Math.round((seconds * SR) / BLOCK);
-    const { ms, active } = timeEngine(voices, seconds, tier);
-    const ref = copyMix(voices, blocks);
-    const res = readersOnly(voices, blocks, tier);
-    rows.push({ voices, tier, engineRealTime: ms / 1000 / seconds, copyMixRealTime: ref / 1000 / seconds, resamplerRealTime: res / 1000 / seconds, ratio: ms / ref, active });
+    // The two kernels back to back, so that machine load hits both alike.
+    for (const kernel of ['typescript', 'wasm-simd'] as const) {
+      const blocks = Math.round((seconds * SR) / BLOCK);
+      const { ms, active } = timeEngine(voices, seconds, tier, kernel);
+      const ref = copyMix(voices, blocks);
+      const res = readersOnly(voices, blocks, tier, kernel);
+      rows.push({ voices, tier, kernel, engineRealTime: ms / 1000 / seconds, copyMixRealTime: ref / 1000 / seconds, resamplerRealTime: res / 1000 / seconds, ratio: ms / ref, outsideKernel: Math.max(0, 1 - res / ms), active });
+    }
   }
   const lat = latency();
   if (!options.json) {
-    console.log('voices | tier | engine (share of one core, real time) | copy-mix reference | engine ÷ copy-mix | resampler alone | engine ÷ resampler | active');
+    console.log('voices | tier | kernel | engine (share of one core, real time) | copy-mix reference | engine ÷ copy-mix | resampler alone | engine ÷ resampler | outside the kernel | active');
     for (const r of rows)
       console.log(
-        `${r.voices} | ${r.tier} | ${(r.engineRealTime * 100).toFixed(1)} % | ${(r.copyMixRealTime * 100).toFixed(2)} % | ${r.ratio.toFixed(1)}× | ${(r.resamplerRealTime * 100).toFixed(1)} % | ${(r.engineRealTime / r.resamplerRealTime).toFixed(2)}× | ${r.active}`,
+        `${r.voices} | ${r.tier} | ${r.kernel} | ${(r.engineRealTime * 100).toFixed(1)} % | ${(r.copyMixRealTime * 100).toFixed(2)} % | ${r.ratio.toFixed(1)}× | ${(r.resamplerRealTime * 100).toFixed(1)} % | ${(r.engineRealTime / r.resamplerRealTime).toFixed(2)}× | ${(r.outsideKernel * 100).toFixed(0)} % | ${r.active}`,
       );
-    console.log(`goal: 128 voices (standard) within 50 % of one core → ${rows[2].engineRealTime <= 0.5 ? 'met' : 'not met'}`);
+    const at = (voices: number, kernel: KernelName) => rows.find((r) => r.voices === voices && r.tier === 'standard' && r.kernel === kernel) as Row;
+    for (const voices of [32, 64, 128, 256]) {
+      console.log(`${voices} voices: engine speed-up wasm-simd ÷ typescript ${(at(voices, 'typescript').engineRealTime / at(voices, 'wasm-simd').engineRealTime).toFixed(2)}×`);
+    }
+    console.log(`goal: 128 voices (standard, typescript) within 50 % of one core → ${at(128, 'typescript').engineRealTime <= 0.5 ? 'met' : 'not met'}`);
+    console.log(`goal: 256 voices (standard, wasm-simd) within 50 % of one core → ${at(256, 'wasm-simd').engineRealTime <= 0.5 ? 'met' : 'not met'}`);
     console.log(
       `time-scale step → first output change ${lat.firstChangeMs.toFixed(2)} ms, 90 % of the pitch change ${lat.ninetyPercentMs.toFixed(2)} ms` +
         ` (bound: one quantum ${lat.quantumMs.toFixed(2)} ms + smoothing τ ${lat.smoothingMs.toFixed(0)} ms × ln 10 = ${(lat.quantumMs + lat.smoothingMs * Math.LN10).toFixed(2)} ms)`,

@@ -1,15 +1,15 @@
 // Node side of the parity suite: the same scene driven straight into src/engine, block by block (128 frames),
 // mirroring what the runtime sends (context time = engine time, the node being created at time 0).
 import { Engine } from '../../src/engine/index';
-import type { SourceState, Vec3Like } from '../../src/index';
+import type { KernelPreference, SourceState, Vec3Like } from '../../src/index';
 import { defaultTuning } from '../../src/tuning/index';
 import { PARITY_RATE, QUANTUM, type ParityScene } from './parity-scene';
 
 const v = (p: Vec3Like): Vec3Like => ({ x: p.x, y: p.y, z: p.z });
 
 /** Renders `scene` with the engine in Node; returns the stereo output. */
-export function renderInNode(scene: ParityScene): { left: Float32Array; right: Float32Array } {
-  const engine = new Engine({ sampleRate: PARITY_RATE, capacity: 64, maxSounds: 256, tuning: defaultTuning });
+export function renderInNode(scene: ParityScene, kernel: KernelPreference = 'auto'): { left: Float32Array; right: Float32Array; kernel: string } {
+  const engine = new Engine({ sampleRate: PARITY_RATE, capacity: 64, maxSounds: 256, tuning: defaultTuning, kernel });
   const sounds = scene.sounds.map((s) => engine.addSound(s.channels.map((c) => c.slice()), s.sampleRate));
   const voices = new Map<number, number>();
   const sources: SourceState[] = Array.from({ length: scene.sources }, (_, i) => ({ id: i + 1, position: { x: 0, y: 0, z: 0 } }));
@@ -48,5 +48,5 @@ export function renderInNode(scene: ParityScene): { left: Float32Array; right: F
     const n = Math.min(QUANTUM, scene.frames - f);
     engine.render([left.subarray(f, f + n), right.subarray(f, f + n)], n);
   }
-  return { left, right };
+  return { left, right, kernel: engine.stats.kernel };
 }

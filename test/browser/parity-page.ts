@@ -18,6 +18,8 @@ export interface PageRender {
   right: number[];
   errors: string[];
   renderMs: number;
+  /** Resampler kernel the worklet's engine reported ('wasm-simd' where WebAssembly SIMD loads in the audio thread). */
+  kernel: string;
 }
 
 /** Renders with the processor from `workletUrl`, or from the inlined entry's Blob URL when it is null. */
@@ -65,8 +67,10 @@ async function renderScene(scene: WireScene, workletUrl: string | null): Promise
   const buffer = await ctx.startRendering();
   const renderMs = performance.now() - t0;
   await Promise.all(pending);
+  await r.flush();
+  const kernel = String(r.stats.kernel);
   r.dispose();
-  return { left: Array.from(buffer.getChannelData(0)), right: Array.from(buffer.getChannelData(1)), errors, renderMs };
+  return { left: Array.from(buffer.getChannelData(0)), right: Array.from(buffer.getChannelData(1)), errors, renderMs, kernel };
 }
 
 /** Sends a malformed command straight to the port mid-render; returns the reported errors, the last stats and the peak after it. */

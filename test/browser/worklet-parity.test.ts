@@ -57,6 +57,9 @@ describe.skipIf(mode === 'skip')('worklet in Chromium (OfflineAudioContext)', ()
     const browser = await render('/ralenti-processor.js');
     const node = renderInNode(scene);
     expect(browser.errors).toEqual([]);
+    // Both sides run the WebAssembly SIMD resampler kernel (the module is inlined in the worklet bundle).
+    expect(browser.kernel).toBe('wasm-simd');
+    expect(node.kernel).toBe('wasm-simd');
     expect(browser.left).toHaveLength(scene.frames);
     // The comparison means something only if the scene is audible in both channels.
     expect(peak(node.left)).toBeGreaterThan(0.05);
@@ -69,6 +72,14 @@ describe.skipIf(mode === 'skip')('worklet in Chromium (OfflineAudioContext)', ()
     // The check can fail: the same scene with its steps one render quantum late is far outside the tolerance.
     const late = renderInNode({ ...scene, steps: scene.steps.map((st) => ({ ...st, frame: st.frame + 128 })) });
     expect(Math.max(maxDiff(browser.left, late.left), maxDiff(browser.right, late.right))).toBeGreaterThan(1000 * TOLERANCE);
+  });
+
+  it('renders the parity scene on the wasm kernel in Chromium within 1e-5 of the TypeScript reference kernel in Node', async () => {
+    const browser = await render('/ralenti-processor.js');
+    const reference = renderInNode(scene, 'typescript');
+    expect([browser.kernel, reference.kernel]).toEqual(['wasm-simd', 'typescript']);
+    expect(maxDiff(browser.left, reference.left)).toBeLessThanOrEqual(TOLERANCE);
+    expect(maxDiff(browser.right, reference.right)).toBeLessThanOrEqual(TOLERANCE);
   });
 
   it('renders the same samples with the inlined Blob-URL worklet as with the worklet file', async () => {
