@@ -8,6 +8,7 @@ import { elementBladeBundle } from './element-blade';
 import { BuiltinRatePlayer, type ComparisonSource } from './builtin-rate-player';
 import { addCompareSection, FileSection } from './sections/file-section';
 import { ReadoutsSection, type NamedVoice } from './sections/readouts-section';
+import { RecordingSection, type RecordingControls } from './sections/recording-section';
 import { addDopplerSection, addGroupsSection, addListeningSection, addTimeFlowSection, type TunableContext } from './sections/tunable-sections';
 import { autosave, downloadTuning, editableCopy, readTuningText, type MutableTuning, type TuningProblem } from './tuning-store';
 import { editorCss } from './editor-style';
@@ -31,6 +32,8 @@ export interface EditorHost {
   restoreProblems?: readonly TuningProblem[];
   /** Whether the running tuning came from the autosave. */
   restored?: boolean;
+  /** Fly-through recording and replay; the "Fly-through recording" section appears when given. */
+  recording?: RecordingControls;
 }
 
 /** The editor panel; call update() once per animation frame. */
@@ -51,6 +54,7 @@ export class EditorPanel {
   private curves: CurveBladeApi[] = [];
   private readouts!: ReadoutsSection;
   private file!: FileSection;
+  private recording: RecordingSection | null = null;
   private saveTimer: ReturnType<typeof setTimeout> | null = null;
 
   constructor(host: EditorHost) {
@@ -98,6 +102,7 @@ export class EditorPanel {
     for (const c of this.curves) if (c.marker !== s) c.marker = s;
     this.readouts.update(ralenti.stats, ralenti.voices, ralenti.capacity);
     this.builtin.update(ralenti.voices, ralenti.tuning);
+    this.recording?.update();
   }
 
   /** Removes the panel. */
@@ -105,6 +110,7 @@ export class EditorPanel {
     this.builtin.stop();
     this.pane.dispose();
     this.file.input.remove();
+    this.recording?.dispose();
   }
 
   private build(): void {
@@ -132,6 +138,7 @@ export class EditorPanel {
       autosave: this.autosaveState,
       autosaveChanged: () => this.save(),
     });
+    this.recording = this.host.recording ? new RecordingSection(this.pane, this.doc, this.host.recording) : null;
     addListeningSection(this.pane, ctx, this.volume, () => this.applyVolume());
     this.pane.element.classList.add('rl-pane');
   }
@@ -143,6 +150,7 @@ export class EditorPanel {
       // Not connected.
     }
     this.file.input.remove();
+    this.recording?.dispose();
     this.pane.dispose();
     this.build();
   }

@@ -5,3 +5,4 @@ export type { NamedVoice } from './sections/readouts-section';
 export { AUTOSAVE_KEY, DOWNLOAD_NAME, loadAutosaved, autosave, clearAutosave, readTuningText, type TuningProblem } from './tuning-store';
 export { CurveBladePlugin, curveBladeBundle, CurveBladeApi } from './curve-blade';
 export { ElementBladePlugin, elementBladeBundle } from './element-blade';
+export { RecordingSection, type RecordingControls, type RecordingState, type ScriptProblem } from './sections/recording-section';

@@ -1,9 +1,11 @@
 // Sample scene entry: the night test range, fly camera, slow motion on Space, and the tuning panel once audio starts.
 import * as THREE from 'three';
 import { serializeTuning, type RalentiSource } from '../runtime';
+import type { Vec3Like } from '../src/units';
 import { EditorPanel } from '../editor';
 import { dronePosition, GENERATOR_POSITION, kartHeading, kartPosition, orbPosition } from './actor-paths';
 import { FlyCamera, isTyping } from './fly-camera';
+import { FlyThrough } from './fly-through';
 import { showHelp } from './help-text';
 import { startSceneAudio, type SceneAudio } from './scene-audio';
 import { installSceneHandle, type SceneState } from './scene-handle';
@@ -20,6 +22,7 @@ fly.setEnabled(false);
 showHelp(document.getElementById('help') as HTMLElement);
 
 let panel: EditorPanel | null = null;
+let flyThrough: FlyThrough | null = null;
 const state: SceneState = {
   audio: null,
   error: null,
@@ -28,6 +31,7 @@ const state: SceneState = {
   tuningJson: () => (state.audio ? serializeTuning(state.audio.ralenti.tuning) : null),
   lastLoadProblems: () => (panel ? [...panel.lastProblems] : []),
   playbackPath: () => panel?.path.mode ?? 'engine',
+  flyThrough: () => (flyThrough ? { ...flyThrough.summary, listener: { x: range.camera.position.x, y: range.camera.position.y, z: range.camera.position.z } } : null),
 };
 installSceneHandle(state);
 
@@ -44,8 +48,16 @@ function applySlowMotion(): void {
   const want = held || toggled;
   if (want === state.slowMotion) return;
   state.slowMotion = want;
-  const a = state.audio;
-  if (a) a.ralenti.setTimeScale(want ? a.ralenti.tuning.timeFlow.slowMotionScale : 1);
+  if (state.audio && !flyThrough?.replay) requestTimeScale(want ? state.audio.ralenti.tuning.timeFlow.slowMotionScale : 1);
+}
+
+/** Asks the runtime for a time scale with the tuning's ramp and easing, and tells the fly-through recorder. */
+function requestTimeScale(target: number): void {
+  const r = state.audio!.ralenti;
+  const tf = r.tuning.timeFlow;
+  const ramp = target < r.timeScale ? tf.rampInSeconds : tf.rampOutSeconds;
+  r.setTimeScale(target, { ramp, easing: tf.easing });
+  flyThrough?.timeScaleRequested(target, ramp, tf.easing);
 }
 window.addEventListener('keydown', (e) => {
   if (isTyping(e)) return;
@@ -87,7 +99,19 @@ overlay.started.then(async (volumeDb) => {
     overlay.fail(`Audio could not start: ${state.error}`);
     return;
   }
+  const orientationNow = { forward: new THREE.Vector3(), up: new THREE.Vector3() };
+  flyThrough = new FlyThrough({
+    ralenti: audio.ralenti,
+    doc: document,
+    wantedTimeScale: () => (state.slowMotion ? audio.ralenti.tuning.timeFlow.slowMotionScale : 1),
+    orientation: () => {
+      range.camera.getWorldDirection(orientationNow.forward);
+      orientationNow.up.set(0, 1, 0).applyQuaternion(range.camera.quaternion);
+      return orientationNow;
+    },
+  });
   panel = new EditorPanel({
+    recording: flyThrough,
     ralenti: audio.ralenti,
     container: panelHost,
     master: audio.master,
@@ -100,7 +124,7 @@ overlay.started.then(async (volumeDb) => {
   });
   audio.ralenti.onError((e) => console.warn(`ralenti audio thread: ${e.message}`));
   state.audio = audio;
-  if (state.slowMotion) audio.ralenti.setTimeScale(audio.ralenti.tuning.timeFlow.slowMotionScale);
+  if (state.slowMotion) requestTimeScale(audio.ralenti.tuning.timeFlow.slowMotionScale);
   overlay.hide();
   fly.setEnabled(true);
 });
@@ -109,14 +133,46 @@ overlay.started.then(async (volumeDb) => {
 let nextClick = 2;
 const forward = new THREE.Vector3();
 const up = new THREE.Vector3();
-const tmp = { x: 0, y: 0, z: 0 };
-const listenerState = { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } };
+const listenerState: { position: Vec3Like; forward: Vec3Like; up: Vec3Like; velocity?: Vec3Like } = { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } };
 let wall = 0;
 let lastMs = performance.now();
 
-function setBody(obj: THREE.Object3D, source: RalentiSource | undefined, p: { x: number; y: number; z: number }): void {
-  obj.position.set(p.x, p.y, p.z);
-  source?.setPosition(p.x, p.y, p.z);
+const bodyAt = { drone: { x: 0, y: 0, z: 0 }, kart: { x: 0, y: 0, z: 0 }, orb: { x: 0, y: 0, z: 0 }, generator: { x: GENERATOR_POSITION.x, y: 1, z: GENERATOR_POSITION.z } };
+type BodyName = keyof typeof bodyAt;
+const bodyNames = Object.keys(bodyAt) as BodyName[];
+let replaying = false;
+
+/** Places the moving bodies and their sources for this frame: from game time, or from the replayed script. */
+function placeBodies(a: SceneAudio | null, t: number): void {
+  const replay = flyThrough?.replay ?? null;
+  if (replay) {
+    if (!replaying) fly.setEnabled(false);
+    replaying = true;
+    const l = replay.listener;
+    range.camera.position.set(l.position.x, l.position.y, l.position.z);
+    const [fx, fy, fz] = replay.script.listener.forward;
+    range.camera.lookAt(l.position.x + fx, l.position.y + fy, l.position.z + fz);
+  } else if (replaying) {
+    // Replay over: the player steers again from where the recording left the camera; velocities are estimated again.
+    replaying = false;
+    fly.lookAt(range.camera.position.x + forward.x, range.camera.position.y + forward.y, range.camera.position.z + forward.z);
+    fly.setEnabled(true);
+    for (const name of bodyNames) a?.sources[name].clearVelocity();
+  }
+  dronePosition(t, bodyAt.drone);
+  kartPosition(t, bodyAt.kart);
+  orbPosition(t, range.camera.position, bodyAt.orb);
+  for (const name of bodyNames) {
+    const p = bodyAt[name];
+    const r = replay?.source(name);
+    if (r) (p.x = r.position.x), (p.y = r.position.y), (p.z = r.position.z);
+    const body = name === 'generator' ? null : range[name].object;
+    body?.position.set(p.x, p.y, p.z);
+    const source = a?.sources[name];
+    source?.setPosition(p.x, p.y, p.z);
+    // A replay sends the path's exact velocities, as the offline renderer does for the same script.
+    if (r && source) source.setVelocity(r.velocity.x, r.velocity.y, r.velocity.z);
+  }
 }
 
 function frame(ms: number): void {
@@ -128,12 +184,10 @@ function frame(ms: number): void {
   state.gameTime += dt * s;
   const t = state.gameTime;
   fly.update(dt);
-
-  setBody(range.drone.object, a?.sources.drone, dronePosition(t, tmp));
-  setBody(range.kart.object, a?.sources.kart, kartPosition(t, tmp));
+  flyThrough?.advance();
+  placeBodies(a, t);
+  flyThrough?.record(range.camera.position, bodyAt);
   range.kart.object.rotation.y = kartHeading(t);
-  setBody(range.orb.object, a?.sources.orb, orbPosition(t, range.camera.position, tmp));
-  a?.sources.generator.setPosition(GENERATOR_POSITION.x, 1, GENERATOR_POSITION.z);
   range.animate(t);
 
   if (a) {
@@ -143,6 +197,9 @@ function frame(ms: number): void {
     listenerState.position.x = p.x, listenerState.position.y = p.y, listenerState.position.z = p.z;
     listenerState.forward.x = forward.x, listenerState.forward.y = forward.y, listenerState.forward.z = forward.z;
     listenerState.up.x = up.x, listenerState.up.y = up.y, listenerState.up.z = up.z;
+    const replay = flyThrough?.replay;
+    if (replay) listenerState.velocity = replay.listener.velocity;
+    else delete listenerState.velocity;
     a.ralenti.setListener(listenerState);
     a.ralenti.update();
     if (wall >= nextClick) {

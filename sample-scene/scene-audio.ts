@@ -1,6 +1,7 @@
 // Audio of the sample scene: the runtime on a fresh AudioContext, the master chain, the generated sounds and voices.
 import { createRalenti, type Ralenti, type RalentiSource, type RalentiVoice, type Sound } from '../runtime';
 import { loadAutosaved, type ComparisonSource, type NamedVoice, type TuningProblem } from '../editor';
+import { SCENE_VOICES } from './script-sounds';
 import { clickSound, droneSound, generatorSound, kartSound, musicLoopSound, orbSound, type GeneratedSound } from './procedural-sounds';
 
 /** Everything the scene plays, with handles for the loop and the panel. */
@@ -66,10 +67,11 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
     comparison.push({ name, buffer: toBuffer(context, sound), voiceId: voice.id, positional: source !== null, pan: () => panOf(source) });
     return voice;
   };
-  start('drone', '#7fd6ff', made.drone, 'vehicles', 1.6, sources.drone);
-  start('kart', '#ff9a55', made.kart, 'vehicles', 1.4, sources.kart);
-  start('orb', '#6dffc0', made.orb, 'effects', 0.35, sources.orb);
-  start('generator', '#ffe34a', made.generator, 'ambience', 0.9, sources.generator);
+  const v = SCENE_VOICES;
+  start('drone', '#7fd6ff', made.drone, v.drone.group, v.drone.gain, sources.drone);
+  start('kart', '#ff9a55', made.kart, v.kart.group, v.kart.gain, sources.kart);
+  start('orb', '#6dffc0', made.orb, v.orb.group, v.orb.gain, sources.orb);
+  start('generator', '#ffe34a', made.generator, v.generator.group, v.generator.gain, sources.generator);
   start('music', '#c58cff', made.music, 'music', 0.16, null);
   const click = ralenti.load(made.click);
   return {

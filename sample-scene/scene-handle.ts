@@ -2,6 +2,7 @@
 import type { EngineStats, VoiceMonitor } from '../src';
 import type { TuningProblem } from '../editor';
 import type { SceneAudio } from './scene-audio';
+import type { FlyThroughSummary } from './fly-through';
 
 /** One voice as the handle reports it: the runtime's monitor plus the scene's name and the ratio. */
 export interface InspectedVoice extends VoiceMonitor {
@@ -23,6 +24,8 @@ export interface RalentiSceneHandle {
   readonly tuningJson: string | null;
   readonly lastLoadProblems: TuningProblem[];
   readonly playbackPath: 'engine' | 'builtin';
+  /** Fly-through recording and replay state plus the camera position (m), or null before audio starts. */
+  readonly flyThrough: (FlyThroughSummary & { listener: { x: number; y: number; z: number } }) | null;
 }
 
 /** Live state the handle reads from. */
@@ -34,6 +37,7 @@ export interface SceneState {
   tuningJson: () => string | null;
   lastLoadProblems: () => TuningProblem[];
   playbackPath: () => 'engine' | 'builtin';
+  flyThrough: () => (FlyThroughSummary & { listener: { x: number; y: number; z: number } }) | null;
 }
 
 /** Installs window.ralentiScene over `state`. */
@@ -70,6 +74,9 @@ export function installSceneHandle(state: SceneState): RalentiSceneHandle {
     },
     get playbackPath() {
       return state.playbackPath();
+    },
+    get flyThrough() {
+      return state.flyThrough();
     },
   });
   Object.defineProperty(window, 'ralentiScene', { value: handle, writable: false, configurable: false, enumerable: true });
