@@ -18,7 +18,7 @@ export class ReadoutsSection {
   private readonly tableBody: HTMLTableSectionElement;
   private readonly graph: RatioGraph;
   private readonly voices: readonly NamedVoice[];
-  private readonly load = { active: 0, virtual: 0, steals: 0, clamps: 0, peakDb: -120, limiterDb: 0, poolUse: 0, errors: 0, tier: '' };
+  private readonly load = { active: 0, virtual: 0, steals: 0, clamps: 0, peakDb: -120, limiterDb: 0, poolUse: 0, errors: 0, tier: '', resampler: '' };
   private readonly cents: number[];
   private frame = 0;
 
@@ -45,6 +45,7 @@ export class ReadoutsSection {
     this.folder.addBinding(l, 'poolUse', { label: 'voice pool use %', readonly: true, view: 'graph', min: 0, max: 100 });
     this.folder.addBinding(l, 'steals', { label: 'steals · clamps', readonly: true, format: () => `${l.steals} · ${l.clamps}` });
     this.folder.addBinding(l, 'errors', { label: 'audio errors', readonly: true, format: fmt0 });
+    this.folder.addBinding(l, 'resampler', { label: 'resampler', readonly: true });
   }
 
   /** Updates readouts from the runtime's latest stats and monitors; `capacity` is the engine's voice pool size. */
@@ -57,6 +58,9 @@ export class ReadoutsSection {
     l.peakDb = stats.peakOut > 0 ? 20 * Math.log10(stats.peakOut) : -120;
     l.limiterDb = stats.limiterDb;
     l.errors = stats.errors;
+    l.tier = stats.tier;
+    // Tier and inner loop ('wasm-simd', or 'typescript' where the audio thread has no WebAssembly SIMD).
+    l.resampler = `${stats.tier} · ${stats.kernel ?? '…'}`;
     l.poolUse = (100 * (stats.activeVoices + stats.virtualVoices)) / Math.max(1, capacity);
     this.voices.forEach((v, i) => {
       const m = monitors.find((x) => x.voice === v.voiceId);
