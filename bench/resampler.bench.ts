@@ -7,7 +7,7 @@ import { SINC_FASTEST, SINC_MEDIUM, libsamplerate, libsamplerateResample, linear
 
 const QUALITY_RATIOS = [0.5, 0.8, 1.25, 1.7, 2.5];
 const SPEED_RATIOS = [0.5, 1.7];
-const ROUNDS = 3;
+const ROUNDS = 5;
 const SLICE_MS = 300;
 const BLOCK = 128;
 

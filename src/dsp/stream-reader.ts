@@ -282,15 +282,8 @@ export class StreamReader {
           this.copySpan(k.f32, k.span0 >> 2, this.sources[c], lower, upper);
           if (pair) this.copySpan(k.f32, k.span1 >> 2, this.sources[c + 1], lower, upper);
           done = k.exports.render(this.tablePtr, k.span0, pair ? k.span1 : 0, lower, k.out0, k.out1, this.pos, i, runEnd, frames, rs, dr, dp, loopEnd, k.state);
-          const f32 = k.f32;
-          const y0 = out[c];
-          const b0 = (k.out0 >> 2) - (o + i);
-          for (let j = o + i; j < o + i + done; j++) y0[j] = f32[b0 + j];
-          if (pair) {
-            const y1 = out[c + 1];
-            const b1 = (k.out1 >> 2) - (o + i);
-            for (let j = o + i; j < o + i + done; j++) y1[j] = f32[b1 + j];
-          }
+          out[c].set(k.outViews0[done], o + i);
+          if (pair) out[c + 1].set(k.outViews1[done], o + i);
         }
         let p = k.f64[k.state >> 3];
         if (this.loop && p >= this.loopEnd) {

@@ -74,6 +74,9 @@ export class WasmKernel {
   ratios = 0;
   /** Byte offset of the render state written by the kernel: end position (f64), then the last stride (i32). */
   state = 0;
+  /** outViews0[n] / outViews1[n]: the first n floats of out0 / out1 (n = 0…RUN_FRAMES), for allocation-free block copies. */
+  readonly outViews0: Float32Array[] = [];
+  readonly outViews1: Float32Array[] = [];
   /** Floats each span holds. */
   spanFloats = 0;
   private top: number;
@@ -87,6 +90,7 @@ export class WasmKernel {
     this.out1 = this.alloc(RUN_FRAMES * 4);
     this.ratios = this.alloc(RUN_FRAMES * 8);
     this.state = this.alloc(16);
+    this.refreshViews();
   }
 
   /** The kernel of this realm (created on first call), or null when WebAssembly SIMD is not available or fails to load. */
@@ -161,6 +165,15 @@ export class WasmKernel {
     this.f32 = new Float32Array(buf);
     this.f64 = new Float64Array(buf);
     this.i32 = new Int32Array(buf);
+    if (this.out1 !== 0) this.refreshViews();
+  }
+
+  private refreshViews(): void {
+    const buf = this.exports.memory.buffer;
+    for (let n = 0; n <= RUN_FRAMES; n++) {
+      this.outViews0[n] = new Float32Array(buf, this.out0, n);
+      this.outViews1[n] = new Float32Array(buf, this.out1, n);
+    }
   }
 }
 
