@@ -20,8 +20,9 @@ export interface FlyThroughOptions {
   /** The listener's orientation now (unit vectors). */
   orientation: () => { forward: Vec3Like; up: Vec3Like };
   /**
-   * Page clock in seconds (default performance.now() / 1000): recordings are timestamped and replays advance by it,
-   * so a slow frame rate does not stretch or squeeze them (the audio heard runs in real time too).
+   * Page clock in seconds (default performance.now() / 1000), the clock of the animation-frame timestamps passed to
+   * advance() and record(): recordings are timestamped by it and replays advance by it, so a slow frame rate does not
+   * stretch or squeeze them (the audio heard runs in real time too).
    */
   clock?: () => number;
 }
@@ -71,22 +72,25 @@ export class FlyThrough implements RecordingControls {
     };
   }
 
-  /** Advances a running replay to the page clock (call before placing the bodies). */
-  advance(): void {
+  /** Advances a running replay to the frame's timestamp `time` (s, page clock; call before placing the bodies). */
+  advance(time: number): void {
     const run = this.run;
     if (!run) return;
-    const now = this.clock();
-    const dt = this.lastAdvance === null ? 0 : now - this.lastAdvance;
+    const now = time;
+    const dt = this.lastAdvance === null ? 0 : Math.max(0, now - this.lastAdvance);
     this.lastAdvance = now;
     for (const k of run.advance(dt)) this.options.ralenti.setTimeScale(k.target, { ramp: k.rampSeconds, easing: k.easing });
     this.state.message = `Replaying ${run.time.toFixed(1)} / ${run.script.duration.toFixed(1)} s`;
     if (run.finished) this.endReplay('Replay finished.');
   }
 
-  /** Records the listener and bodies (positions in m) while a recording runs (call after placing them). */
-  record(listener: Vec3Like, sources: Readonly<Record<string, Vec3Like>>): void {
+  /**
+   * Records the listener and bodies (positions in m) at the frame's timestamp `time` (s, page clock) while a recording
+   * runs (call after placing them). The frame timestamp, not the time of the call, matches the frame's movement.
+   */
+  record(time: number, listener: Vec3Like, sources: Readonly<Record<string, Vec3Like>>): void {
     if (!this.recorder.recording) return;
-    this.recorder.frame(this.clock(), listener, sources);
+    this.recorder.frame(time, listener, sources);
     this.state.message = `Recording… ${this.recorder.seconds.toFixed(1)} s`;
   }
 
@@ -129,7 +133,7 @@ export class FlyThrough implements RecordingControls {
     }
     if (!this.script || this.recorder.recording) return;
     this.run = new SceneReplay({ script: this.script.parsed });
-    this.lastAdvance = this.clock();
+    this.lastAdvance = null;
     this.state.replaying = true;
     this.options.ralenti.setTimeScale(1, { ramp: 0 });
     for (const k of this.run.advance(0)) this.options.ralenti.setTimeScale(k.target, { ramp: k.rampSeconds, easing: k.easing });

@@ -184,9 +184,9 @@ function frame(ms: number): void {
   state.gameTime += dt * s;
   const t = state.gameTime;
   fly.update(dt);
-  flyThrough?.advance();
+  flyThrough?.advance(ms / 1000);
   placeBodies(a, t);
-  flyThrough?.record(range.camera.position, bodyAt);
+  flyThrough?.record(ms / 1000, range.camera.position, bodyAt);
   range.kart.object.rotation.y = kartHeading(t);
   range.animate(t);
 

@@ -91,7 +91,7 @@ describe.skipIf(mode === 'skip')('fly-through recording in Chromium', () => {
       executablePath: CHROMIUM_PATH,
       headless: true,
       args: [...CHROMIUM_ARGS, '--autoplay-policy=no-user-gesture-required'],
-      viewport: { width: 960, height: 540 },
+      viewport: { width: 640, height: 360 },
       acceptDownloads: true,
     });
     page = context.pages()[0] ?? (await context.newPage());

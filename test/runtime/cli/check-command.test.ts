@@ -1,0 +1,79 @@
+import { beforeAll, describe, expect, it } from 'vitest';
+import { mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { tmpdir } from 'node:os';
+import { main } from '../../../runtime/cli/ralenti';
+import { writeWav } from '../../../runtime/offline';
+
+const examples = resolve(__dirname, '../../../runtime/offline/examples');
+/** The scene scripts shipped with the renderer (tuning files beside them are not scenes). */
+const shipped = readdirSync(examples).filter((f) => f.endsWith('.json') && !f.endsWith('.tuning.json')).sort();
+
+async function cli(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
+  let out = '';
+  let err = '';
+  const code = await main(argv, { out: (t) => (out += t), err: (t) => (err += t), errIsTty: false });
+  return { code, out, err };
+}
+
+let dir = '';
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'ralenti-check-'));
+  const x = new Float32Array(8000).map((_, i) => 0.5 * Math.sin((2 * Math.PI * 500 * i) / 16000));
+  writeFileSync(join(dir, 'tone.wav'), writeWav({ sampleRate: 16000, channels: [x], encoding: 'pcm16' }));
+});
+
+describe('ralenti check on the shipped examples', () => {
+  it('ships the fly-by, the slow-motion scene and a fly-through recorded in the page', () => {
+    expect(shipped).toEqual(['flyby.json', 'recorded-flythrough.json', 'slow-motion.json']);
+  });
+
+  it.each(shipped)('passes %s within the default 5 cents (exit 0)', async (file) => {
+    const r = await cli('check', join(examples, file), '-q');
+    expect(r.err).toBe('');
+    expect(r.out).not.toMatch(/FAIL/);
+    expect(r.out).toMatch(/all \d+ voice\(s\) within 5 cents/);
+    expect(r.code).toBe(0);
+  }, 120_000);
+});
+
+describe('ralenti check errors', () => {
+  const write = (name: string, content: unknown): string => {
+    const path = join(dir, name);
+    writeFileSync(path, typeof content === 'string' ? content : JSON.stringify(content));
+    return path;
+  };
+
+  it.each<[string, () => string, number, RegExp, string[]?]>([
+    ['a missing scene script', () => '/nonexistent/scene.json', 3, /cannot read \/nonexistent\/scene\.json: ENOENT/],
+    ['a script that is not JSON', () => write('syntax.json', '{"duration": 1,'), 3, /is not valid JSON/],
+    ['a wrong type deep inside, by its JSON path', () => write('deep.json', { duration: 1, sounds: { t: { type: 'tone', frequency: 'high' } }, voices: [{ sound: 't' }] }), 3, /sounds\.t\.frequency: expected a finite number, got "high"/],
+    ['an unknown voice sound, by its JSON path', () => write('horn.json', { duration: 1, voices: [{ sound: 'horn' }] }), 3, /voices\[0\]\.sound: no sound named "horn"/],
+    ['a keyframe out of order, by its JSON path', () => write('keys.json', { duration: 1, sounds: { t: { type: 'tone', frequency: 200 } }, sources: { s: { motion: { type: 'keyframes', keys: [{ time: 1, position: [0, 0, 0] }, { time: 0, position: [1, 0, 0] }] } } }, voices: [{ sound: 't', source: 's' }] }), 3, /sources\.s\.motion\.keys\[1\]\.time: key times must increase/],
+    ['a bad inline tuning, by its JSON path', () => write('tuning.json', { duration: 1, tuning: { version: 1, doppler: { factor: -1 } }, sounds: { t: { type: 'tone', frequency: 200 } }, voices: [{ sound: 't' }] }), 3, /tuning\.doppler/],
+    ['a missing tuning file', () => write('no-tuning.json', { duration: 1, tuning: 'absent.tuning.json', sounds: { t: { type: 'tone', frequency: 200 } }, voices: [{ sound: 't' }] }), 3, /cannot read the tuning file .*absent\.tuning\.json/],
+    ['a missing WAV file', () => write('no-wav.json', { duration: 1, sounds: { w: { type: 'file', path: 'absent.wav' } }, voices: [{ sound: 'w' }] }), 3, /sounds\.w\.path: cannot read .*absent\.wav/],
+    ['sources with no tonal content (noise and a WAV file)', () => write('untuned.json', { duration: 1, sounds: { n: { type: 'noise', colour: 'pink' }, w: { type: 'file', path: 'tone.wav' } }, voices: [{ sound: 'n' }, { sound: 'w' }] }), 3, /no voice plays a tone or hum sound, so there is no pitch to check/],
+    ['a tolerance out of range', () => write('ok.json', { duration: 1, sounds: { t: { type: 'tone', frequency: 200 } }, voices: [{ sound: 't' }] }), 2, /--tolerance-cents must be a number in 0\.1…1200/, ['--tolerance-cents', '0']],
+  ])('rejects %s with exit code %s and a clear message', async (_name, path, code, pattern, extra = []) => {
+    const r = await cli('check', path(), '-q', ...extra);
+    expect(r.code).toBe(code);
+    expect(r.err).toMatch(pattern);
+    expect(r.out).toBe('');
+  });
+
+  it('fails (exit 1) a tonal voice that never reaches the listener, naming it', async () => {
+    const path = write('far.json', {
+      duration: 1,
+      sampleRate: 16000,
+      tuning: { version: 1, distance: { model: 'linear', refDistance: 1, maxDistance: 50, rolloffFactor: 1 } },
+      sounds: { t: { type: 'tone', frequency: 300 } },
+      sources: { far: { motion: { type: 'fixed', position: [0, 0, -500] } } },
+      voices: [{ sound: 't', source: 'far', loop: true }],
+    });
+    const r = await cli('check', path, '-q');
+    expect(r.code).toBe(1);
+    expect(r.out).toMatch(/FAIL {2}voice 0 \(t on far\): .* over 0 frames/);
+    expect(r.out).toMatch(/1 of 1 voice\(s\) outside 5 cents/);
+  });
+});
