@@ -87,6 +87,7 @@ export class FlyThroughRecorder {
   private up: [number, number, number] = [0, 1, 0];
   private timeKeys: { time: number; target: number; rampSeconds: number; easing: Easing }[] = [];
   private frames = 0;
+  private startedSlow = false;
 
   /** Validates the options (RangeError naming the field). */
   constructor(options: FlyThroughRecorderOptions = {}) {
@@ -123,12 +124,22 @@ export class FlyThroughRecorder {
     this.sources = new Map();
     this.forward = [round(orientation.forward.x, 6), round(orientation.forward.y, 6), round(orientation.forward.z, 6)];
     this.up = [round(orientation.up.x, 6), round(orientation.up.y, 6), round(orientation.up.z, 6)];
-    this.timeKeys = timeScale === 1 ? [] : [{ time: 0, target: timeScale, rampSeconds: 0, easing: 'linear' }];
+    this.startedSlow = timeScale !== 1;
+    this.timeKeys = this.startedSlow ? [{ time: 0, target: timeScale, rampSeconds: 0, easing: 'linear' }] : [];
   }
 
   /** Takes one frame at page time `time` (s, increasing): listener and source positions in metres. */
   frame(time: Seconds, listener: Vec3Like, sources: Readonly<Record<string, Vec3Like>>): void {
     if (!this.active || !(time > this.lastTime || this.frames === 0)) return;
+    if (this.frames === 0 && time < this.startTime) {
+      // An animation frame's timestamp is its start, which can precede the click that started the recording: the
+      // recording then starts at that frame (time-scale keys already noted move with it).
+      const shift = this.startTime - time;
+      this.timeKeys.forEach((k, i) => {
+        if (i > 0 || !this.startedSlow) k.time = round(k.time + shift, 5);
+      });
+      this.startTime = time;
+    }
     const t = round(time - this.startTime, 5);
     if (t > this.maxSeconds || !finite(listener) || !Object.values(sources).every(finite)) return;
     const spacing = 0.75 / this.keyRate;

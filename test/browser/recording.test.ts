@@ -158,6 +158,7 @@ describe.skipIf(mode === 'skip')('fly-through recording in Chromium', () => {
     expect(l.type).toBe('keyframes');
     if (l.type !== 'keyframes') return;
     expect(l.keys.length).toBeGreaterThan(10);
+    expect(l.keys[0].time).toBeGreaterThanOrEqual(0);
     expect(l.keys.length).toBeLessThanOrEqual(Math.min(h.flyThrough!.frames, 60 * script.duration + 2));
     const [a, b] = [l.keys[0].position, l.keys[l.keys.length - 1].position];
     expect(Math.hypot(b[0] - a[0], b[1] - a[1], b[2] - a[2])).toBeGreaterThan(20);

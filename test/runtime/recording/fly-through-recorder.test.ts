@@ -111,6 +111,20 @@ describe('FlyThroughRecorder', () => {
     expect(script.timeScale[0]).toEqual({ time: 0, target: 0.5, rampSeconds: 0, easing: 'linear' });
   });
 
+  it('starts at the first frame when its timestamp precedes the start call (animation frames are stamped at their start)', () => {
+    const rec = new FlyThroughRecorder();
+    rec.start(10.01, orientation, 1);
+    rec.timeScale(10.02, 0.5, 0.2, 'smooth');
+    for (let i = 0; i < 10; i++) rec.frame(10 + i / 50, { x: i, y: 0, z: 0 }, {});
+    rec.stop(10.2);
+    const script = parseSceneScript(rec.toScript(content));
+    const l = script.listener.motion;
+    if (l.type !== 'keyframes') throw new Error('expected keyframes');
+    expect(l.keys[0].time).toBe(0);
+    expect(script.timeScale[0].time).toBeCloseTo(0.02, 9);
+    expect(script.duration).toBeCloseTo(0.2, 9);
+  });
+
   it('refuses to write a script with fewer than two frames, and options out of range', () => {
     const rec = new FlyThroughRecorder();
     rec.start(0, orientation, 1);
