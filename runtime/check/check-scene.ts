@@ -113,7 +113,7 @@ export function checkScene(scene: CheckableScene, options: CheckSceneOptions = {
     const stats = pitchErrorStats(judged, track.frequencies);
     const passed = stats.count > 0 && stats.p95Cents <= tolerance;
     const name = `voice ${i} (${v.sound}${v.source ? ` on ${v.source}` : ''})`;
-    results.push({ name, times: track.times, expectedHz: judged, measuredHz: track.frequencies, stats, passed, note: stats.count === 0 ? 'no pitch found where one was expected' : undefined });
+    results.push({ name, times: track.times, expectedHz: expected, judgedHz: judged, measuredHz: track.frequencies, stats, passed, note: stats.count === 0 ? 'no pitch found where one was expected' : undefined });
   }
   const times = results.length > 0 ? Float64Array.from(results[0].times) : new Float64Array(0);
   return {

@@ -11,6 +11,8 @@ export interface ReportSource {
   times: ArrayLike<Seconds>;
   /** Expected heard frequency per frame in Hz (NaN = none). */
   expectedHz: ArrayLike<Hz>;
+  /** Expected frequency on the frames the verdict judged, NaN elsewhere (optional; drawn over the expected curve). */
+  judgedHz?: ArrayLike<Hz>;
   /** Measured frequency per frame in Hz (NaN = no pitch found). */
   measuredHz: ArrayLike<Hz>;
   /** Error figures over the frames where both are present. */
@@ -49,7 +51,8 @@ const colours = Object.freeze({
   ink: '#222222',
   grid: '#e4e4e4',
   axis: '#888888',
-  expected: '#222222',
+  expected: '#c2c2c2',
+  judged: '#222222',
   measured: '#1f6fd1',
   timeScale: '#a05a00',
   pass: '#2e7d32',
@@ -174,7 +177,8 @@ function sourcePanel(s: ReportSource, f: Frame, unit: 'hz' | 'cents', tolerance:
   const y = valueAxis(f, lo, hi, label, out);
   const x = timeAxis(f, out);
   const clip = (v: number) => Math.min(hi, Math.max(lo, v));
-  out.push(`<path data-series="expected" d="${pathData(s.times, expected, x, (v) => y(clip(v)))}" fill="none" stroke="${colours.expected}" stroke-width="1.6"/>`);
+  out.push(`<path data-series="expected" d="${pathData(s.times, expected, x, (v) => y(clip(v)))}" fill="none" stroke="${colours.expected}" stroke-width="4" stroke-linejoin="round"/>`);
+  if (s.judgedHz) out.push(`<path data-series="judged" d="${pathData(s.times, toUnit(s.judgedHz), x, (v) => y(clip(v)))}" fill="none" stroke="${colours.judged}" stroke-width="1.2"/>`);
   out.push(`<path data-series="measured" d="${pathData(s.times, measured, x, (v) => y(clip(v)))}" fill="none" stroke="${colours.measured}" stroke-width="1.2" stroke-dasharray="5 3"/>`);
   const verdict = s.passed ? 'PASS' : 'FAIL';
   const badgeX = f.width - margin.right - 64;
@@ -209,7 +213,7 @@ export function renderReportSvg(report: CheckReport, options: ReportSvgOptions =
   const failed = report.sources.filter((s) => !s.passed).length;
   const summary = `${report.sources.length - failed} of ${report.sources.length} sources within ${figure(report.toleranceCents, 1)} cents`;
   out.push(`<text x="${margin.left}" y="24" font-size="16" font-weight="bold">${escapeXml(report.title)}</text>`);
-  out.push(`<text x="${margin.left}" y="44" fill="#555555">${escapeXml(summary)} — solid: expected, dashed: measured</text>`);
+  out.push(`<text x="${margin.left}" y="44" fill="#555555">${escapeXml(summary)} — grey: expected, black: expected where judged, dashed blue: measured</text>`);
   report.sources.forEach((s, i) => sourcePanel(s, { top: HEADER_HEIGHT + i * PANEL_HEIGHT, height: PANEL_HEIGHT, width, t0, t1 }, unit, report.toleranceCents, out));
   if (report.timeScale) {
     const f = { top: HEADER_HEIGHT + report.sources.length * PANEL_HEIGHT, height: STRIP_HEIGHT, width, t0, t1 };
