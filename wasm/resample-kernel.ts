@@ -56,6 +56,11 @@ export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc
   store<i32>(load<i32>(table, 20) + (s << 2), <i32>desc);
 }
 
+@inline function strideOf(r: f64, spr: f64, phases: i32, grid: usize): i32 {
+  const sr = r * spr;
+  return sr <= 1 ? phases : load<i32>(grid + (<usize>(<i32>Math.floor(<f64>phases / sr)) << 2));
+}
+
 @inline function pairSums(a: v128, b: v128): v128 {
   // lanes 0 and 2 of the result: the sums of a's and b's lanes.
   const t = f32x4.add(v128.shuffle<f32>(a, b, 0, 1, 4, 5), v128.shuffle<f32>(a, b, 2, 3, 6, 7));
@@ -76,28 +81,42 @@ export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: 
   const fp = <f64>phases;
   let p = pos;
   let st = phases;
-  let scale: f64 = 1; // st / phases, recomputed only when the stride changes
-  let scaleFor = phases;
+  let scale: f64 = 1; // st / phases
+  let dbase: usize = 0; // descriptors of stride st
+  let lastR: f64 = -1; // stride, scale and descriptors depend on r only: reuse them while r repeats
+  let fixed = false;
+  if (ratios == 0 && iEnd > iStart) {
+    // A linear ramp is monotone and the stride is monotone in r: equal strides at both ends hold throughout.
+    const rFirst = dr == 0 ? rs : rs + (dr * <f64>iStart) / frames;
+    const rLast = dr == 0 ? rs : rs + (dr * <f64>(iEnd - 1)) / frames;
+    const s0 = strideOf(rFirst, spr, phases, grid);
+    if (s0 == strideOf(rLast, spr, phases, grid)) {
+      st = s0;
+      scale = <f64>st / fp;
+      dbase = <usize>load<i32>(descs + (<usize>st << 2));
+      fixed = true;
+    }
+  }
   let i = iStart;
   while (i < iEnd) {
     const r = ratios != 0 ? load<f64>(ratios + (<usize>(i - iStart) << 3)) : dr == 0 ? rs : rs + (dr * <f64>i) / frames;
-    const sr = r * spr;
-    st = sr <= 1 ? phases : load<i32>(grid + (<usize>(<i32>Math.floor(fp / sr)) << 2));
+    if (!fixed && r != lastR) {
+      lastR = r;
+      st = strideOf(r, spr, phases, grid);
+      scale = <f64>st / fp;
+      dbase = <usize>load<i32>(descs + (<usize>st << 2));
+    }
     const nf = Math.floor(p);
     const n = <i32>nf;
-    const c = (p - <f64>n) * <f64>st;
+    const c = (p - nf) * <f64>st;
     const ci = <i32>c;
     const f = c - <f64>ci;
-    const d = <usize>load<i32>(descs + (<usize>st << 2)) + (<usize>ci << 4);
+    const d = dbase + (<usize>ci << 4);
     const row0 = <usize>load<i32>(d);
     const row1 = <usize>load<i32>(d, 4);
     const a1n = load<i32>(d, 8);
     const cnt = load<i32>(d, 12);
     const xo = <usize>(n - a1n - spanBase) << 2;
-    if (st != scaleFor) {
-      scale = <f64>st / fp;
-      scaleFor = st;
-    }
     const o = <usize>(i - iStart) << 2;
     if (x1 == 0) {
       const xp = x0 + xo;
