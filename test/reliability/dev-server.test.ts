@@ -137,7 +137,7 @@ describe('npm start (scripts/start.mjs)', () => {
       child!.stdout!.on('data', (d) => {
         out += d.toString();
         const m = /http:\/\/127\.0\.0\.1:(\d+)\//.exec(out);
-        if (m) {
+        if (m && /Ctrl\+C/.test(out)) {
           clearTimeout(timer);
           done(m[0]);
         }
