@@ -1,6 +1,6 @@
 // The tuning editor: a tweakpane panel over a running Ralenti, editing a draft tuning that is applied live.
 import { Pane } from 'tweakpane';
-import type { Ralenti } from '../runtime';
+import type { Ralenti, RalentiAudioError } from '../runtime';
 import { defaultTuning } from '../runtime';
 import type { Tuning } from '../src';
 import { curveBladeBundle, type CurveBladeApi } from './curve-blade';
@@ -56,6 +56,9 @@ export class EditorPanel {
   private file!: FileSection;
   private recording: RecordingSection | null = null;
   private saveTimer: ReturnType<typeof setTimeout> | null = null;
+  /** The latest error the audio thread reported, shown in the readouts (null: none yet). */
+  private lastAudioError: RalentiAudioError | null = null;
+  private readonly stopErrors: () => void;
 
   constructor(host: EditorHost) {
     this.host = host;
@@ -67,6 +70,7 @@ export class EditorPanel {
       this.doc.head.appendChild(style);
     }
     this.volume.db = Math.round(20 * Math.log10(Math.max(1e-6, host.master.gain.value)));
+    this.stopErrors = host.ralenti.onError((e) => (this.lastAudioError = e));
     this.builtin = new BuiltinRatePlayer({ context: host.ralenti.context, output: host.master, sources: host.comparison });
     this.build();
     if (host.restoreProblems?.length) this.file.show('The autosaved tuning did not load; the built-in tuning runs.', host.restoreProblems);
@@ -100,13 +104,14 @@ export class EditorPanel {
     const s = ralenti.timeScale;
     this.live.timeScale = s;
     for (const c of this.curves) if (c.marker !== s) c.marker = s;
-    this.readouts.update(ralenti.stats, ralenti.voices, ralenti.capacity);
+    this.readouts.update(ralenti.stats, ralenti.voices, ralenti.capacity, this.lastAudioError);
     this.builtin.update(ralenti.voices, ralenti.tuning);
     this.recording?.update();
   }
 
   /** Removes the panel. */
   dispose(): void {
+    this.stopErrors();
     this.builtin.stop();
     this.pane.dispose();
     this.file.input.remove();

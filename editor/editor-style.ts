@@ -11,6 +11,8 @@ export const editorCss = `
 .rl-graph canvas, .rl-spectrum canvas { width: 100%; display: block; border-radius: 3px; }
 .rl-legend { display: flex; flex-wrap: wrap; gap: 2px 8px; font: 10px sans-serif; color: #c9d0dc; margin: 2px 0 4px; }
 .rl-legend span::before { content: ''; display: inline-block; width: 10px; height: 2px; margin-right: 3px; vertical-align: middle; background: var(--c); }
+.rl-audio-error { font: 10px/1.35 ui-monospace, Menlo, Consolas, monospace; color: #9aa6bd; overflow-wrap: anywhere; padding: 2px 0; }
+.rl-audio-error-on { color: #ff9b8a; }
 .rl-file-status { font: 11px/1.4 sans-serif; color: #d9dee8; min-height: 14px; }
 .rl-file-ok { color: #8fe3a5; }
 .rl-file-bad { color: #ff9b8a; }

@@ -1,6 +1,7 @@
 // Live readouts: per-voice table (ratio in cents, radial speed, distance, cutoff), ratio graph, spectrum, engine load.
 import type { FolderApi, Pane } from 'tweakpane';
 import type { EngineStats, VoiceMonitor } from '../../src';
+import type { RalentiAudioError } from '../../runtime';
 import { RatioGraph, type RatioTrace } from '../monitors/ratio-graph';
 import { SpectrumView } from '../monitors/spectrum-view';
 
@@ -20,6 +21,8 @@ export class ReadoutsSection {
   private readonly voices: readonly NamedVoice[];
   private readonly load = { active: 0, virtual: 0, steals: 0, clamps: 0, peakDb: -120, limiterDb: 0, poolUse: 0, errors: 0, tier: '', resampler: '' };
   private readonly cents: number[];
+  private readonly errorLine: HTMLDivElement;
+  private shownError: RalentiAudioError | null = null;
   private frame = 0;
 
   constructor(pane: Pane, doc: Document, context: BaseAudioContext, voices: readonly NamedVoice[]) {
@@ -45,12 +48,20 @@ export class ReadoutsSection {
     this.folder.addBinding(l, 'poolUse', { label: 'voice pool use %', readonly: true, view: 'graph', min: 0, max: 100 });
     this.folder.addBinding(l, 'steals', { label: 'steals · clamps', readonly: true, format: () => `${l.steals} · ${l.clamps}` });
     this.folder.addBinding(l, 'errors', { label: 'audio errors', readonly: true, format: fmt0 });
+    this.errorLine = doc.createElement('div');
+    this.errorLine.className = 'rl-audio-error';
+    this.errorLine.textContent = 'last audio error: none';
+    this.folder.addBlade({ view: 'ralenti-element', element: this.errorLine });
     this.folder.addBinding(l, 'resampler', { label: 'resampler', readonly: true });
   }
 
-  /** Updates readouts from the runtime's latest stats and monitors; `capacity` is the engine's voice pool size. */
-  update(stats: EngineStats, monitors: readonly VoiceMonitor[], capacity: number): void {
+  /**
+   * Updates readouts from the runtime's latest stats and monitors; `capacity` is the engine's voice pool size,
+   * `lastError` the latest error the audio thread reported (null: none yet).
+   */
+  update(stats: EngineStats, monitors: readonly VoiceMonitor[], capacity: number, lastError: RalentiAudioError | null = null): void {
     const l = this.load;
+    if (lastError !== this.shownError) this.showError(lastError);
     l.active = stats.activeVoices;
     l.virtual = stats.virtualVoices;
     l.steals = stats.steals;
@@ -73,6 +84,12 @@ export class ReadoutsSection {
       this.spectrum.draw();
     }
     if (this.frame % 6 === 0) this.fillTable(monitors);
+  }
+
+  private showError(e: RalentiAudioError | null): void {
+    this.shownError = e;
+    this.errorLine.classList.toggle('rl-audio-error-on', e !== null);
+    this.errorLine.textContent = e ? `last audio error (${e.where}): ${e.message}` : 'last audio error: none';
   }
 
   private fillTable(monitors: readonly VoiceMonitor[]): void {

@@ -88,4 +88,27 @@ describe('editor under malformed tuning files', () => {
     panel.dispose();
     vi.useRealTimers();
   });
+
+  it('shows the text of the last audio-thread error, keeps it across a tuning reload, and stops listening when disposed', () => {
+    const { panel, node, container, ralenti } = setup();
+    const line = () => container.querySelector('.rl-audio-error')!.textContent;
+    panel.update();
+    expect(line()).toBe('last audio error: none');
+    node.deliver({ type: 'error', where: 'command', message: 'play: unknown sound 99', count: 1 });
+    node.deliver({ type: 'error', where: 'process', message: 'the engine failed while rendering (1 so far); silent until the next command', count: 2 });
+    panel.update();
+    expect(line()).toBe('last audio error (process): the engine failed while rendering (1 so far); silent until the next command');
+    expect(container.querySelector('.rl-audio-error-on')).not.toBeNull();
+    // A good file rebuilds the panel; the error stays on show.
+    expect(panel.loadText(JSON.stringify({ ...JSON.parse(JSON.stringify(defaultTuning)) }), 'good.json')).toBe(true);
+    panel.update();
+    expect(line()).toContain('the engine failed while rendering');
+    node.onprocessorerror?.();
+    panel.update();
+    expect(line()).toBe('last audio error (processorerror): the processor failed and stopped');
+    const listeners = (ralenti as unknown as { errorListeners: Set<unknown> }).errorListeners;
+    expect(listeners.size).toBe(1);
+    panel.dispose();
+    expect(listeners.size).toBe(0);
+  });
 });
