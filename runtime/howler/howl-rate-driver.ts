@@ -19,8 +19,9 @@ export interface HowlRateDriverOptions {
 /** Frozen defaults of HowlRateDriverOptions. */
 export const howlRateDriverDefaults = Object.freeze({ maxHz: 30, thresholdCents: 5 });
 
-/** Playback-ratio range the driver sends (the engine's range). */
+/** Lowest playback ratio the driver sends, 1/16 (lower wanted ratios are clamped to it). */
 export const HOWL_RATE_MIN = 1 / 16;
+/** Highest playback ratio the driver sends, 4 (the engine's maximum). */
 export const HOWL_RATE_MAX = 4;
 
 /** Sends a voice's playback ratio to howler at most maxHz times per second and only on changes ≥ thresholdCents. */

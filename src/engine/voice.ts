@@ -5,9 +5,11 @@ import { createVoiceTargets, type VoiceTargets } from '../dilation';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { Hz, Seconds } from '../units';
 
-/** Voice states. */
+/** Voice state: the slot is free. */
 export const VOICE_FREE = 0;
+/** Voice state: playing (fading in or sustained). */
 export const VOICE_PLAYING = 1;
+/** Voice state: fading out after a stop or a steal; the slot frees at the end of the fade. */
 export const VOICE_RELEASING = 2;
 
 /** Below this linear gain (−90 dB) a voice becomes virtual; it comes back above RETURN_GAIN (−84 dB). */
