@@ -31,11 +31,10 @@ describe('Kaiser length estimate (kaiserord)', () => {
     expect(kaiserTaps(a, w)).toBe(n);
   });
 
-  it('matches the Oppenheim & Schafer low-pass example order M = 37 (A = 60, Δω = 0.2π)', () => {
-    // REFERENCES.md §3a: O&S DTSP Kaiser design example (book numbers from memory; 36.219 COMPUTED): M = (A − 8)/(2.285·Δω).
-    const m = (60 - 8) / (2.285 * 0.2 * Math.PI);
-    expect(m).toBeCloseTo(36.219, 3);
-    expect(Math.ceil(m)).toBe(37);
+  it('gives M + 1 = 38 taps and β = 5.653 for the Oppenheim & Schafer low-pass example (A = 60 dB, Δω = 0.2π)', () => {
+    // REFERENCES.md §3a: O&S DTSP Kaiser design example, order M = 37 and β = 5.653 (book numbers from memory;
+    // (A − 8)/(2.285·Δω) = 36.219 → 37 COMPUTED). Δω = 0.2π rad/sample is a width of 0.2 of Nyquist.
+    expect(kaiserTaps(60, 0.2)).toBe(37 + 1);
     expect(kaiserBeta(60)).toBeCloseTo(5.653, 3);
   });
 });

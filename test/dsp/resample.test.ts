@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { DspArgumentError, resample, qualityTiers, defaultQualityTier, type QualityTierName } from '../../src/dsp';
 import * as root from '../../src/index';
-import { binOf, powerSpectrum, seededRandom, sine, METRIC } from './resampler-metric';
+import { powerSpectrum, seededRandom, sine, METRIC } from './resampler-metric';
 import { libsamplerateResample } from '../../bench/resampler-reference';
 
 function peakHz(y: Float32Array): number {
@@ -23,8 +23,7 @@ describe('scaling theorem: speed V multiplies frequency by V and divides duratio
     expect(y.length).toBe(Math.floor(input.length / v));
     const bin = (METRIC.sampleRate / METRIC.fftSize) * 1.01;
     expect(Math.abs(peakHz(y) - expected)).toBeLessThanOrEqual(bin);
-    expect(binOf(expected)).toBeGreaterThan(0);
-    expect(f * v).toBe(expected);
+    expect(Math.abs(peakHz(input) - f)).toBeLessThanOrEqual(bin);
   });
 });
 
