@@ -3,6 +3,11 @@
 /** Style sheet text. */
 export const editorCss = `
 .rl-pane { --rl-accent: #f5b84c; }
+/* Group tabs size to their names (never cut short) and wrap onto a second row when they do not fit. */
+.rl-pane .tp-tabv_t { flex-wrap: wrap; row-gap: 2px; }
+.rl-pane .tp-tbiv { flex: 1 0 auto; }
+.rl-pane .tp-tbiv_b { padding-left: 6px; padding-right: 6px; }
+.rl-pane .tp-tbiv_t { text-overflow: clip; white-space: nowrap; }
 .rl-voices { width: 100%; border-collapse: collapse; font: 10px/1.35 ui-monospace, Menlo, Consolas, monospace; color: #d9dee8; }
 .rl-voices th { font-weight: 600; text-align: right; color: #9aa6bd; padding: 1px 3px; }
 .rl-voices th:first-child, .rl-voices td:first-child { text-align: left; }

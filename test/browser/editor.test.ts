@@ -109,6 +109,18 @@ describe.skipIf(mode === 'skip')('sample scene and tuning panel in Chromium', ()
     for (const s of SECTIONS) expect(titles).toContain(s);
   });
 
+  it('shows every group name in full in the group tabs at 1280×720', async () => {
+    const groups = Object.keys(JSON.parse((await handle(page)).tuningJson!).groups as object);
+    const tabs = await page.locator('#panel .tp-tbiv_t').evaluateAll((els) =>
+      els.map((e) => ({ text: e.textContent ?? '', cut: e.scrollWidth > e.clientWidth, width: e.getBoundingClientRect().width })),
+    );
+    expect(tabs.map((t) => t.text)).toEqual(groups);
+    for (const t of tabs) {
+      expect(t.cut, `tab "${t.text}" is cut short`).toBe(false);
+      expect(t.width, `tab "${t.text}" has a width`).toBeGreaterThan(0);
+    }
+  });
+
   it('moves the time scale to the slow-motion target while Space is held, and back to 1 on release', async () => {
     const target = JSON.parse((await handle(page)).tuningJson!).timeFlow.slowMotionScale as number;
     await page.keyboard.down('Space');
