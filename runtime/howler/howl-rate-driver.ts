@@ -2,6 +2,7 @@
 // NOT band-limited: howler sets the browser's playbackRate in steps, so quality is the browser's resampler.
 import type { Seconds, Tuning } from '../../src/index';
 import { Curve } from '../../src/dilation/index';
+import { DEFAULT_GROUP } from '../../src/tuning/index';
 import { checkRange } from '../runtime-error';
 import type { HowlLike } from './howler-types';
 
@@ -61,9 +62,13 @@ export class HowlRateDriver {
 
 const curves = new WeakMap<object, Curve>();
 
-/** Speed multiplier of `group` at `timeScale` from the tuning's pitch curve (1 for exempt and tone-only groups or unknown names). */
+/**
+ * Speed multiplier of `group` at `timeScale` (0…4) from the tuning's pitch curve: 1 for exempt and tone-only groups;
+ * an unknown name falls back to the `effects` group, as in the engine.
+ */
 export function groupSpeed(tuning: Tuning, group: string, timeScale: number): number {
-  const g = Object.prototype.hasOwnProperty.call(tuning.groups, group) ? tuning.groups[group] : undefined;
+  const own = (name: string) => (Object.prototype.hasOwnProperty.call(tuning.groups, name) ? tuning.groups[name] : undefined);
+  const g = own(group) ?? own(DEFAULT_GROUP);
   if (!g || g.policy !== 'follow-time') return 1;
   let c = curves.get(g.pitch);
   if (!c) curves.set(g.pitch, (c = new Curve(g.pitch)));

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Ralenti, RalentiOptionError, defaultTuning } from '../../runtime/index';
 import { HowlerBridge, HowlRateDriver, extensionOf, groupSpeed } from '../../runtime/howler/index';
+import { TargetMapper, createVoiceTargets } from '../../src/dilation/index';
 import { FakeWorkletNode } from './fake-worklet-node';
 import { fakeHowl, fakeHowler } from './fake-howler';
 
@@ -132,11 +133,20 @@ describe('HowlRateDriver (light mode)', () => {
     expect(() => new HowlRateDriver({ howl: fakeHowl(), id: 1, maxHz })).toThrow(/maxHz/);
   });
 
-  it('maps a group and time scale to the tuning\'s speed (exempt and unknown groups stay at 1)', () => {
+  it('maps a group and time scale to the tuning\'s speed (exempt groups stay at 1, unknown ones follow effects)', () => {
     const pitch = defaultTuning.groups.effects.pitch;
     expect(groupSpeed(defaultTuning, 'effects', 1)).toBeCloseTo(pitch.keys.find((k) => k.x === 1)?.y ?? 1, 9);
     expect(groupSpeed(defaultTuning, 'interface', 0.25)).toBe(1);
-    expect(groupSpeed(defaultTuning, 'no-such-group', 0.25)).toBe(1);
     expect(groupSpeed(defaultTuning, 'effects', 0.5)).toBeLessThan(1);
+  });
+
+  it('gives an unknown group the speed the engine gives it (the effects group, as TargetMapper maps it)', () => {
+    const mapper = new TargetMapper({ tuning: defaultTuning });
+    const listener = { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } };
+    for (const timeScale of [0.1, 0.25, 0.5, 0.75]) {
+      const t = mapper.map(createVoiceTargets(), { timeScale, group: 'no-such-group', baseRatio: 1, gain: 1, listener, source: null });
+      expect(t.ratio).not.toBe(1);
+      expect(groupSpeed(defaultTuning, 'no-such-group', timeScale)).toBeCloseTo(t.ratio, 9);
+    }
   });
 });
