@@ -142,7 +142,7 @@ describe('HowlRateDriver (light mode)', () => {
 
   it('gives an unknown group the speed the engine gives it (the effects group, as TargetMapper maps it)', () => {
     const mapper = new TargetMapper({ tuning: defaultTuning });
-    const listener = { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } };
+    const listener = { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 }, velocity: { x: 0, y: 0, z: 0 } };
     for (const timeScale of [0.1, 0.25, 0.5, 0.75]) {
       const t = mapper.map(createVoiceTargets(), { timeScale, group: 'no-such-group', baseRatio: 1, gain: 1, listener, source: null });
       expect(t.ratio).not.toBe(1);
