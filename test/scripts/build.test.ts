@@ -50,6 +50,30 @@ describe('npm run build (scripts/build.mjs)', () => {
     expect(holder.length).toBeGreaterThan(0);
   });
 
+  it('points every package.json export at a file the build writes (types first), all inside the published files', () => {
+    const pkg = JSON.parse(readFileSync(join(__dirname, '../..', 'package.json'), 'utf8'));
+    const targets: string[] = [];
+    for (const [name, target] of Object.entries<string | Record<string, string>>(pkg.exports)) {
+      if (typeof target === 'string') {
+        targets.push(target);
+        continue;
+      }
+      // TypeScript reads the first matching condition: "types" must come before "default" (TypeScript handbook, package.json "exports").
+      expect(Object.keys(target), name).toEqual(['types', 'default']);
+      expect(target.types, name).toMatch(/\.d\.ts$/);
+      targets.push(target.types, target.default);
+    }
+    expect(pkg.exports['.'].default).toBe('./dist/index.js');
+    for (const t of targets) {
+      expect(t.endsWith('.ts') && !t.endsWith('.d.ts'), `${t}: a TypeScript source file`).toBe(false);
+      const path = t.startsWith('./dist/') ? join(out, t.slice('./dist/'.length)) : join(__dirname, '../..', t);
+      expect(existsSync(path), t).toBe(true);
+      expect(pkg.files.some((f: string) => t.slice(2) === f || t.slice(2).startsWith(`${f}/`)), `${t} in "files"`).toBe(true);
+    }
+    expect(pkg.files).toContain('dist');
+    expect(pkg.scripts.prepack).toMatch(/scripts\/build\.mjs/);
+  });
+
   it('loads the core bundle as plain ESM in Node', async () => {
     const core = await import(pathToFileURL(join(out, 'index.js')).href);
     expect(typeof core.parseTuning).toBe('function');
