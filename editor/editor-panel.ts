@@ -104,7 +104,7 @@ export class EditorPanel {
     const s = ralenti.timeScale;
     this.live.timeScale = s;
     for (const c of this.curves) if (c.marker !== s) c.marker = s;
-    this.readouts.update(ralenti.stats, ralenti.voices, ralenti.capacity, this.lastAudioError);
+    this.readouts.update({ stats: ralenti.stats, monitors: ralenti.voices, capacity: ralenti.capacity, lastError: this.lastAudioError, load: ralenti.renderLoad });
     this.builtin.update(ralenti.voices, ralenti.tuning);
     this.recording?.update();
   }

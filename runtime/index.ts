@@ -6,5 +6,5 @@ export type { Sound, SoundData, RalentiVoice, RalentiPlayOptions, RalentiListene
 export { RalentiSource } from './ralenti-source';
 export { RalentiOptionError } from './runtime-error';
 export { defaultWorkletUrl, workletBlobUrl } from './worklet-url';
-export { PROCESSOR_NAME } from './protocol';
+export { PROCESSOR_NAME, type RenderLoad } from './protocol';
 export { TuningError, defaultTuning, parseTuning, serializeTuning } from '../src/tuning/index';

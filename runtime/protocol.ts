@@ -98,6 +98,15 @@ export interface ReadyReport {
   sampleRate: number;
   capacity: number;
 }
+/** Share of the audio time the audio thread spent in the processor's process(), as the host measured it. */
+export interface RenderLoad {
+  /** Time in process() ÷ audio time rendered, averaged over about `averageSeconds`; 0…, above 1 the thread falls behind. */
+  fraction: number;
+  /** Clock that timed it: 'performance.now' (sub-millisecond), or 'Date.now' (1 ms steps: right only as an average over many blocks). */
+  clock: string;
+  /** Time constant of the running average in seconds of audio (1). */
+  averageSeconds: Seconds;
+}
 /** Periodic counters and voice monitors; VoiceMonitor.voice holds main-thread voice handles (−1 if unknown). */
 export interface StatsReport {
   type: 'stats';
@@ -105,6 +114,8 @@ export interface StatsReport {
   contextTime: Seconds;
   stats: EngineStats;
   voices: VoiceMonitor[];
+  /** Render load; null or absent where the host has no clock (or has not rendered yet). */
+  load?: RenderLoad | null;
 }
 /** Something failed on the audio thread; it was caught, counted and the output kept safe. */
 export interface ErrorReport {

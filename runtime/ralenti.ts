@@ -2,7 +2,7 @@
 import type { Easing, EngineSnapshot, EngineStats, PlayOptions, Seconds, Tuning, Vec3Like, VoiceMonitor } from '../src/index';
 import { parseTuning, MAX_TIME_SCALE } from '../src/tuning/index';
 import { TimeFlow } from '../src/dilation/index';
-import { commandTransfer, encodeSnapshot, type Command, type Report } from './protocol';
+import { commandTransfer, encodeSnapshot, type Command, type RenderLoad, type Report } from './protocol';
 import { RalentiOptionError, checkRange } from './runtime-error';
 import { RalentiSource } from './ralenti-source';
 
@@ -86,6 +86,8 @@ export class Ralenti {
   stats: EngineStats = EMPTY_STATS;
   /** Latest voice monitors from the worklet. */
   voices: VoiceMonitor[] = [];
+  /** Latest render load measured in the worklet; null until reported, or where the audio thread has no clock. */
+  renderLoad: RenderLoad | null = null;
   private current: Tuning;
   private readonly flow = new TimeFlow({ initial: 1 });
   private readonly sources: RalentiSource[] = [];
@@ -292,6 +294,7 @@ export class Ralenti {
       case 'stats':
         this.stats = r.stats;
         this.voices = r.voices;
+        this.renderLoad = r.load ?? null;
         return;
       case 'error':
         this.emitError({ where: r.where, message: r.message, count: r.count });

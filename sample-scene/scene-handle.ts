@@ -1,6 +1,7 @@
 // window.ralentiScene: a small read-only inspection handle for tests and curious visitors.
 import type { EngineStats, VoiceMonitor } from '../src';
 import type { TuningProblem } from '../editor';
+import type { RenderLoad } from '../runtime';
 import type { SceneAudio } from './scene-audio';
 import type { FlyThroughSummary } from './fly-through';
 
@@ -19,6 +20,8 @@ export interface RalentiSceneHandle {
   readonly slowMotion: boolean;
   readonly gameTime: number;
   readonly stats: EngineStats | null;
+  /** Render load measured in the worklet (share of audio time spent in process(), and the clock), or null. */
+  readonly load: RenderLoad | null;
   readonly voices: InspectedVoice[];
   /** The running tuning as JSON text (serializeTuning). */
   readonly tuningJson: string | null;
@@ -60,6 +63,10 @@ export function installSceneHandle(state: SceneState): RalentiSceneHandle {
     },
     get stats() {
       return state.audio ? { ...state.audio.ralenti.stats } : null;
+    },
+    get load() {
+      const l = state.audio?.ralenti.renderLoad;
+      return l ? { ...l } : null;
     },
     get voices() {
       const a = state.audio;

@@ -1,7 +1,8 @@
-// Live readouts: per-voice table (ratio in cents, radial speed, distance, cutoff), ratio graph, spectrum, engine load.
+// Live readouts: per-voice table (ratio in cents, radial speed, distance, cutoff), ratio graph, spectrum, engine load,
+// voice counts and the last audio-thread error.
 import type { FolderApi, Pane } from 'tweakpane';
 import type { EngineStats, VoiceMonitor } from '../../src';
-import type { RalentiAudioError } from '../../runtime';
+import type { RalentiAudioError, RenderLoad } from '../../runtime';
 import { RatioGraph, type RatioTrace } from '../monitors/ratio-graph';
 import { SpectrumView } from '../monitors/spectrum-view';
 
@@ -12,6 +13,20 @@ export interface NamedVoice {
   colour: string;
 }
 
+/** What the readouts show in one frame. */
+export interface ReadoutFrame {
+  /** The runtime's latest stats. */
+  stats: EngineStats;
+  /** The runtime's latest voice monitors. */
+  monitors: readonly VoiceMonitor[];
+  /** The engine's voice pool size (1…1024). */
+  capacity: number;
+  /** The latest error the audio thread reported (null: none yet). */
+  lastError: RalentiAudioError | null;
+  /** Render load measured in the worklet (null: not measured). */
+  load: RenderLoad | null;
+}
+
 /** Readouts section state, updated every frame by the panel. */
 export class ReadoutsSection {
   readonly folder: FolderApi;
@@ -19,7 +34,9 @@ export class ReadoutsSection {
   private readonly tableBody: HTMLTableSectionElement;
   private readonly graph: RatioGraph;
   private readonly voices: readonly NamedVoice[];
-  private readonly load = { active: 0, virtual: 0, steals: 0, clamps: 0, peakDb: -120, limiterDb: 0, poolUse: 0, errors: 0, tier: '', resampler: '' };
+  private readonly load = {
+    active: 0, virtual: 0, capacity: 0, steals: 0, clamps: 0, peakDb: -120, limiterDb: 0, loadPercent: 0, loadClock: '', errors: 0, tier: '', resampler: '',
+  };
   private readonly cents: number[];
   private readonly errorLine: HTMLDivElement;
   private shownError: RalentiAudioError | null = null;
@@ -41,11 +58,16 @@ export class ReadoutsSection {
     this.folder.addBlade({ view: 'ralenti-element', element: this.spectrum.element });
     const l = this.load;
     const fmt0 = (v: number) => v.toFixed(0);
-    this.folder.addBinding(l, 'active', { label: 'voices playing', readonly: true, format: fmt0 });
+    this.folder.addBinding(l, 'loadPercent', {
+      label: 'engine load',
+      readonly: true,
+      format: (v: number) => (l.loadClock ? `${v.toFixed(1)} % · ${l.loadClock === 'Date.now' ? '1 s avg (ms clock)' : '1 s avg'}` : 'not measured'),
+    });
+    this.folder.addBinding(l, 'loadPercent', { label: 'load history %', readonly: true, view: 'graph', min: 0, max: 100 });
+    this.folder.addBinding(l, 'active', { label: 'voices playing', readonly: true, format: (v: number) => `${v.toFixed(0)} of ${l.capacity}` });
     this.folder.addBinding(l, 'virtual', { label: 'voices virtual', readonly: true, format: fmt0 });
     this.folder.addBinding(l, 'peakDb', { label: 'peak out (dBFS)', readonly: true, format: (v: number) => v.toFixed(1) });
     this.folder.addBinding(l, 'limiterDb', { label: 'limiter (dB)', readonly: true, format: (v: number) => v.toFixed(1) });
-    this.folder.addBinding(l, 'poolUse', { label: 'voice pool use %', readonly: true, view: 'graph', min: 0, max: 100 });
     this.folder.addBinding(l, 'steals', { label: 'steals · clamps', readonly: true, format: () => `${l.steals} · ${l.clamps}` });
     this.folder.addBinding(l, 'errors', { label: 'audio errors', readonly: true, format: fmt0 });
     this.errorLine = doc.createElement('div');
@@ -55,11 +77,9 @@ export class ReadoutsSection {
     this.folder.addBinding(l, 'resampler', { label: 'resampler', readonly: true });
   }
 
-  /**
-   * Updates readouts from the runtime's latest stats and monitors; `capacity` is the engine's voice pool size,
-   * `lastError` the latest error the audio thread reported (null: none yet).
-   */
-  update(stats: EngineStats, monitors: readonly VoiceMonitor[], capacity: number, lastError: RalentiAudioError | null = null): void {
+  /** Updates the readouts for this animation frame. */
+  update(frame: ReadoutFrame): void {
+    const { stats, monitors, capacity, lastError, load } = frame;
     const l = this.load;
     if (lastError !== this.shownError) this.showError(lastError);
     l.active = stats.activeVoices;
@@ -72,7 +92,10 @@ export class ReadoutsSection {
     l.tier = stats.tier;
     // Tier and inner loop ('wasm-simd', or 'typescript' where the audio thread has no WebAssembly SIMD).
     l.resampler = `${stats.tier} · ${stats.kernel ?? '…'}`;
-    l.poolUse = (100 * (stats.activeVoices + stats.virtualVoices)) / Math.max(1, capacity);
+    l.capacity = capacity;
+    // Share of the audio thread's time spent in process(): above 100 % it cannot keep up and the output breaks up.
+    l.loadPercent = load && Number.isFinite(load.fraction) ? 100 * load.fraction : 0;
+    l.loadClock = load ? load.clock : '';
     this.voices.forEach((v, i) => {
       const m = monitors.find((x) => x.voice === v.voiceId);
       this.cents[i] = m ? m.ratioCents : NaN;

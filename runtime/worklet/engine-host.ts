@@ -3,7 +3,15 @@
 import { Engine } from '../../src/engine/index';
 import { parseTuning } from '../../src/tuning/index';
 import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
-import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type Report } from '../protocol';
+import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type RenderLoad, type Report } from '../protocol';
+
+/** A millisecond clock for timing process(), and its name (reported with the load). */
+export interface RenderClock {
+  /** 'performance.now' or 'Date.now'. */
+  name: string;
+  /** Current time in milliseconds (any origin). */
+  now: () => number;
+}
 
 /** What the host needs from its surroundings. */
 export interface EngineHostOptions {
@@ -14,12 +22,16 @@ export interface EngineHostOptions {
   processorOptions: ProcessorOptions;
   /** Sends a report to the main thread. */
   post: (report: Report) => void;
+  /** Clock that times process() for the render load; absent: the load is reported as null (not measured). */
+  clock?: RenderClock;
 }
 
 /** Error messages posted per stats interval at most. */
 const MAX_ERROR_REPORTS = 4;
 /** Voice monitors sent per stats report at most. */
 const MAX_MONITORS = 64;
+/** Time constant of the render-load average in seconds of audio: long enough to average Date.now's 1 ms steps. */
+const LOAD_AVERAGE_SECONDS = 1;
 
 /** One engine plus the main-thread ↔ engine handle maps; `process` never throws. */
 export class EngineHost {
@@ -43,10 +55,18 @@ export class EngineHost {
   private reportedErrors = 0;
   /** engine.stats.errors already accounted for (the engine catches its own render exceptions and counts them). */
   private engineErrors = 0;
+  private readonly clock: RenderClock | null;
+  /** Milliseconds in process() and of audio rendered since the last stats report. */
+  private busyMs = 0;
+  private audioMs = 0;
+  /** Exponentially weighted sums of the same (time constant LOAD_AVERAGE_SECONDS); their ratio is the load. */
+  private busyAvgMs = 0;
+  private audioAvgMs = 0;
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
     this.post = options.post;
+    this.clock = options.clock ?? null;
     this.sampleRate = options.sampleRate;
     this.timeOffset = options.startContextTime;
     this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning });
@@ -150,6 +170,7 @@ export class EngineHost {
    */
   process(output: Float32Array[] | undefined): boolean {
     if (!output || output.length === 0) return true;
+    const started = this.clock ? this.clock.now() : 0;
     const frames = output[0].length;
     try {
       if (this.faulted) {
@@ -177,7 +198,24 @@ export class EngineHost {
       this.reportedErrors = 0;
       this.sendStats();
     }
+    if (this.clock) {
+      // Timed after the stats so that their cost counts too (in the next report).
+      const elapsed = this.clock.now() - started;
+      if (elapsed > 0 && elapsed < 1e4) this.busyMs += elapsed; // a clock step backwards or a huge jump is not render time
+      this.audioMs += (1000 * frames) / this.sampleRate;
+    }
     return true;
+  }
+
+  /** Folds the time since the last report into the running average; null without a clock or before any audio. */
+  private renderLoad(): RenderLoad | null {
+    if (!this.clock || this.audioMs <= 0) return null;
+    const keep = Math.exp(-this.audioMs / (1000 * LOAD_AVERAGE_SECONDS));
+    this.busyAvgMs = this.busyAvgMs * keep + this.busyMs;
+    this.audioAvgMs = this.audioAvgMs * keep + this.audioMs;
+    this.busyMs = 0;
+    this.audioMs = 0;
+    return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS };
   }
 
   /** Renders through the stereo scratch pair when the node has a channel count other than 2. */
@@ -213,7 +251,7 @@ export class EngineHost {
         this.voices.delete(mainVoice);
       }
       const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
-      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices });
+      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad() });
     } catch (err) {
       this.fail('stats', errorMessage(err));
     }

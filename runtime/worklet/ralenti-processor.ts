@@ -1,5 +1,15 @@
 // The AudioWorkletProcessor: registration, message hand-off and one call into the engine host per render quantum.
-import { EngineHost } from './engine-host';
+import { EngineHost, type RenderClock } from './engine-host';
+
+/**
+ * The best clock the AudioWorkletGlobalScope offers: `performance` where it exists; Chromium does not expose it there
+ * (checked in Chromium 156), so Date.now, whose 1 ms steps average out over the host's one-second load average.
+ */
+function renderClock(): RenderClock {
+  const perf = (globalThis as { performance?: { now?: () => number } }).performance;
+  if (perf && typeof perf.now === 'function') return { name: 'performance.now', now: () => perf.now!() };
+  return { name: 'Date.now', now: Date.now };
+}
 import { PROCESSOR_NAME, type ProcessorOptions, type Report } from '../protocol';
 
 /** Hosts the Ralenti engine on the audio thread; process() never throws. */
@@ -15,6 +25,7 @@ class RalentiProcessor extends AudioWorkletProcessor {
         startContextTime: currentTime,
         processorOptions: options.processorOptions as ProcessorOptions,
         post,
+        clock: renderClock(),
       });
     } catch (err) {
       post({ type: 'error', where: 'construct', message: err instanceof Error ? err.message : String(err), count: 1 });

@@ -109,6 +109,16 @@ describe.skipIf(mode === 'skip')('sample scene and tuning panel in Chromium', ()
     for (const s of SECTIONS) expect(titles).toContain(s);
   });
 
+  it('measures the render load in the worklet and shows it as engine load in the readouts', async () => {
+    // Chromium's AudioWorkletGlobalScope has no `performance`: the processor times process() with Date.now.
+    const load = await page.waitForFunction(() => (window as unknown as { ralentiScene: { load: { fraction: number; clock: string } | null } }).ralentiScene.load, null, { timeout: 8000 });
+    const l = (await load.jsonValue()) as { fraction: number; clock: string; averageSeconds: number };
+    expect(['performance.now', 'Date.now']).toContain(l.clock);
+    expect(Number.isFinite(l.fraction) && l.fraction >= 0).toBe(true);
+    const shown = await page.locator('#panel .tp-lblv', { has: page.locator('.tp-lblv_l', { hasText: /^engine load$/ }) }).locator('input').inputValue();
+    expect(shown).toMatch(/^\d+\.\d % · 1 s avg/);
+  });
+
   it('shows every group name in full in the group tabs at 1280×720', async () => {
     const groups = Object.keys(JSON.parse((await handle(page)).tuningJson!).groups as object);
     const tabs = await page.locator('#panel .tp-tbiv_t').evaluateAll((els) =>
