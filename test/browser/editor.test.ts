@@ -153,6 +153,30 @@ describe.skipIf(mode === 'skip')('sample scene and tuning panel in Chromium', ()
     expect(keys.find((k) => k.x === 1)?.y).toBe(0.5);
   });
 
+  it('moves a curve key dragged with the mouse and applies it to the running tuning', async () => {
+    await page.locator('#panel .tp-tbiv', { hasText: 'ambience' }).click();
+    const key = page.locator('[data-curve="ambience · level"] circle[data-x="0.35"]');
+    await key.scrollIntoViewIfNeeded();
+    const box = (await key.boundingBox())!;
+    const keysOf = (json: string) => JSON.parse(json).groups.ambience.level.keys as { x: number; y: number }[];
+    const before = keysOf((await handle(page)).tuningJson!);
+    expect(before.find((k) => k.x === 0.35)?.y).toBe(-2);
+    const cx = box.x + box.width / 2;
+    const cy = box.y + box.height / 2;
+    await page.mouse.move(cx, cy);
+    await page.mouse.down();
+    for (let i = 1; i <= 5; i++) await page.mouse.move(cx, cy - 6 * i);
+    await page.mouse.up();
+    // Up the graph is louder: the key's level rises; it keeps its place among the keys.
+    const h = await waitFor(page, 'the dragged level key', (x) => keysOf(x.tuningJson!)[1].y > -1.5);
+    const after = keysOf(h.tuningJson!);
+    expect(after).toHaveLength(before.length);
+    expect(after[1].x).toBeGreaterThan(before[0].x);
+    expect(after[1].x).toBeLessThan(before[2].x);
+    expect(after[0]).toEqual(before[0]);
+    expect(after[2]).toEqual(before[2]);
+  });
+
   it('round-trips the tuning through download and load', async () => {
     const before = (await handle(page)).tuningJson!;
     const [download] = await Promise.all([page.waitForEvent('download'), page.locator('#panel button', { hasText: 'Download tuning' }).click()]);
