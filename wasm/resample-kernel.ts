@@ -6,7 +6,8 @@
 //
 // Table header at `table` (bytes): 0 i32 phases P · 4 i32 halfDense (= halfTaps·P) · 8 f64 stretchPerRatio ·
 // 16 i32 gridFloor (P+1 i32: largest grid stride ≤ m) · 20 i32 descByStride (P+1 i32: descriptor base per stride).
-// Descriptor of (stride s, sub-phase ci), 16 bytes: row0 ptr · row1 ptr · a1n (taps left of the centre) · count8.
+// Descriptor of (stride s, sub-phase ci), 32 bytes: row0 ptr · row1 ptr · a1n (taps left of the centre) · count8 ·
+// diff ptr (count8 floats row1 − row0, so that two-channel sources interpolate the taps once and share them).
 
 /** First free byte after the module's own data (the JavaScript allocator starts here). */
 export function heapBase(): usize {
@@ -25,11 +26,18 @@ export function rowFloats(total: i32, s: i32): i32 {
   return rho * (q + 8) + (rho < rem ? rho : rem);
 }
 
+/** Floats of the difference rows of one stride: count8 per sub-phase. */
+export function diffFloats(halfDense: i32, s: i32): i32 {
+  let n = 0;
+  for (let ci = 0; ci < s; ci++) n += (((halfDense - 1 - ci) / s + (halfDense + ci) / s + 1) + 7) & ~7;
+  return n;
+}
+
 /**
  * Lays out the stretched kernel of stride `s`: residue row ρ holds dense[K − m·s] for m = 0… (K = largest k ≤ total + 1
  * with k ≡ ρ mod s), so the taps of one output sample are contiguous and ascend with the source frame.
  */
-export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc: usize, rows: usize): void {
+export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc: usize, rows: usize, diffs: usize): void {
   const halfDense = load<i32>(table, 4);
   const count = total + 2;
   for (let rho = 0; rho < s; rho++) {
@@ -47,11 +55,20 @@ export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc
     const r1 = (k0 + 1) % s;
     const kTop0 = r0 + ((count - 1 - r0) / s) * s;
     const kTop1 = r1 + ((count - 1 - r1) / s) * s;
-    const d = desc + (<usize>ci << 4);
-    store<i32>(d, <i32>rows + ((rowBase(r0, s, count) + (kTop0 - k0) / s) << 2));
-    store<i32>(d, <i32>rows + ((rowBase(r1, s, count) + (kTop1 - k0 - 1) / s) << 2), 4);
+    const d = desc + (<usize>ci << 5);
+    const p0 = <usize>rows + (<usize>(rowBase(r0, s, count) + (kTop0 - k0) / s) << 2);
+    const p1 = <usize>rows + (<usize>(rowBase(r1, s, count) + (kTop1 - k0 - 1) / s) << 2);
+    const cnt8 = (cnt + 7) & ~7;
+    store<i32>(d, <i32>p0);
+    store<i32>(d, <i32>p1, 4);
     store<i32>(d, a1n, 8);
-    store<i32>(d, (cnt + 7) & ~7, 12);
+    store<i32>(d, cnt8, 12);
+    store<i32>(d, <i32>diffs, 16);
+    for (let j = 0; j < cnt8; j++) {
+      const jo = <usize>j << 2;
+      store<f32>(diffs + jo, load<f32>(p1 + jo) - load<f32>(p0 + jo));
+    }
+    diffs += <usize>cnt8 << 2;
   }
   store<i32>(load<i32>(table, 20) + (s << 2), <i32>desc);
 }
@@ -111,7 +128,7 @@ export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: 
     const c = (p - nf) * <f64>st;
     const ci = <i32>c;
     const f = c - <f64>ci;
-    const d = dbase + (<usize>ci << 4);
+    const d = dbase + (<usize>ci << 5);
     const row0 = <usize>load<i32>(d);
     const row1 = <usize>load<i32>(d, 4);
     const a1n = load<i32>(d, 8);
@@ -138,31 +155,27 @@ export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: 
       const yb = <f64>f32x4.extract_lane(u, 2);
       store<f32>(out0 + o, <f32>(scale * (ya + f * (yb - ya))));
     } else {
+      // Two channels: taps interpolated once (h = row0 + f·(row1 − row0)) and shared by both dot products.
       const xp = x0 + xo;
       const xq = x1 + xo;
+      const dp = <usize>load<i32>(d, 16);
+      const fv = f32x4.splat(<f32>f);
       let a0 = f32x4.splat(0);
       let b0 = f32x4.splat(0);
       let a1 = f32x4.splat(0);
       let b1 = f32x4.splat(0);
-      for (let j = 0; j < cnt; j += 4) {
+      for (let j = 0; j < cnt; j += 8) {
         const jo = <usize>j << 2;
-        const h0 = v128.load(row0 + jo);
-        const h1 = v128.load(row1 + jo);
-        const s0 = v128.load(xp + jo);
-        const s1 = v128.load(xq + jo);
-        a0 = f32x4.add(a0, f32x4.mul(h0, s0));
-        b0 = f32x4.add(b0, f32x4.mul(h1, s0));
-        a1 = f32x4.add(a1, f32x4.mul(h0, s1));
-        b1 = f32x4.add(b1, f32x4.mul(h1, s1));
+        const h0 = f32x4.add(v128.load(row0 + jo), f32x4.mul(fv, v128.load(dp + jo)));
+        const h1 = f32x4.add(v128.load(row0 + jo, 16), f32x4.mul(fv, v128.load(dp + jo, 16)));
+        a0 = f32x4.add(a0, f32x4.mul(h0, v128.load(xp + jo)));
+        b0 = f32x4.add(b0, f32x4.mul(h0, v128.load(xq + jo)));
+        a1 = f32x4.add(a1, f32x4.mul(h1, v128.load(xp + jo, 16)));
+        b1 = f32x4.add(b1, f32x4.mul(h1, v128.load(xq + jo, 16)));
       }
-      const u = pairSums(a0, b0);
-      const w = pairSums(a1, b1);
-      const ya = <f64>f32x4.extract_lane(u, 0);
-      const yb = <f64>f32x4.extract_lane(u, 2);
-      const za = <f64>f32x4.extract_lane(w, 0);
-      const zb = <f64>f32x4.extract_lane(w, 2);
-      store<f32>(out0 + o, <f32>(scale * (ya + f * (yb - ya))));
-      store<f32>(out1 + o, <f32>(scale * (za + f * (zb - za))));
+      const u = pairSums(f32x4.add(a0, a1), f32x4.add(b0, b1));
+      store<f32>(out0 + o, <f32>(scale * <f64>f32x4.extract_lane(u, 0)));
+      store<f32>(out1 + o, <f32>(scale * <f64>f32x4.extract_lane(u, 2)));
     }
     p += r;
     i++;

@@ -26,7 +26,8 @@ interface KernelExports {
   memory: WasmMemory;
   heapBase(): number;
   rowFloats(total: number, stride: number): number;
-  buildStride(table: number, dense: number, total: number, stride: number, desc: number, rows: number): void;
+  diffFloats(halfDense: number, stride: number): number;
+  buildStride(table: number, dense: number, total: number, stride: number, desc: number, rows: number, diffs: number): void;
   render(table: number, x0: number, x1: number, spanBase: number, out0: number, out1: number, pos: number, iStart: number, iEnd: number, frames: number, rs: number, dr: number, ratios: number, loopEnd: number, state: number): number;
 }
 
@@ -121,7 +122,8 @@ export class WasmKernel {
     const header = this.alloc(32 + 8 * (p + 1));
     const dense = this.alloc(4 * table.dense.length);
     let bytes = 0;
-    for (const s of table.strideGrid) bytes += align(16 * s) + align(4 * this.exports.rowFloats(total, s));
+    const halfDense = table.halfTaps * p;
+    for (const s of table.strideGrid) bytes += align(32 * s) + align(4 * this.exports.rowFloats(total, s)) + align(4 * this.exports.diffFloats(halfDense, s));
     const block = this.alloc(bytes);
     const h = header >> 2;
     this.i32[h] = p;
@@ -134,9 +136,10 @@ export class WasmKernel {
     let at = block;
     for (const s of table.strideGrid) {
       const desc = at;
-      const rows = desc + align(16 * s);
-      at = rows + align(4 * this.exports.rowFloats(total, s));
-      this.exports.buildStride(header, dense, total, s, desc, rows);
+      const rows = desc + align(32 * s);
+      const diffs = rows + align(4 * this.exports.rowFloats(total, s));
+      at = diffs + align(4 * this.exports.diffFloats(halfDense, s));
+      this.exports.buildStride(header, dense, total, s, desc, rows, diffs);
     }
     const smallest = table.strideGrid[table.strideGrid.length - 1];
     const need = spanFloatsFor(table.halfTaps * p, smallest);
