@@ -6,7 +6,7 @@ export { KernelTable, STRETCH_GRID_STEP } from './kernel-table';
 export type { KernelTableOptions } from './kernel-table';
 export { StreamReader } from './stream-reader';
 export type { StreamReaderOptions, StreamSourceOptions } from './stream-reader';
-export { wasmSimdSupported, activeKernel } from './wasm/wasm-kernel';
+export { wasmSimdSupported, activeKernel, WasmKernel } from './wasm/wasm-kernel';
 export type { KernelName, KernelPreference } from './wasm/wasm-kernel';
 export { resample } from './resample';
 export type { ResampleOptions } from './resample';

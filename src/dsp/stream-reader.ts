@@ -50,12 +50,16 @@ export class StreamReader {
   private lastStretch = 1;
   private readonly wasm: WasmKernel | null;
   private tablePtr = 0;
+  /** Byte offsets of the sources' resident copies in module memory (0 = none; spans are copied), as of `residentEpoch`. */
+  private readonly resident: Int32Array;
+  private residentEpoch = -1;
 
   /** Allocates scratch for `options.channels` channels and the table's widest (ratio 4) window. */
   constructor(options: StreamReaderOptions) {
     const channels = Math.max(1, Math.min(32, Math.floor(options.channels)));
     this.capacity = channels;
     this.sources = new Array<Float32Array>(channels).fill(EMPTY);
+    this.resident = new Int32Array(channels);
     this.scratch = [];
     this.weights = new Float64Array(0);
     const kernel = options.kernel ?? 'auto';
@@ -97,6 +101,7 @@ export class StreamReader {
     for (let c = count; c < this.capacity; c++) this.sources[c] = EMPTY;
     this.channelsInUse = count;
     this.length = len;
+    this.residentEpoch = -1;
     this.loop = options?.loop === true && len > 0;
     let ls = Math.floor(options?.loopStart ?? 0);
     let le = Math.floor(options?.loopEnd ?? len);
@@ -248,9 +253,11 @@ export class StreamReader {
   }
 
   /**
-   * The same block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once, the
-   * source span the run can touch is copied (wrapped or silent as `mapIndex` says) into module memory, and the kernel
-   * runs until the run ends or a loop wraps (the wrap and the next span are handled here, as the reference does).
+   * The same block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once; the
+   * kernel reads a source in place when it is resident (WasmKernel.upload) and the span the run can touch lies inside
+   * the readable region, else that span is copied (wrapped or silent as `mapIndex` says) into module memory; outputs
+   * that are views of module memory are written in place. The kernel runs until the run ends or a loop wraps (the wrap
+   * and the next span are handled here, as the reference does).
    */
   private renderWasm(k: WasmKernel, out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
     const t = this.table;
@@ -258,6 +265,10 @@ export class StreamReader {
     const halfDense = t.halfTaps * t.phases;
     const loopEnd = this.loop ? this.loopEnd : Infinity;
     const reMax = rs + dr > rs ? rs + dr : rs;
+    if (this.residentEpoch !== k.residentEpoch) {
+      for (let c = 0; c < chans; c++) this.resident[c] = k.residentOf(this.sources[c]);
+      this.residentEpoch = k.residentEpoch;
+    }
     for (let run = 0; run < frames; ) {
       const runEnd = frames - run < RUN_FRAMES ? frames : run + RUN_FRAMES;
       let rmax = reMax;
@@ -276,14 +287,33 @@ export class StreamReader {
         const lower = Math.floor(this.pos) - halfW;
         const upper = Math.floor(this.pos + (runEnd - i) * rmax + 1) + halfW + 10;
         const dp = ratios === null ? 0 : k.ratios + 8 * (i - run);
+        const inside = lower >= (this.loop && this.wrapped ? this.loopStart : 0) && upper <= (this.loop ? this.loopEnd : this.length);
+        const mem = k.f32.buffer;
         let done = 0;
         for (let c = 0; c < chans; c += 2) {
           const pair = c + 1 < chans;
-          this.copySpan(k.f32, k.span0 >> 2, this.sources[c], lower, upper);
-          if (pair) this.copySpan(k.f32, k.span1 >> 2, this.sources[c + 1], lower, upper);
-          done = k.exports.render(this.tablePtr, k.span0, pair ? k.span1 : 0, lower, k.out0, k.out1, this.pos, i, runEnd, frames, rs, dr, dp, loopEnd, k.state);
-          out[c].set(k.outViews0[done], o + i);
-          if (pair) out[c + 1].set(k.outViews1[done], o + i);
+          const r0 = inside ? this.resident[c] : 0;
+          const r1 = pair && inside ? this.resident[c + 1] : 0;
+          let x0 = k.span0;
+          let x1 = pair ? k.span1 : 0;
+          let base = lower;
+          if (r0 !== 0 && (!pair || r1 !== 0)) {
+            x0 = r0;
+            x1 = r1;
+            base = 0;
+          } else {
+            this.copySpan(k.f32, k.span0 >> 2, this.sources[c], lower, upper);
+            if (pair) this.copySpan(k.f32, k.span1 >> 2, this.sources[c + 1], lower, upper);
+          }
+          const y0 = out[c];
+          const y1 = pair ? out[c + 1] : y0;
+          const direct0 = y0.buffer === mem;
+          const direct1 = y1.buffer === mem;
+          const o0 = direct0 ? y0.byteOffset + 4 * (o + i) : k.out0;
+          const o1 = direct1 ? y1.byteOffset + 4 * (o + i) : k.out1;
+          done = k.exports.render(this.tablePtr, x0, x1, base, o0, o1, this.pos, i, runEnd, frames, rs, dr, dp, loopEnd, k.state);
+          if (!direct0) y0.set(k.outViews0[done], o + i);
+          if (pair && !direct1) y1.set(k.outViews1[done], o + i);
         }
         let p = k.f64[k.state >> 3];
         if (this.loop && p >= this.loopEnd) {

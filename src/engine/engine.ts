@@ -3,7 +3,7 @@
 import type { Hz, Seconds } from '../units';
 import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, TimeScaleRequest, VoiceMonitor } from './engine-types';
 import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
-import { KernelTable } from '../dsp';
+import { KernelTable, WasmKernel } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
@@ -25,6 +25,21 @@ export const engineDefaults = Object.freeze({
 });
 
 const HANDLE_SLOTS = 2048;
+
+/** What an engine holds in the shared kernel's memory, given back when the engine is collected. */
+interface KernelHold {
+  kernel: WasmKernel;
+  scratchAt: number;
+  scratchBytes: number;
+  kept: Float32Array[][];
+}
+const kernelHolds =
+  typeof FinalizationRegistry === 'function'
+    ? new FinalizationRegistry<KernelHold>((h) => {
+        for (const list of h.kept) for (const x of list) h.kernel.discard(x);
+        h.kernel.release(h.scratchAt, h.scratchBytes);
+      })
+    : null;
 const GENERATIONS = 1 << 20;
 
 function checkRange(name: string, v: number, min: number, max: number): number {
@@ -48,8 +63,15 @@ export class Engine {
   private readonly mapper: TargetMapper;
   private readonly limiter: PeakLimiter;
   private readonly scratch: VoiceScratch;
-  private readonly mixL: Float32Array;
-  private readonly mixR: Float32Array;
+  private mixL: Float32Array;
+  private mixR: Float32Array;
+  /** The WebAssembly kernel the voices run on, or null (TypeScript kernel). */
+  private readonly wasm: WasmKernel | null;
+  /** Byte offset of the voice scratch and mix bus in module memory (4 × maxBlockFrames floats), when `wasm`. */
+  private wasmScratch = 0;
+  /** Per sound slot: the bank's channel list whose arrays were uploaded (residentKept) to module memory, until the slot is freed or reused. */
+  private readonly residentSounds: (readonly Float32Array[] | null)[];
+  private readonly residentKept: Float32Array[][];
   private readonly input: VoiceInput;
   private readonly probe: Voice['targets'] = createVoiceTargets();
   private tuning: Tuning;
@@ -84,9 +106,18 @@ export class Engine {
     }
     const buf = () => new Float32Array(this.maxBlock);
     const stereo = [buf(), buf()];
-    this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()] };
+    this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()], wasm: null };
     this.mixL = buf();
     this.mixR = buf();
+    this.wasm = this.voices[0].reader.kernelName === 'wasm-simd' ? WasmKernel.shared() : null;
+    this.residentSounds = new Array(this.bank.channels.length).fill(null);
+    this.residentKept = Array.from({ length: this.bank.channels.length }, () => []);
+    if (this.wasm !== null) {
+      // Voice scratch and mix bus in module memory: the kernel writes and the module mixes there, with no copies.
+      this.wasmScratch = this.wasm.allocFloats(4 * this.maxBlock);
+      kernelHolds?.register(this, { kernel: this.wasm, scratchAt: this.wasmScratch, scratchBytes: 16 * this.maxBlock, kept: this.residentKept });
+      this.bindScratch();
+    }
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null };
     this.stats = {
       activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
@@ -108,7 +139,39 @@ export class Engine {
   addSound(channels: readonly Float32Array[], sampleRate: Hz): number {
     const id = this.bank.add(channels, sampleRate);
     if (id < 0) this.stats.refused++;
+    else if (this.wasm !== null) this.makeResident(this.bank.slot(id));
     return id;
+  }
+
+  /** Uploads slot `s`'s channels to module memory (read in place by the kernel), dropping those of freed slots first. */
+  private makeResident(s: number): void {
+    const k = this.wasm!;
+    for (let i = 0; i < this.residentSounds.length; i++) {
+      const held = this.residentSounds[i];
+      if (held === null || this.bank.channels[i] === held) continue;
+      for (const x of this.residentKept[i]) k.discard(x);
+      this.residentKept[i].length = 0;
+      this.residentSounds[i] = null;
+    }
+    const chans = this.bank.channels[s]!;
+    for (const x of chans) if (k.upload(x)) this.residentKept[s].push(x);
+    this.residentSounds[s] = chans;
+    this.bindScratch();
+  }
+
+  /** (Re)creates the views of the scratch and mix bus in module memory (after construction and after memory grew). */
+  private bindScratch(): void {
+    const k = this.wasm;
+    if (k === null || this.scratch.wasm !== null && this.mixL.buffer === k.f32.buffer) return;
+    const buf = k.f32.buffer;
+    const n = this.maxBlock;
+    const at = this.wasmScratch;
+    this.scratch.stereo[0] = new Float32Array(buf, at, n);
+    this.scratch.stereo[1] = new Float32Array(buf, at + 4 * n, n);
+    this.scratch.mono[0] = this.scratch.stereo[0];
+    this.mixL = new Float32Array(buf, at + 8 * n, n);
+    this.mixR = new Float32Array(buf, at + 12 * n, n);
+    this.scratch.wasm = k;
   }
 
   /** Removes a sound; its voices fade out (default stop fade) and the slot frees once they are silent. */
@@ -209,6 +272,7 @@ export class Engine {
       if (v.state !== VOICE_FREE) v.followsTime = this.mapper.group(v.group).followsSpeed;
     }
     this.stats.tier = t.resampler.tier;
+    this.bindScratch(); // a new tier's tables may have grown module memory
   }
 
   /** Stores a gameplay snapshot; positions glide from the previous one across the snapshot interval. */
@@ -230,6 +294,7 @@ export class Engine {
   render(outputs: readonly Float32Array[], frames: number): void {
     const st = this.stats;
     try {
+      if (this.wasm !== null && this.mixL.buffer !== this.wasm.f32.buffer) this.bindScratch(); // memory grew elsewhere
       st.peakIn = 0;
       st.peakOut = 0;
       for (let done = 0; done < frames; ) {

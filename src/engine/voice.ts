@@ -1,6 +1,6 @@
 // One voice of the engine: smoothing of its targets (ratio in cents, cutoff in log frequency, gains in dB,
 // setTargetAtTime-style one-pole smoothing), band-limited resampling, dilation-tone low-pass and the mix.
-import { BiquadLowpass, OnePoleSmoother, KernelTable, StreamReader, MAX_RATIO, MIN_RATIO, type KernelPreference } from '../dsp';
+import { BiquadLowpass, OnePoleSmoother, KernelTable, StreamReader, MAX_RATIO, MIN_RATIO, type KernelPreference, type WasmKernel } from '../dsp';
 import { createVoiceTargets, type VoiceTargets } from '../dilation';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { Hz, Seconds } from '../units';
@@ -44,6 +44,8 @@ export interface VoiceScratch {
   mono: Float32Array[];
   /** Copy of the unfiltered signal for the bypass crossfade (2 × maxBlockFrames). */
   dry: Float32Array[];
+  /** The WebAssembly kernel when `stereo` and the mix bus are views of its memory (the mix then runs in the module), else null. */
+  wasm: WasmKernel | null;
 }
 
 /** A voice slot: state, resampler, filter and smoothers, all allocated once. */
@@ -214,6 +216,13 @@ export class Voice {
     const gr0 = rightStart * envStart;
     const dgl = (leftEnd * envEnd - gl0) / frames;
     const dgr = (rightEnd * envEnd - gr0) / frames;
+    const k = scratch.wasm;
+    if (k !== null) {
+      // The same mix in the module (f64 lanes, the same operations): the buffers are views of its memory.
+      const finite = k.exports.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames, gl0, dgl, gr0, dgr);
+      if (finite === 0) this.filter.reset();
+      return this.alive(envEnd);
+    }
     let check = 0;
     for (let i = 0; i < frames; i++) {
       const a = x0[i];

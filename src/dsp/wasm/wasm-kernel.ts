@@ -17,17 +17,20 @@ export interface WasmApi {
   Instance: new (module: object, imports: object) => { exports: object };
 }
 
-interface WasmMemory {
+/** The part of WebAssembly.Memory used here. */
+export interface WasmMemory {
   readonly buffer: ArrayBuffer;
   grow(pages: number): number;
 }
 
-interface KernelExports {
+/** The module's exports (byte offsets into its memory as numbers). */
+export interface KernelExports {
   memory: WasmMemory;
   heapBase(): number;
   rowFloats(total: number, stride: number): number;
   diffFloats(halfDense: number, stride: number): number;
   buildStride(table: number, dense: number, total: number, stride: number, desc: number, rows: number, diffs: number): void;
+  mix(x0: number, x1: number, mixL: number, mixR: number, frames: number, gl0: number, dgl: number, gr0: number, dgr: number): number;
   render(table: number, x0: number, x1: number, spanBase: number, out0: number, out1: number, pos: number, iStart: number, iEnd: number, frames: number, rs: number, dr: number, ratios: number, loopEnd: number, state: number): number;
 }
 
@@ -80,8 +83,13 @@ export class WasmKernel {
   readonly outViews1: Float32Array[] = [];
   /** Floats each span holds. */
   spanFloats = 0;
+  /** Counts discards of resident sources: a reader re-reads its pointers when this changed since its setSource. */
+  residentEpoch = 0;
   private top: number;
   private readonly tables = new Map<KernelTable, number>();
+  private readonly resident = new Map<Float32Array, { at: number; bytes: number; users: number }>();
+  private readonly freeAt: number[] = [];
+  private readonly freeBytes: number[] = [];
 
   private constructor(exports: KernelExports) {
     this.exports = exports;
@@ -152,12 +160,90 @@ export class WasmKernel {
     return header;
   }
 
+  /**
+   * Copies `x` into module memory (followed by 16 zeros) so that the kernel reads it in place; counted per caller.
+   * False (nothing kept) when `x` holds a non-finite sample or memory cannot grow: readers then copy spans as before.
+   * Allocates; not on the audio path. Later changes to `x` are not seen by the resident copy.
+   */
+  upload(x: Float32Array): boolean {
+    const known = this.resident.get(x);
+    if (known !== undefined) {
+      known.users++;
+      return true;
+    }
+    for (let i = 0; i < x.length; i++) if (!(x[i] - x[i] === 0)) return false;
+    const bytes = align(4 * (x.length + 16));
+    let at: number;
+    try {
+      at = this.take(bytes);
+    } catch {
+      return false; // memory.grow refused (RangeError): keep the span copies
+    }
+    this.f32.set(x, at >> 2);
+    this.f32.fill(0, (at >> 2) + x.length, (at + bytes) >> 2);
+    this.resident.set(x, { at, bytes, users: 1 });
+    return true;
+  }
+
+  /** Drops one use of `x`'s resident copy (from `upload`); its memory is reused once no caller holds it. */
+  discard(x: Float32Array): void {
+    const r = this.resident.get(x);
+    if (r === undefined || --r.users > 0) return;
+    this.resident.delete(x);
+    this.release(r.at, r.bytes);
+    this.residentEpoch++;
+  }
+
+  /** Returns `bytes` at byte offset `at` (from `allocFloats`) for reuse. */
+  release(at: number, bytes: number): void {
+    this.freeAt.push(at);
+    this.freeBytes.push(align(bytes));
+  }
+
+  /** First fit among released blocks, else new memory at the top (may grow memory; throws RangeError when it cannot). */
+  private take(bytes: number): number {
+    for (let k = 0; k < this.freeAt.length; k++) {
+      if (this.freeBytes[k] < bytes) continue;
+      const at = this.freeAt[k];
+      this.freeAt[k] += bytes;
+      this.freeBytes[k] -= bytes;
+      if (this.freeBytes[k] === 0) {
+        this.freeAt.splice(k, 1);
+        this.freeBytes.splice(k, 1);
+      }
+      return at;
+    }
+    return this.alloc(bytes);
+  }
+
+  /** Byte offset of `x`'s resident copy, or 0 when it has none. */
+  residentOf(x: Float32Array): number {
+    const r = this.resident.get(x);
+    return r === undefined ? 0 : r.at;
+  }
+
+  /** Byte offset of `floats` new zeroed floats in module memory (allocates; views of it detach when memory grows: compare their `.buffer` with `f32.buffer`). */
+  allocFloats(floats: number): number {
+    const at = this.take(align(4 * floats));
+    this.f32.fill(0, at >> 2, (at >> 2) + floats);
+    return at;
+  }
+
   private alloc(bytes: number): number {
     const at = this.top;
-    this.top = align(at + bytes);
+    const top = align(at + bytes);
     const mem = this.exports.memory;
     const have = mem.buffer.byteLength;
-    if (this.top > have) mem.grow(Math.ceil((this.top - have) / 65536));
+    // Grow with 25 % headroom so that a run of uploads does not grow (and detach views) every time.
+    if (top > have) {
+      const need = Math.ceil((top - have) / 65536);
+      try {
+        mem.grow(Math.max(need, Math.ceil(have / 4 / 65536)));
+      } catch {
+        mem.grow(need);
+      }
+    }
+    this.top = top;
     this.refresh();
     return at;
   }
