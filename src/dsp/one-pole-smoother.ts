@@ -17,6 +17,9 @@ export class OnePoleSmoother {
   value: number;
   private tau: Seconds;
   private readonly sampleRate: Hz;
+  /** e^(−frames/(τ·rate)) for `lastFrames` (recomputed only when the frame count or τ changes). */
+  private decay = 1;
+  private lastFrames = -1;
 
   /** See OnePoleSmootherOptions. */
   constructor(options: OnePoleSmootherOptions) {
@@ -29,6 +32,7 @@ export class OnePoleSmoother {
   /** Sets τ in seconds (negative or non-finite → 0). */
   setTimeConstant(seconds: Seconds): void {
     this.tau = Number.isFinite(seconds) && seconds > 0 ? seconds : 0;
+    this.lastFrames = -1;
   }
 
   /** Jumps to `value` (non-finite → 0). */
@@ -43,7 +47,11 @@ export class OnePoleSmoother {
       this.value = target;
       return target;
     }
-    this.value = target + (this.value - target) * Math.exp(-frames / (this.tau * this.sampleRate));
+    if (frames !== this.lastFrames) {
+      this.decay = Math.exp(-frames / (this.tau * this.sampleRate));
+      this.lastFrames = frames;
+    }
+    this.value = target + (this.value - target) * this.decay;
     return this.value;
   }
 }

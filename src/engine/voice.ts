@@ -89,6 +89,21 @@ export class Voice {
   private startRatio = 1;
   private startLeft = 0;
   private startRight = 0;
+  // Last inputs and results of the per-block logarithms and powers (targets often repeat from block to block).
+  private memoRatio = NaN;
+  private memoDoppler = NaN;
+  private memoRatioCents = 0;
+  private memoDopplerCents = 0;
+  private memoCutoffHz = NaN;
+  private memoCutoffLog2 = 0;
+  private memoLeft = NaN;
+  private memoLeftDb = 0;
+  private memoRight = NaN;
+  private memoRightDb = 0;
+  private memoLeftEndDb = NaN;
+  private memoLeftEnd = 0;
+  private memoRightEndDb = NaN;
+  private memoRightEnd = 0;
   private readonly sampleRate: Hz;
 
   /** Allocates the voice's resampler (2 channels), filter and smoothers. */
@@ -146,11 +161,31 @@ export class Voice {
       this.envTarget = frozen ? 0 : 1;
       if (frozen) this.thawing = true;
     }
-    const ratioTarget = 1200 * Math.log2(t.ratio / t.doppler);
-    const dopplerTarget = 1200 * Math.log2(t.doppler);
-    const cutoffTarget = Math.log2(t.cutoffHz);
-    const leftTarget = gainToDbFloor(t.gain * t.left);
-    const rightTarget = gainToDbFloor(t.gain * t.right);
+    if (t.ratio !== this.memoRatio || t.doppler !== this.memoDoppler) {
+      this.memoRatio = t.ratio;
+      this.memoDoppler = t.doppler;
+      this.memoRatioCents = 1200 * Math.log2(t.ratio / t.doppler);
+      this.memoDopplerCents = 1200 * Math.log2(t.doppler);
+    }
+    if (t.cutoffHz !== this.memoCutoffHz) {
+      this.memoCutoffHz = t.cutoffHz;
+      this.memoCutoffLog2 = Math.log2(t.cutoffHz);
+    }
+    const gl = t.gain * t.left;
+    const gr = t.gain * t.right;
+    if (gl !== this.memoLeft) {
+      this.memoLeft = gl;
+      this.memoLeftDb = gainToDbFloor(gl);
+    }
+    if (gr !== this.memoRight) {
+      this.memoRight = gr;
+      this.memoRightDb = gainToDbFloor(gr);
+    }
+    const ratioTarget = this.memoRatioCents;
+    const dopplerTarget = this.memoDopplerCents;
+    const cutoffTarget = this.memoCutoffLog2;
+    const leftTarget = this.memoLeftDb;
+    const rightTarget = this.memoRightDb;
     if (this.fresh) {
       this.fresh = false;
       this.ratioCents.reset(ratioTarget);
@@ -173,8 +208,18 @@ export class Voice {
     const rc = this.ratioCents.advance(ratioTarget, frames);
     const dc = this.dopplerCents.advance(dopplerTarget, frames);
     const ratioEnd = rc === ratioTarget && dc === dopplerTarget ? clampRatio(t.ratio) : clampRatio(Math.pow(2, (rc + dc) / 1200));
-    const leftEnd = dbToGainFloor(this.leftDb.advance(leftTarget, frames));
-    const rightEnd = dbToGainFloor(this.rightDb.advance(rightTarget, frames));
+    const leftEndDb = this.leftDb.advance(leftTarget, frames);
+    const rightEndDb = this.rightDb.advance(rightTarget, frames);
+    if (leftEndDb !== this.memoLeftEndDb) {
+      this.memoLeftEndDb = leftEndDb;
+      this.memoLeftEnd = dbToGainFloor(leftEndDb);
+    }
+    if (rightEndDb !== this.memoRightEndDb) {
+      this.memoRightEndDb = rightEndDb;
+      this.memoRightEnd = dbToGainFloor(rightEndDb);
+    }
+    const leftEnd = this.memoLeftEnd;
+    const rightEnd = this.memoRightEnd;
     const envStart = this.env;
     const rising = this.envTarget > envStart;
     const step = (rising ? (this.thawing ? this.freezeStep : this.attackStep) : this.state === VOICE_RELEASING ? this.releaseStep : this.freezeStep) * frames;
