@@ -2,6 +2,7 @@
 // loops, a jet pass now and then, pops and chimes as one-shots), time-scale changes and tuning swaps — with figures.
 import { Engine, type EngineSnapshot } from '../src/engine';
 import { defaultTuning, parseTuning, serializeTuning, type Tuning } from '../src/tuning';
+import { seededRandom } from '../src/random';
 
 /** Options of runSoak. */
 export interface SoakOptions {
@@ -52,16 +53,7 @@ const SNAPSHOT_BLOCKS = 6;
 const DRONES = 12;
 const JET = 100;
 
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = seededRandom;
 
 /** Generated sounds: a buzzing rotor loop, a jet roar loop (noise), a pop, a chime, wind (stereo noise loop). */
 function sounds(random: () => number): { channels: Float32Array[]; rate: number }[] {

@@ -1,5 +1,6 @@
 // Procedural sounds of the sample scene, made in code at start (additive and subtractive synthesis).
 import type { Hz, Seconds } from '../src/units';
+import { seededRandom } from '../src/random';
 
 /** A mono sound as the runtime's `load` accepts it. */
 export interface GeneratedSound {
@@ -7,16 +8,10 @@ export interface GeneratedSound {
   sampleRate: Hz;
 }
 
-/** Deterministic pseudo-random numbers in [−1, 1) (mulberry32), so every start sounds the same. */
+/** Deterministic pseudo-random numbers in [−1, 1), so every start sounds the same. */
 function noiseSource(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 2147483648 - 1;
-  };
+  const rnd = seededRandom(seed);
+  return () => 2 * rnd() - 1;
 }
 
 /** Length in frames of a loop holding a whole number of periods of `baseHz`, close to `seconds`. */

@@ -1,16 +1,7 @@
 // Test signals generated in code: seeded noise, sines and harmonic tones, phase-integrated sweeps.
+import { seededRandom } from '../../src/random';
 
-/** Seeded uniform generator in [0, 1) (mulberry32 — common practice for reproducible test noise). */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom };
 
 /** White noise, uniform in [−amplitude, amplitude), from a seed. */
 export function whiteNoise(frames: number, seed: number, amplitude = 0.5): Float32Array {

@@ -2,6 +2,7 @@
 // real FFT (fft.js), component power summed over ±8 bins; shared by test/dsp and bench/resampler.bench.ts.
 import FFT from 'fft.js';
 import { besselI0 } from '../../src/dsp';
+import { seededRandom } from '../../src/random';
 
 /** Metric constants: sample rate, signal length, skip, FFT size, tone amplitude. */
 export const METRIC = Object.freeze({
@@ -21,16 +22,7 @@ export const metricFrequencies: readonly number[] = Object.freeze(
 );
 
 /** Seeded uniform generator in [0, 1) (mulberry32, common practice). */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom };
 
 let multisineCache: Float32Array | null = null;
 

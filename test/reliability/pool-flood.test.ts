@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { setFlagsFromString } from 'node:v8';
 import { runInNewContext } from 'node:vm';
 import { Engine, engineDefaults, type VoiceMonitor } from '../../src/engine';
+import { seededRandom } from '../../src/random';
 
 const SR = 48000;
 const CAPACITY = 16;
@@ -17,16 +18,7 @@ const PRIORITIES = [50, 100, 150];
 const GAINS = [0.5, 0.75, 1];
 
 /** Seeded PRNG (mulberry32, common practice). */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const prng = seededRandom;
 
 interface ModelVoice {
   handle: number;

@@ -5,18 +5,13 @@ import { evaluateMotion } from '../../../runtime/offline/scene-motion';
 import { loadScene } from '../../../runtime/offline/render-scene';
 import { checkScene } from '../../../runtime/check';
 import { defaultTuning, serializeTuning } from '../../../src/tuning';
+import { seededRandom } from '../../../src/random';
 
 const orientation = { forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } };
 
 /** Seeded frame intervals of 0.8…1.2 × 1/60 s (mulberry32, common practice), as a browser's animation frames jitter. */
 function frameTimes(seconds: number, seed: number): number[] {
-  let a = seed >>> 0;
-  const rnd = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = Math.imul(a ^ (a >>> 15), a | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const rnd = seededRandom(seed);
   const out = [100];
   while (out[out.length - 1] < 100 + seconds) out.push(out[out.length - 1] + (1 / 60) * (0.8 + 0.4 * rnd()));
   return out;
