@@ -1,6 +1,7 @@
 // Tuning file section: download, load a file (problems listed by JSON path), reset, autosave; and the A/B section.
 import type { FolderApi, Pane } from 'tweakpane';
 import type { TuningProblem } from '../tuning-store';
+import { createJsonFileInput } from './json-file-input';
 
 /** Callbacks of the tuning file section. */
 export interface FileActions {
@@ -23,19 +24,7 @@ export class FileSection {
     this.doc = doc;
     this.folder = pane.addFolder({ title: 'Tuning file' });
     this.folder.addButton({ title: 'Download tuning (.json)' }).on('click', () => actions.download());
-    this.input = doc.createElement('input');
-    this.input.type = 'file';
-    this.input.accept = '.json,application/json';
-    this.input.id = 'ralenti-tuning-file';
-    this.input.style.display = 'none';
-    this.input.addEventListener('change', async () => {
-      const file = this.input.files?.[0];
-      if (!file) return;
-      const text = await file.text();
-      this.input.value = '';
-      actions.loadText(text, file.name);
-    });
-    doc.body.appendChild(this.input);
+    this.input = createJsonFileInput(doc, 'ralenti-tuning-file', (text, name) => actions.loadText(text, name));
     this.folder.addButton({ title: 'Load tuning file…' }).on('click', () => this.input.click());
     this.folder.addButton({ title: 'Reset to built-in tuning' }).on('click', () => actions.reset());
     this.folder.addBinding(actions.autosave, 'enabled', { label: 'autosave (browser)' }).on('change', () => actions.autosaveChanged());

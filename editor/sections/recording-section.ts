@@ -1,5 +1,6 @@
 // "Fly-through recording" section: start/stop a recording, download it as a scene script, load a script, replay it.
 import type { ButtonApi, FolderApi, Pane } from 'tweakpane';
+import { createJsonFileInput } from './json-file-input';
 
 /** One problem of a loaded scene script: JSON path ('' = the document) and message. */
 export interface ScriptProblem {
@@ -67,19 +68,7 @@ export class RecordingSection {
     this.folder.addBlade({ view: 'ralenti-element', element: this.status });
     this.download = this.folder.addButton({ title: 'Download scene script (.json)' });
     this.download.on('click', () => controls.download());
-    this.input = doc.createElement('input');
-    this.input.type = 'file';
-    this.input.accept = '.json,application/json';
-    this.input.id = 'ralenti-scene-file';
-    this.input.style.display = 'none';
-    this.input.addEventListener('change', async () => {
-      const file = this.input.files?.[0];
-      if (!file) return;
-      const text = await file.text();
-      this.input.value = '';
-      controls.loadText(text, file.name);
-    });
-    doc.body.appendChild(this.input);
+    this.input = createJsonFileInput(doc, 'ralenti-scene-file', (text, name) => controls.loadText(text, name));
     this.folder.addButton({ title: 'Load scene script…' }).on('click', () => this.input.click());
     this.replay = this.folder.addButton({ title: 'Replay' });
     this.replay.on('click', () => controls.toggleReplay());
