@@ -135,7 +135,10 @@ export class Engine {
     return this.tuning;
   }
 
-  /** Stores a decoded sound (1 or 2 channels, equal lengths, any rate up to 768 kHz); returns its id, or −1 (counted in refused). */
+  /**
+   * Stores a decoded sound (1 or 2 channels, equal lengths, any rate up to 768 kHz); returns its id, or −1 (counted in refused).
+   * On the wasm kernel the samples are copied into module memory here: later changes to the arrays are not heard.
+   */
   addSound(channels: readonly Float32Array[], sampleRate: Hz): number {
     const id = this.bank.add(channels, sampleRate);
     if (id < 0) this.stats.refused++;
