@@ -162,7 +162,8 @@ export class StreamReader {
 
   /** The block loop: ratio per sample from (rs, dr) or from `ratios`; a mono in-range fast path, the general path otherwise. */
   private render(out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
-    if (this.wasm !== null) {
+    // With no source set there is nothing to hand the module: the reference path reads its defined silence.
+    if (this.wasm !== null && this.channelsInUse > 0) {
       this.renderWasm(this.wasm, out, o, frames, rs, dr, ratios, ro);
       return;
     }
@@ -322,6 +323,12 @@ export class StreamReader {
         }
         this.pos = p;
         this.lastStretch = t.phases / k.i32[(k.state >> 2) + 2];
+        if (done <= 0) {
+          // The module made no progress (it never should): output silence for the rest of the run rather than spin.
+          for (let c = 0; c < chans; c++) out[c].fill(0, o + i, o + runEnd);
+          this.clampCount++;
+          break;
+        }
         i += done;
       }
       run = runEnd;
