@@ -133,7 +133,9 @@ describe('Engine voice pool', () => {
     const settled = process.memoryUsage().heapUsed;
     // Retained growth after collection: none beyond noise. Transient garbage (V8 boxes doubles returned from
     // calls that are not inlined) stays small per cycle; an array or closure per call would be far larger.
-    expect(settled - before).toBeLessThan(64 * 1024);
+    // The bound leaves room for V8's own bookkeeping (feedback vectors, code metadata) that a loaded machine
+    // can shift by tens of KB, yet any retention per cycle shows: 8 bytes × 100,000 cycles = 800 KB.
+    expect(settled - before).toBeLessThan(512 * 1024);
     expect((after - before) / 100000).toBeLessThan(256);
     expect(engine.stats.errors).toBe(0);
   });
@@ -165,7 +167,8 @@ describe('Engine voice pool', () => {
     const after = process.memoryUsage().heapUsed;
     gc();
     const settled = process.memoryUsage().heapUsed;
-    expect(settled - before).toBeLessThan(64 * 1024);
+    // Retention of 8 bytes per voice and block would show: 1,200 blocks × 16 voices × 8 B = 154 KB.
+    expect(settled - before).toBeLessThan(128 * 1024);
     expect((after - before) / 1200 / 16).toBeLessThan(1024); // transient bytes per voice and block, see above
     expect(engine.stats.errors).toBe(0);
   });
