@@ -7,8 +7,11 @@ import { KernelTable, WasmKernel } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
-import { PeakLimiter } from './peak-limiter';
-import { Voice, VOICE_FREE, VOICE_PLAYING, VOICE_RELEASING, gainToDbFloor, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
+import { MasterBus } from './master-bus';
+import { KernelResidency } from './kernel-residency';
+import { VoicePool } from './voice-pool';
+import { checkRange, clampNumber, copyTargets } from './engine-values';
+import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
 
 /** Frozen defaults of the engine's options and fades. */
 export const engineDefaults = Object.freeze({
@@ -24,29 +27,6 @@ export const engineDefaults = Object.freeze({
   stealFadeSeconds: 0.01,
 });
 
-const HANDLE_SLOTS = 2048;
-
-/** What an engine holds in the shared kernel's memory, given back when the engine is collected. */
-interface KernelHold {
-  kernel: WasmKernel;
-  scratchAt: number;
-  scratchBytes: number;
-  kept: Float32Array[][];
-}
-const kernelHolds =
-  typeof FinalizationRegistry === 'function'
-    ? new FinalizationRegistry<KernelHold>((h) => {
-        for (const list of h.kept) for (const x of list) h.kernel.discard(x);
-        h.kernel.release(h.scratchAt, h.scratchBytes);
-      })
-    : null;
-const GENERATIONS = 1 << 20;
-
-function checkRange(name: string, v: number, min: number, max: number): number {
-  if (!(Number.isInteger(v) && v >= min && v <= max)) throw new RangeError(`EngineOptions.${name} must be an integer in ${min}…${max}, got ${v}`);
-  return v;
-}
-
 /** Renders voices of decoded sounds with time-scale and Doppler pitch, dilation tone, panning and a master limiter. */
 export class Engine {
   /** Counters and levels, updated by every render call (the same object throughout). */
@@ -57,29 +37,20 @@ export class Engine {
   readonly capacity: number;
   private readonly maxBlock: number;
   private readonly voices: Voice[] = [];
+  private readonly pool: VoicePool;
   private readonly bank: SoundBank;
   private readonly snapshots: SnapshotStore;
   private readonly flow = new TimeFlow();
   private readonly mapper: TargetMapper;
-  private readonly limiter: PeakLimiter;
+  private readonly bus: MasterBus;
   private readonly scratch: VoiceScratch;
-  private mixL: Float32Array;
-  private mixR: Float32Array;
-  /** The WebAssembly kernel the voices run on, or null (TypeScript kernel). */
-  private readonly wasm: WasmKernel | null;
-  /** Byte offset of the voice scratch and mix bus in module memory (4 × maxBlockFrames floats), when `wasm`. */
-  private wasmScratch = 0;
-  /** Per sound slot: the bank's channel list whose arrays were uploaded (residentKept) to module memory, until the slot is freed or reused. */
-  private readonly residentSounds: (readonly Float32Array[] | null)[];
-  private readonly residentKept: Float32Array[][];
+  /** Module-memory bookkeeping when the voices run on the WebAssembly kernel, else null (TypeScript kernel). */
+  private readonly resident: KernelResidency | null;
   private readonly input: VoiceInput;
   private readonly probe: Voice['targets'] = createVoiceTargets();
   private tuning: Tuning;
   private frameCount = 0;
-  private owned = 0;
   private sequence = 0;
-  private master = 1;
-  private masterPrev = 1;
   private engineClamps = 0;
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
@@ -95,29 +66,21 @@ export class Engine {
     this.tuning = t;
     this.mapper = new TargetMapper({ tuning: t });
     this.snapshots = new SnapshotStore({ maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
-    this.limiter = new PeakLimiter({ sampleRate: sr, ceilingDb: t.master.ceilingDb });
-    this.limiter.enabled = t.master.limiter;
-    this.master = this.masterPrev = Math.pow(10, t.master.gainDb / 20);
+    this.bus = new MasterBus({ sampleRate: sr, maxBlockFrames: this.maxBlock, ceilingDb: t.master.ceilingDb, limiter: t.master.limiter, gainDb: t.master.gainDb });
     const table = KernelTable.forTier(t.resampler.tier);
     for (let i = 0; i < 2 * this.capacity; i++) {
       const v = new Voice(table, sr, this.smoothing(t), options.kernel ?? 'auto');
       v.index = i;
       this.voices.push(v);
     }
+    this.pool = new VoicePool({ voices: this.voices, capacity: this.capacity, bank: this.bank });
     const buf = () => new Float32Array(this.maxBlock);
     const stereo = [buf(), buf()];
     this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()], wasm: null };
-    this.mixL = buf();
-    this.mixR = buf();
-    this.wasm = this.voices[0].reader.kernelName === 'wasm-simd' ? WasmKernel.shared() : null;
-    this.residentSounds = new Array(this.bank.channels.length).fill(null);
-    this.residentKept = Array.from({ length: this.bank.channels.length }, () => []);
-    if (this.wasm !== null) {
-      // Voice scratch and mix bus in module memory: the kernel writes and the module mixes there, with no copies.
-      this.wasmScratch = this.wasm.allocFloats(4 * this.maxBlock);
-      kernelHolds?.register(this, { kernel: this.wasm, scratchAt: this.wasmScratch, scratchBytes: 16 * this.maxBlock, kept: this.residentKept });
-      this.bindScratch();
-    }
+    const wasm = this.voices[0].reader.kernelName === 'wasm-simd' ? WasmKernel.shared() : null;
+    // Voice scratch and mix bus in module memory: the kernel writes and the module mixes there, with no copies.
+    this.resident = wasm === null ? null : new KernelResidency({ kernel: wasm, maxBlockFrames: this.maxBlock, bank: this.bank, owner: this });
+    this.resident?.bind(this.scratch, this.bus);
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null };
     this.stats = {
       activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
@@ -142,39 +105,8 @@ export class Engine {
   addSound(channels: readonly Float32Array[], sampleRate: Hz): number {
     const id = this.bank.add(channels, sampleRate);
     if (id < 0) this.stats.refused++;
-    else if (this.wasm !== null) this.makeResident(this.bank.slot(id));
+    else if (this.resident !== null) this.resident.makeResident(this.bank.slot(id), this.scratch, this.bus);
     return id;
-  }
-
-  /** Uploads slot `s`'s channels to module memory (read in place by the kernel), dropping those of freed slots first. */
-  private makeResident(s: number): void {
-    const k = this.wasm!;
-    for (let i = 0; i < this.residentSounds.length; i++) {
-      const held = this.residentSounds[i];
-      if (held === null || this.bank.channels[i] === held) continue;
-      for (const x of this.residentKept[i]) k.discard(x);
-      this.residentKept[i].length = 0;
-      this.residentSounds[i] = null;
-    }
-    const chans = this.bank.channels[s]!;
-    for (const x of chans) if (k.upload(x)) this.residentKept[s].push(x);
-    this.residentSounds[s] = chans;
-    this.bindScratch();
-  }
-
-  /** (Re)creates the views of the scratch and mix bus in module memory (after construction and after memory grew). */
-  private bindScratch(): void {
-    const k = this.wasm;
-    if (k === null || this.scratch.wasm !== null && this.mixL.buffer === k.f32.buffer) return;
-    const buf = k.f32.buffer;
-    const n = this.maxBlock;
-    const at = this.wasmScratch;
-    this.scratch.stereo[0] = new Float32Array(buf, at, n);
-    this.scratch.stereo[1] = new Float32Array(buf, at + 4 * n, n);
-    this.scratch.mono[0] = this.scratch.stereo[0];
-    this.mixL = new Float32Array(buf, at + 8 * n, n);
-    this.mixR = new Float32Array(buf, at + 12 * n, n);
-    this.scratch.wasm = k;
   }
 
   /** Removes a sound; its voices fade out (default stop fade) and the slot frees once they are silent. */
@@ -183,7 +115,7 @@ export class Engine {
     if (s < 0) return;
     for (let i = 0; i < this.voices.length; i++) {
       const v = this.voices[i];
-      if (v.state === VOICE_PLAYING && v.sound === s) this.release(v, engineDefaults.stopFadeSeconds);
+      if (v.state === VOICE_PLAYING && v.sound === s) this.pool.release(v, engineDefaults.stopFadeSeconds);
     }
     this.bank.remove(id);
   }
@@ -211,11 +143,14 @@ export class Engine {
     const src = sourceId === -1 ? -1 : this.snapshots.find(sourceId);
     this.mapInto(this.probe, group, (ratio * rate) / this.sampleRate, gain, src);
     const audibility = this.probe.gain * Math.max(this.probe.left, this.probe.right);
-    if (this.owned >= this.capacity && !this.steal(priority, audibility)) {
-      this.stats.refused++;
-      return -1;
+    if (this.pool.full) {
+      if (!this.pool.steal(priority, audibility, engineDefaults.stealFadeSeconds)) {
+        this.stats.refused++;
+        return -1;
+      }
+      this.stats.steals++;
     }
-    const v = this.freeVoice();
+    const v = this.pool.take();
     v.state = VOICE_PLAYING;
     v.sound = slot;
     v.channels = this.bank.channels[slot]!.length;
@@ -240,19 +175,19 @@ export class Engine {
     const offset = clampNumber((options.offsetSeconds ?? 0) * rate, 0, this.bank.frames[slot], 0);
     v.reader.setSource(this.bank.channels[slot]!, { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset });
     this.bank.release(slot, 1);
-    this.owned++;
-    return v.index + HANDLE_SLOTS * v.generation;
+    this.pool.owned++;
+    return this.pool.handleOf(v);
   }
 
   /** Stops a voice with a fade (s; default 0.01, 0 = at once); unknown or stale handles are ignored. */
   stop(voice: number, fadeSeconds: Seconds = engineDefaults.stopFadeSeconds): void {
-    const v = this.resolve(voice);
-    if (v !== null && v.state === VOICE_PLAYING) this.release(v, fadeSeconds);
+    const v = this.pool.resolve(voice);
+    if (v !== null && v.state === VOICE_PLAYING) this.pool.release(v, fadeSeconds);
   }
 
   /** Changes a playing voice's linear gain (0…16) or base ratio ((0, 4]); changes glide with the tuning's smoothing. */
   setVoice(voice: number, change: { gain?: number; ratio?: number }): void {
-    const v = this.resolve(voice);
+    const v = this.pool.resolve(voice);
     if (v === null) return;
     if (change.gain !== undefined) v.gain = clampNumber(change.gain, 0, 16, v.gain);
     if (change.ratio !== undefined) v.ratio = change.ratio > 0 && change.ratio <= 4 ? change.ratio : (this.engineClamps++, v.ratio);
@@ -263,9 +198,7 @@ export class Engine {
     this.tuning = t;
     this.mapper.setTuning(t);
     this.snapshots.configure(t.doppler.velocitySmoothingSeconds, t.doppler.teleportSpeed);
-    this.limiter.setCeiling(t.master.ceilingDb);
-    this.limiter.enabled = t.master.limiter;
-    this.master = Math.pow(10, t.master.gainDb / 20);
+    this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
     const table = KernelTable.forTier(t.resampler.tier);
     const sm = this.smoothing(t);
     for (const v of this.voices) {
@@ -275,7 +208,7 @@ export class Engine {
       if (v.state !== VOICE_FREE) v.followsTime = this.mapper.group(v.group).followsSpeed;
     }
     this.stats.tier = t.resampler.tier;
-    this.bindScratch(); // a new tier's tables may have grown module memory
+    this.resident?.bind(this.scratch, this.bus); // a new tier's tables may have grown module memory
   }
 
   /** Stores a gameplay snapshot; positions glide from the previous one across the snapshot interval. */
@@ -297,7 +230,7 @@ export class Engine {
   render(outputs: readonly Float32Array[], frames: number): void {
     const st = this.stats;
     try {
-      if (this.wasm !== null && this.mixL.buffer !== this.wasm.f32.buffer) this.bindScratch(); // memory grew elsewhere
+      if (this.resident !== null && this.resident.stale(this.bus)) this.resident.bind(this.scratch, this.bus); // memory grew elsewhere
       st.peakIn = 0;
       st.peakOut = 0;
       for (let done = 0; done < frames; ) {
@@ -309,22 +242,11 @@ export class Engine {
       st.errors++;
       for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
     }
-    let active = 0;
-    let virtual = 0;
-    let readerClamps = 0;
-    for (let i = 0; i < this.voices.length; i++) {
-      const v = this.voices[i];
-      readerClamps += v.reader.clampCount;
-      if (v.state === VOICE_FREE) continue;
-      if (v.virtual) virtual++;
-      else active++;
-    }
-    st.activeVoices = active;
-    st.virtualVoices = virtual;
-    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.limiter.nonFinite + readerClamps;
+    const readerClamps = this.pool.count(st);
+    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.limiter.nonFinite + readerClamps;
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
-    st.limiterDb = this.limiter.reductionDb;
+    st.limiterDb = this.bus.limiter.reductionDb;
     st.timeScale = this.flow.valueAt(this.time);
     st.time = this.time;
   }
@@ -336,7 +258,7 @@ export class Engine {
       const v = this.voices[i];
       if (v.state === VOICE_FREE) continue;
       const m = out[k++];
-      m.voice = i + HANDLE_SLOTS * v.generation;
+      m.voice = this.pool.handleOf(v);
       m.sourceId = v.sourceId;
       m.group = v.group;
       m.ratioCents = 1200 * Math.log2(v.currentRatio);
@@ -351,10 +273,9 @@ export class Engine {
   }
 
   private block(outputs: readonly Float32Array[], offset: number, n: number): void {
-    const mixL = this.mixL;
-    const mixR = this.mixR;
-    mixL.fill(0, 0, n);
-    mixR.fill(0, 0, n);
+    const mixL = this.bus.left;
+    const mixR = this.bus.right;
+    this.bus.clear(n);
     // Control values at the block's midpoint: the smoothers then follow a moving target without a half-block lead.
     const tMid = (this.frameCount + n / 2) / this.sampleRate;
     this.snapshots.interpolate(tMid);
@@ -364,42 +285,9 @@ export class Engine {
       if (v.state === VOICE_FREE) continue;
       if (v.sourceId !== -1 && !this.snapshots.holds(v.sourceSlot, v.sourceId)) v.sourceSlot = this.snapshots.find(v.sourceId);
       this.mapInto(v.targets, v.group, v.ratio * v.rateFactor, v.gain, v.sourceId === -1 ? -1 : v.sourceSlot, s);
-      if (!v.render(mixL, mixR, 0, n, this.scratch)) this.free(v);
+      if (!v.render(mixL, mixR, 0, n, this.scratch)) this.pool.free(v);
     }
-    const g0 = this.masterPrev;
-    const dg = (this.master - g0) / n;
-    this.masterPrev = this.master;
-    let peakIn = this.stats.peakIn;
-    for (let i = 0; i < n; i++) {
-      const g = g0 + dg * (i + 1);
-      const l = mixL[i] * g;
-      const r = mixR[i] * g;
-      mixL[i] = l;
-      mixR[i] = r;
-      const a = l < 0 ? -l : l;
-      const b = r < 0 ? -r : r;
-      if (a > peakIn) peakIn = a;
-      if (b > peakIn) peakIn = b;
-    }
-    this.stats.peakIn = peakIn;
-    this.limiter.process(mixL, mixR, 0, n);
-    let peakOut = this.stats.peakOut;
-    const outL = outputs[0];
-    const outR = outputs.length > 1 ? outputs[1] : null;
-    for (let i = 0; i < n; i++) {
-      const l = mixL[i];
-      const r = mixR[i];
-      if (outR === null) outL[offset + i] = 0.5 * (l + r);
-      else {
-        outL[offset + i] = l;
-        outR[offset + i] = r;
-      }
-      const a = l < 0 ? -l : l;
-      const b = r < 0 ? -r : r;
-      if (a > peakOut) peakOut = a;
-      if (b > peakOut) peakOut = b;
-    }
-    this.stats.peakOut = peakOut;
+    this.bus.finish(outputs, offset, n, this.stats);
     this.frameCount += n;
   }
 
@@ -413,65 +301,6 @@ export class Engine {
     this.mapper.map(out, inp);
   }
 
-  /** Frees a playing voice of lowest priority, then lowest audibility, then oldest, if the newcomer may take its place. */
-  private steal(priority: number, audibility: number): boolean {
-    let victim: Voice | null = null;
-    for (let i = 0; i < this.voices.length; i++) {
-      const v = this.voices[i];
-      if (v.state !== VOICE_PLAYING) continue;
-      if (victim === null || v.priority < victim.priority || (v.priority === victim.priority && (v.audibility < victim.audibility || (v.audibility === victim.audibility && v.sequence < victim.sequence)))) victim = v;
-    }
-    if (victim === null || victim.priority > priority || (victim.priority === priority && victim.audibility > audibility)) return false;
-    // A sounding victim needs a fade slot; with every fade slot busy, making room would cut a voice (a click): refuse.
-    if (victim.env !== 0 && !this.hasFreeSlot()) return false;
-    this.stats.steals++;
-    this.release(victim, engineDefaults.stealFadeSeconds);
-    return true;
-  }
-
-  private hasFreeSlot(): boolean {
-    for (let i = 0; i < this.voices.length; i++) if (this.voices[i].state === VOICE_FREE) return true;
-    return false;
-  }
-
-  private release(v: Voice, fadeSeconds: Seconds): void {
-    if (v.env === 0 || !(fadeSeconds > 0)) {
-      this.free(v);
-      return;
-    }
-    v.state = VOICE_RELEASING;
-    v.envTarget = 0;
-    v.releaseStep = v.fadeStep(fadeSeconds);
-    this.owned--;
-  }
-
-  private free(v: Voice): void {
-    if (v.state === VOICE_PLAYING) this.owned--;
-    if (v.state !== VOICE_FREE) this.bank.release(v.sound, -1);
-    v.state = VOICE_FREE;
-    v.generation = (v.generation + 1) % GENERATIONS;
-  }
-
-  /** A free voice slot; when every slot is busy, the quietest releasing voice is cut (it is fading out anyway). */
-  private freeVoice(): Voice {
-    let quietest: Voice | null = null;
-    for (let i = 0; i < this.voices.length; i++) {
-      const v = this.voices[i];
-      if (v.state === VOICE_FREE) return v;
-      if (v.state === VOICE_RELEASING && (quietest === null || v.env * v.audibility < quietest.env * quietest.audibility)) quietest = v;
-    }
-    this.free(quietest!);
-    return quietest!;
-  }
-
-  private resolve(handle: number): Voice | null {
-    if (!Number.isInteger(handle) || handle < 0) return null;
-    const i = handle % HANDLE_SLOTS;
-    const v = this.voices[i];
-    if (v === undefined || v.state === VOICE_FREE || (handle - i) / HANDLE_SLOTS !== v.generation) return null;
-    return v;
-  }
-
   private smoothing(t: Tuning): { ratio: Seconds; doppler: Seconds; cutoff: Seconds; gain: Seconds } {
     return { ratio: t.smoothing.ratioSeconds, doppler: t.doppler.smoothingSeconds, cutoff: t.smoothing.cutoffSeconds, gain: t.smoothing.gainSeconds };
   }
@@ -479,20 +308,3 @@ export class Engine {
 
 /** Freeze fade of groups at time scale 0, s (re-exported for hosts and tests). */
 export const ENGINE_FREEZE_FADE_SECONDS = FREEZE_FADE_SECONDS;
-
-function clampNumber(v: number, min: number, max: number, fallback: number): number {
-  if (!(v === v)) return fallback;
-  return v < min ? min : v > max ? max : v;
-}
-
-function copyTargets(from: Voice['targets'], to: Voice['targets']): void {
-  to.ratio = from.ratio;
-  to.cutoffHz = from.cutoffHz;
-  to.gain = from.gain;
-  to.left = from.left;
-  to.right = from.right;
-  to.doppler = from.doppler;
-  to.radialSpeed = from.radialSpeed;
-  to.distance = from.distance;
-  to.frozen = from.frozen;
-}
