@@ -1,0 +1,128 @@
+// A StreamReader's WebAssembly path: the same bandlimited interpolation (J. O. Smith, "Digital Audio Resampling",
+// CCRMA) run by the SIMD kernel module, fed with resident sources in place or with spans copied into module memory.
+import type { KernelTable } from './kernel-table';
+import type { ReadCursor } from './read-cursor';
+import { RUN_FRAMES, WasmKernel, halfWindowFor } from './wasm/wasm-kernel';
+
+/** Renders a cursor's source through the WebAssembly kernel; never allocates after construction. */
+export class WasmReadPath {
+  /** The shared kernel module. */
+  readonly kernel: WasmKernel;
+  private tablePtr = 0;
+  /** Byte offsets of the sources' resident copies in module memory (0 = none; spans are copied), as of `residentEpoch`. */
+  private readonly resident: Int32Array;
+  private residentEpoch = -1;
+
+  /** Room for `channels` (1…32) resident source offsets. */
+  constructor(kernel: WasmKernel, channels: number) {
+    this.kernel = kernel;
+    this.resident = new Int32Array(channels);
+  }
+
+  /** Places `table` in module memory (once per table) for later renders. */
+  setTable(table: KernelTable): void {
+    this.tablePtr = this.kernel.tablePointer(table);
+  }
+
+  /** Forgets which sources are resident (call when the source changes). */
+  invalidate(): void {
+    this.residentEpoch = -1;
+  }
+
+  /**
+   * The block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once; the
+   * kernel reads a source in place when it is resident (WasmKernel.upload) and the span the run can touch lies inside
+   * the readable region, else that span is copied (wrapped or silent as `mapIndex` says) into module memory; outputs
+   * that are views of module memory are written in place. The kernel runs until the run ends or a loop wraps (the wrap
+   * and the next span are handled here, as the reference does).
+   */
+  render(cur: ReadCursor, t: KernelTable, out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
+    const k = this.kernel;
+    const chans = cur.channelsInUse;
+    const halfDense = t.halfTaps * t.phases;
+    const loopEnd = cur.loop ? cur.loopEnd : Infinity;
+    const reMax = rs + dr > rs ? rs + dr : rs;
+    if (this.residentEpoch !== k.residentEpoch) {
+      for (let c = 0; c < chans; c++) this.resident[c] = k.residentOf(cur.sources[c]);
+      this.residentEpoch = k.residentEpoch;
+    }
+    for (let run = 0; run < frames; ) {
+      const runEnd = frames - run < RUN_FRAMES ? frames : run + RUN_FRAMES;
+      let rmax = reMax;
+      if (ratios !== null) {
+        const f64 = k.f64;
+        const rb = k.ratios >> 3;
+        rmax = 0;
+        for (let i = run; i < runEnd; i++) {
+          const r = cur.sanitize(ratios[ro + i]);
+          f64[rb + i - run] = r;
+          if (r > rmax) rmax = r;
+        }
+      }
+      const halfW = halfWindowFor(halfDense, t.strideFor(rmax));
+      for (let i = run; i < runEnd; ) {
+        const lower = Math.floor(cur.pos) - halfW;
+        const upper = Math.floor(cur.pos + (runEnd - i) * rmax + 1) + halfW + 10;
+        const dp = ratios === null ? 0 : k.ratios + 8 * (i - run);
+        const inside = lower >= (cur.loop && cur.wrapped ? cur.loopStart : 0) && upper <= (cur.loop ? cur.loopEnd : cur.length);
+        const mem = k.f32.buffer;
+        let done = 0;
+        for (let c = 0; c < chans; c += 2) {
+          const pair = c + 1 < chans;
+          const r0 = inside ? this.resident[c] : 0;
+          const r1 = pair && inside ? this.resident[c + 1] : 0;
+          let x0 = k.span0;
+          let x1 = pair ? k.span1 : 0;
+          let base = lower;
+          if (r0 !== 0 && (!pair || r1 !== 0)) {
+            x0 = r0;
+            x1 = r1;
+            base = 0;
+          } else {
+            copySpan(cur, k.f32, k.span0 >> 2, cur.sources[c], lower, upper);
+            if (pair) copySpan(cur, k.f32, k.span1 >> 2, cur.sources[c + 1], lower, upper);
+          }
+          const y0 = out[c];
+          const y1 = pair ? out[c + 1] : y0;
+          const direct0 = y0.buffer === mem;
+          const direct1 = y1.buffer === mem;
+          const o0 = direct0 ? y0.byteOffset + 4 * (o + i) : k.out0;
+          const o1 = direct1 ? y1.byteOffset + 4 * (o + i) : k.out1;
+          done = k.exports.render(this.tablePtr, x0, x1, base, o0, o1, cur.pos, i, runEnd, frames, rs, dr, dp, loopEnd, k.state);
+          if (!direct0) y0.set(k.outViews0[done], o + i);
+          if (pair && !direct1) y1.set(k.outViews1[done], o + i);
+        }
+        let p = k.f64[k.state >> 3];
+        if (cur.loop && p >= cur.loopEnd) {
+          while (p >= cur.loopEnd) p -= cur.loopLength;
+          cur.wrapped = true;
+        }
+        cur.pos = p;
+        cur.lastStretch = t.phases / k.i32[(k.state >> 2) + 2];
+        if (done <= 0) {
+          // The module made no progress (it never should): output silence for the rest of the run rather than spin.
+          for (let c = 0; c < chans; c++) out[c].fill(0, o + i, o + runEnd);
+          cur.clamps++;
+          break;
+        }
+        i += done;
+      }
+      run = runEnd;
+    }
+  }
+}
+
+/** Copies source frames lower…upper−1 of `x` into f32[at…], mapped (wrapped, or 0 outside) as the reference reads them. */
+function copySpan(cur: ReadCursor, f32: Float32Array, at: number, x: Float32Array, lower: number, upper: number): void {
+  const hi = cur.loop ? cur.loopEnd : cur.length;
+  const lo = cur.loop && cur.wrapped ? cur.loopStart : 0;
+  const d = at - lower;
+  if (lower >= lo && upper <= hi) {
+    for (let m = lower; m < upper; m++) f32[d + m] = x[m];
+    return;
+  }
+  for (let m = lower; m < upper; m++) {
+    const mi = cur.mapIndex(m);
+    f32[d + m] = mi < 0 ? 0 : x[mi];
+  }
+}
