@@ -1,11 +1,11 @@
 // The sample scene and tuning panel in real Chromium, served by `npm start`'s own server on a random free port.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { browserSuiteMode, CHROMIUM_ARGS, CHROMIUM_PATH } from './browser-harness';
+import type { Page } from 'playwright-core';
+import { browserSuiteMode } from './browser-harness';
+import { openScenePage, waitForState, type ScenePage } from './scene-page';
 
 const mode = browserSuiteMode();
 if (mode === 'skip') console.warn('editor browser suite skipped: /usr/bin/chromium is absent and CI is not set (apt-get install chromium, or run .ci/run)');
@@ -20,40 +20,12 @@ interface Voice {
 }
 type Handle = { ready: boolean; error: string | null; timeScale: number; voices: Voice[]; tuningJson: string | null };
 
-/** Starts scripts/start.mjs on port 0 (the system picks a free one) and resolves with its printed URL. */
-function startServer(outdir: string): Promise<{ child: ChildProcess; url: string }> {
-  return new Promise((done, fail) => {
-    const child = spawn(process.execPath, ['scripts/start.mjs', '--port', '0', '--no-watch', '--outdir', outdir], { cwd: repo, stdio: ['ignore', 'pipe', 'pipe'] });
-    let out = '';
-    const timer = setTimeout(() => fail(new Error(`server did not print its URL: ${out}`)), 60_000);
-    const onData = (d: Buffer) => {
-      out += d.toString();
-      const m = out.match(/http:\/\/127\.0\.0\.1:\d+\//);
-      if (m) {
-        clearTimeout(timer);
-        done({ child, url: m[0] });
-      }
-    };
-    child.stdout!.on('data', onData);
-    child.stderr!.on('data', (d: Buffer) => (out += d.toString()));
-    child.on('exit', (code) => fail(new Error(`server exited (${code}): ${out}`)));
-  });
-}
-
 const handle = (page: Page) => page.evaluate(() => {
   const h = (window as unknown as { ralentiScene: Handle }).ralentiScene;
   return { ready: h.ready, error: h.error, timeScale: h.timeScale, voices: h.voices, tuningJson: h.tuningJson };
 });
 
-async function waitFor(page: Page, what: string, test: (h: Handle) => boolean, timeoutMs = 8000): Promise<Handle> {
-  let last: Handle | null = null;
-  for (let waited = 0; waited <= timeoutMs; waited += 100) {
-    last = await handle(page);
-    if (test(last)) return last;
-    await page.waitForTimeout(100);
-  }
-  throw new Error(`timed out waiting for ${what}; last state: ${JSON.stringify({ ...last, tuningJson: undefined })}`);
-}
+const waitFor = (page: Page, what: string, test: (h: Handle) => boolean, timeoutMs = 8000) => waitForState(page, handle, what, test, timeoutMs, 100);
 
 async function startAudio(page: Page): Promise<void> {
   await page.click('#start-button');
@@ -65,35 +37,21 @@ async function startAudio(page: Page): Promise<void> {
 const voice = (h: Handle, name: string) => h.voices.find((v) => v.name === name);
 
 describe.skipIf(mode === 'skip')('sample scene and tuning panel in Chromium', () => {
-  let server: ChildProcess | null = null;
-  let context: BrowserContext | null = null;
+  let scene: ScenePage | null = null;
   let page: Page;
   const work = mkdtempSync(join(tmpdir(), 'ralenti-editor-'));
-  const consoleErrors: string[] = [];
+  let consoleErrors: string[] = [];
 
   beforeAll(async () => {
     if (mode === 'fail') throw new Error('CI is set but /usr/bin/chromium is missing; .ci/run installs it with apt-get install -y chromium');
-    const started = await startServer(join(work, 'build'));
-    server = started.child;
-    context = await chromium.launchPersistentContext(join(work, 'profile'), {
-      executablePath: CHROMIUM_PATH,
-      headless: true,
-      args: [...CHROMIUM_ARGS, '--autoplay-policy=no-user-gesture-required'],
-      viewport: { width: 1280, height: 720 },
-      acceptDownloads: true,
-    });
-    page = context.pages()[0] ?? (await context.newPage());
-    page.on('console', (m) => {
-      if (m.type() === 'error') consoleErrors.push(m.text());
-    });
-    page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
-    await page.goto(started.url);
+    scene = await openScenePage(work, { width: 1280, height: 720 });
+    page = scene.page;
+    consoleErrors = scene.consoleErrors;
     await startAudio(page);
   }, 90_000);
 
   afterAll(async () => {
-    await context?.close();
-    if (server?.pid) server.kill('SIGTERM');
+    await scene?.close();
     rmSync(work, { recursive: true, force: true });
   });
 

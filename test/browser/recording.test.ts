@@ -1,12 +1,12 @@
 // Fly-through recording in real Chromium: record a pass in the sample scene, download it as a scene script, check it
 // in Node with `ralenti check`, then load it back and replay it. Served by `npm start`'s own server on a free port.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawn, type ChildProcess } from 'node:child_process';
 import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
-import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { browserSuiteMode, CHROMIUM_ARGS, CHROMIUM_PATH } from './browser-harness';
+import type { Page } from 'playwright-core';
+import { browserSuiteMode } from './browser-harness';
+import { openScenePage, waitForState, type ScenePage } from './scene-page';
 import { main } from '../../runtime/cli/ralenti';
 import { parseSceneScript } from '../../runtime/offline/parse-scene-script';
 import { evaluateMotion } from '../../runtime/offline/scene-motion';
@@ -30,40 +30,13 @@ interface FlyState {
 }
 type Handle = { ready: boolean; error: string | null; timeScale: number; gameTime: number; voices: { name: string }[]; flyThrough: FlyState | null; tuningJson: string | null };
 
-/** Starts scripts/start.mjs on port 0 (the system picks a free one) and resolves with its printed URL. */
-function startServer(outdir: string): Promise<{ child: ChildProcess; url: string }> {
-  return new Promise((done, fail) => {
-    const child = spawn(process.execPath, ['scripts/start.mjs', '--port', '0', '--no-watch', '--outdir', outdir], { cwd: repo, stdio: ['ignore', 'pipe', 'pipe'] });
-    let out = '';
-    const timer = setTimeout(() => fail(new Error(`server did not print its URL: ${out}`)), 60_000);
-    child.stdout!.on('data', (d: Buffer) => {
-      out += d.toString();
-      const m = out.match(/http:\/\/127\.0\.0\.1:\d+\//);
-      if (m) {
-        clearTimeout(timer);
-        done({ child, url: m[0] });
-      }
-    });
-    child.stderr!.on('data', (d: Buffer) => (out += d.toString()));
-    child.on('exit', (code) => fail(new Error(`server exited (${code}): ${out}`)));
-  });
-}
-
 const handle = (page: Page) =>
   page.evaluate(() => {
     const h = (window as unknown as { ralentiScene: Handle }).ralentiScene;
     return { ready: h.ready, error: h.error, timeScale: h.timeScale, gameTime: h.gameTime, voices: h.voices, flyThrough: h.flyThrough, tuningJson: h.tuningJson };
   });
 
-async function waitFor(page: Page, what: string, test: (h: Handle) => boolean, timeoutMs = 10_000): Promise<Handle> {
-  let last: Handle | null = null;
-  for (let waited = 0; waited <= timeoutMs; waited += 50) {
-    last = await handle(page);
-    if (test(last)) return last;
-    await page.waitForTimeout(50);
-  }
-  throw new Error(`timed out waiting for ${what}; last state: ${JSON.stringify({ ...last, tuningJson: undefined })}`);
-}
+const waitFor = (page: Page, what: string, test: (h: Handle) => boolean, timeoutMs = 10_000) => waitForState(page, handle, what, test, timeoutMs, 50);
 
 const button = (page: Page, text: string) => page.locator('#panel button', { hasText: text });
 
@@ -75,31 +48,18 @@ async function cli(...argv: string[]): Promise<{ code: number; out: string; err:
 }
 
 describe.skipIf(mode === 'skip')('fly-through recording in Chromium', () => {
-  let server: ChildProcess | null = null;
-  let context: BrowserContext | null = null;
+  let scene: ScenePage | null = null;
   let page: Page;
   const work = mkdtempSync(join(tmpdir(), 'ralenti-recording-'));
   const recorded = join(work, 'recorded.json');
-  const consoleErrors: string[] = [];
+  let consoleErrors: string[] = [];
   let script: SceneScript;
 
   beforeAll(async () => {
     if (mode === 'fail') throw new Error('CI is set but /usr/bin/chromium is missing; .ci/run installs it with apt-get install -y chromium');
-    const started = await startServer(join(work, 'build'));
-    server = started.child;
-    context = await chromium.launchPersistentContext(join(work, 'profile'), {
-      executablePath: CHROMIUM_PATH,
-      headless: true,
-      args: [...CHROMIUM_ARGS, '--autoplay-policy=no-user-gesture-required'],
-      viewport: { width: 640, height: 360 },
-      acceptDownloads: true,
-    });
-    page = context.pages()[0] ?? (await context.newPage());
-    page.on('console', (m) => {
-      if (m.type() === 'error') consoleErrors.push(m.text());
-    });
-    page.on('pageerror', (e) => consoleErrors.push(`pageerror: ${e.message}`));
-    await page.goto(started.url);
+    scene = await openScenePage(work, { width: 640, height: 360 });
+    page = scene.page;
+    consoleErrors = scene.consoleErrors;
     await page.click('#start-button');
     const h = await waitFor(page, 'audio to start', (x) => x.ready || x.error !== null, 20_000);
     expect(h.error).toBeNull();
@@ -108,8 +68,7 @@ describe.skipIf(mode === 'skip')('fly-through recording in Chromium', () => {
   }, 90_000);
 
   afterAll(async () => {
-    await context?.close();
-    if (server?.pid) server.kill('SIGTERM');
+    await scene?.close();
     rmSync(work, { recursive: true, force: true });
   });
 
