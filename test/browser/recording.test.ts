@@ -7,11 +7,11 @@ import { join, resolve } from 'node:path';
 import type { Page } from 'playwright-core';
 import { browserSuiteMode } from './browser-harness';
 import { openScenePage, waitForState, type ScenePage } from './scene-page';
-import { main } from '../../runtime/cli/ralenti';
 import { parseSceneScript } from '../../runtime/offline/parse-scene-script';
 import { evaluateMotion } from '../../runtime/offline/scene-motion';
 import type { SceneScript } from '../../runtime/offline/scene-types';
 import { dronePosition } from '../../sample-scene/actor-paths';
+import { runCli } from '../runtime/cli/run-cli';
 
 const mode = browserSuiteMode();
 if (mode === 'skip') console.warn('recording browser suite skipped: /usr/bin/chromium is absent and CI is not set (apt-get install chromium, or run .ci/run)');
@@ -40,12 +40,7 @@ const waitFor = (page: Page, what: string, test: (h: Handle) => boolean, timeout
 
 const button = (page: Page, text: string) => page.locator('#panel button', { hasText: text });
 
-async function cli(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { out: (t) => (out += t), err: (t) => (err += t), errIsTty: false });
-  return { code, out, err };
-}
+const cli = (...argv: string[]) => runCli(argv);
 
 describe.skipIf(mode === 'skip')('fly-through recording in Chromium', () => {
   let scene: ScenePage | null = null;

@@ -5,9 +5,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, writeFileSync, readFileSync, rmSync, symlinkSync, mkdirSync, readdirSync, existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { tmpdir } from 'node:os';
-import { main } from '../../runtime/cli/ralenti';
 import { EXIT } from '../../runtime/cli/cli-io';
 import { writeWav } from '../../runtime/offline';
+import { runCli } from '../runtime/cli/run-cli';
 
 const dir = mkdtempSync(join(tmpdir(), 'ralenti-reliability-cli-'));
 const files: Record<string, Buffer> = {};
@@ -60,12 +60,7 @@ beforeAll(() => {
 
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-async function cli(argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { out: (t) => (out += t), err: (t) => (err += t), errIsTty: false });
-  return { code, out, err };
-}
+const cli = (argv: string[]) => runCli(argv);
 
 const bake = (input: string, output: string) => ['bake', path(input), '--speed', '0.5', '-o', output.startsWith('/') ? output : path(output)];
 

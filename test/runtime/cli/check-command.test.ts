@@ -2,19 +2,14 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readdirSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { tmpdir } from 'node:os';
-import { main } from '../../../runtime/cli/ralenti';
 import { writeWav } from '../../../runtime/offline';
+import { runCli } from './run-cli';
 
 const examples = resolve(__dirname, '../../../runtime/offline/examples');
 /** The scene scripts shipped with the renderer (tuning files beside them are not scenes). */
 const shipped = readdirSync(examples).filter((f) => f.endsWith('.json') && !f.endsWith('.tuning.json')).sort();
 
-async function cli(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { out: (t) => (out += t), err: (t) => (err += t), errIsTty: false });
-  return { code, out, err };
-}
+const cli = (...argv: string[]) => runCli(argv);
 
 let dir = '';
 beforeAll(() => {
@@ -45,7 +40,7 @@ describe('ralenti check errors', () => {
   };
 
   it.each<[string, () => string, number, RegExp, string[]?]>([
-    ['a missing scene script', () => '/nonexistent/scene.json', 3, /cannot read \/nonexistent\/scene\.json: ENOENT/],
+    ['a missing scene script', () => join(dir, 'no-such-folder', 'scene.json'), 3, /cannot read .*no-such-folder[\\/]scene\.json: ENOENT/],
     ['a script that is not JSON', () => write('syntax.json', '{"duration": 1,'), 3, /is not valid JSON/],
     ['a wrong type deep inside, by its JSON path', () => write('deep.json', { duration: 1, sounds: { t: { type: 'tone', frequency: 'high' } }, voices: [{ sound: 't' }] }), 3, /sounds\.t\.frequency: expected a finite number, got "high"/],
     ['an unknown voice sound, by its JSON path', () => write('horn.json', { duration: 1, voices: [{ sound: 'horn' }] }), 3, /voices\[0\]\.sound: no sound named "horn"/],

@@ -3,18 +3,13 @@ import { mkdtempSync, writeFileSync, readFileSync, existsSync, copyFileSync } fr
 import { join, resolve } from 'node:path';
 import { tmpdir } from 'node:os';
 import { spawnSync } from 'node:child_process';
-import { main } from '../../../runtime/cli/ralenti';
 import { readWav, writeWav } from '../../../runtime/offline';
 import { peakFrequency } from '../../../src/analysis';
+import { runCli } from './run-cli';
 
 const examples = resolve(__dirname, '../../../runtime/offline/examples');
 
-async function cli(...argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { out: (t) => (out += t), err: (t) => (err += t), errIsTty: false });
-  return { code, out, err };
-}
+const cli = (...argv: string[]) => runCli(argv);
 
 let dir = '';
 let tone = '';
@@ -116,8 +111,8 @@ describe('ralenti arguments and errors', () => {
     ['a speed out of range', ['bake', 'x.wav', '--speed', '9', '-o', 'y.wav'], 2, /--speed must be a number in/],
     ['a speed that is not a number', ['bake', 'x.wav', '--speed', 'slow', '-o', 'y.wav'], 2, /--speed must be a number/],
     ['an unknown tier', ['bake', 'x.wav', '--speed', '0.5', '--tier', 'ultra', '-o', 'y.wav'], 2, /--tier must be one of draft, standard, high/],
-    ['a missing input file', ['bake', '/nonexistent/in.wav', '--speed', '0.5', '-o', '/tmp/ralenti-never.wav'], 3, /no such file/],
-    ['a missing scene script', ['render', '/nonexistent/scene.json', '-o', '/tmp/ralenti-never.wav'], 3, /cannot read/],
+    ['a missing input file', ['bake', 'no-such-folder/in.wav', '--speed', '0.5', '-o', 'no-such-folder/never.wav'], 3, /no such file/],
+    ['a missing scene script', ['render', 'no-such-folder/scene.json', '-o', 'no-such-folder/never.wav'], 3, /cannot read/],
     ['a check report of another type', ['check', 'scene.json', '--report', 'plot.png'], 2, /\.svg or \.html/],
   ])('rejects %s with exit code %s and a clear message', async (_name, argv, code, pattern) => {
     const r = await cli(...(argv as string[]));

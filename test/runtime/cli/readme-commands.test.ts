@@ -1,11 +1,12 @@
-// The README's `npx ralenti …` lines, run through the tool's main(): each command works as shown, and the printed
+// The README's `npx ralenti …` lines, run through the tool's main() (via runCli): each command works as shown, and the printed
 // check output matches the README's text block. Outputs go to a temporary folder, never over repository files.
 import { describe, expect, it, beforeAll } from 'vitest';
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { basename, join, resolve } from 'node:path';
 import { tmpdir } from 'node:os';
-import { main, commands } from '../../../runtime/cli/ralenti';
+import { commands } from '../../../runtime/cli/ralenti';
 import { writeWav } from '../../../runtime/offline';
+import { runCli } from './run-cli';
 
 const root = resolve(__dirname, '../../..');
 const readme = readFileSync(join(root, 'README.md'), 'utf8');
@@ -34,12 +35,7 @@ function localise(words: string[], dir: string): string[] {
   });
 }
 
-async function run(argv: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { out: (t) => (out += t), err: (t) => (err += t), errIsTty: false });
-  return { code, out, err };
-}
+const run = (argv: string[]) => runCli(argv);
 
 let dir = '';
 beforeAll(() => {
