@@ -7,6 +7,8 @@ describe('TimeFlow', () => {
     expect(new TimeFlow({ initial: 0.5 }).valueAt(0)).toBe(0.5);
   });
 
+  // Expected values: linear interpolation; smoothstep 3u² − 2u³ (common practice) gives 0.15625 at u = 0.25;
+  // exponential is geometric interpolation v0·(v1/v0)^u, the form of Web Audio's exponentialRampToValueAtTime (from memory).
   it.each([
     ['linear', 0.5, 0.675],
     ['smooth', 0.25, 1 - 0.65 * 0.15625],
@@ -49,7 +51,7 @@ describe('TimeFlow', () => {
     expect(f.valueAt(5.5)).toBeCloseTo(0.75, 12);
   });
 
-  it('jumps at once', () => {
+  it('jumps to the new value at the given time and keeps the old value before it', () => {
     const f = new TimeFlow();
     f.jump(0.25, 3);
     expect(f.valueAt(3)).toBe(0.25);
