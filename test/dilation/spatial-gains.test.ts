@@ -57,6 +57,8 @@ describe('equalPowerGains (Web Audio API equal-power panning, mono input)', () =
 });
 
 describe('azimuthDegrees (Web Audio API azimuth from listener orientation)', () => {
+  // Expected angles are plane geometry; the convention (clockwise from ahead, right positive, elevation projected out)
+  // follows the W3C Web Audio API PannerNode azimuth/elevation algorithm — from memory, not among REFERENCES.md's values.
   const forward = { x: 0, y: 0, z: -1 };
   const right = { x: 1, y: 0, z: 0 };
   it.each([
