@@ -92,6 +92,8 @@ describe('TargetMapper: Doppler settings', () => {
     const g = game.map(createVoiceTargets(), input({ timeScale: s, source: approaching() })).doppler;
     const w = wall.map(createVoiceTargets(), input({ timeScale: s, source: approaching() })).doppler;
     const c = speedOfSound(20);
+    // Classical Doppler for a source approaching a listener at rest, f'/f = c / (c − v_s) (OpenStax Univ. Phys. Vol. 1 §17.7,
+    // REFERENCES.md §1, VERIFIED); on the game clock the 30 m/s wall-clock velocity reads 30 / 0.5 = 60 m/s.
     expect(w).toBeCloseTo(c / (c - 30), 12);
     expect(g).toBeCloseTo(c / (c - 60), 12);
   });
@@ -100,6 +102,7 @@ describe('TargetMapper: Doppler settings', () => {
     const m = new TargetMapper({ tuning: tuningWith((d) => (d.doppler.maxShiftCents = 100)) });
     const up = m.map(createVoiceTargets(), input({ source: { id: 1, position: v(0, 0, -100), velocity: v(0, 0, 1000) } }));
     const down = m.map(createVoiceTargets(), input({ source: { id: 1, position: v(0, 0, -100), velocity: v(0, 0, -300) } }));
+    // A shift of n cents is the ratio 2^(n/1200) (REFERENCES.md §9, VERIFIED).
     expect(up.doppler).toBeCloseTo(Math.pow(2, 100 / 1200), 12);
     expect(down.doppler).toBeCloseTo(Math.pow(2, -100 / 1200), 12);
   });
@@ -108,6 +111,7 @@ describe('TargetMapper: Doppler settings', () => {
     const two = new TargetMapper({ tuning: tuningWith((d) => (d.doppler.factor = 2)) });
     const off = new TargetMapper({ tuning: tuningWith((d) => (d.doppler.factor = 0)) });
     const c = speedOfSound(20);
+    // OpenAL 1.1 §3.5.2: f'/f = SS / (SS − DF·vss), so factor 2 doubles the effective source speed (REFERENCES.md §1c, VERIFIED (secondary)).
     expect(two.map(createVoiceTargets(), input({ source: approaching() })).doppler).toBeCloseTo(c / (c - 60), 12);
     expect(off.map(createVoiceTargets(), input({ source: approaching() })).doppler).toBe(1);
   });
