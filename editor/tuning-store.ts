@@ -66,8 +66,12 @@ export function clearAutosave(storage: Storage | undefined): void {
 
 /** Offers the tuning as a JSON file download. */
 export function downloadTuning(doc: Document, tuning: Tuning, fileName = DOWNLOAD_NAME): void {
-  const blob = new Blob([serializeTuning(tuning)], { type: 'application/json' });
-  const url = URL.createObjectURL(blob);
+  downloadJson(doc, serializeTuning(tuning), fileName);
+}
+
+/** Offers JSON text as a file download named `fileName` (through a temporary hidden link). */
+export function downloadJson(doc: Document, text: string, fileName: string): void {
+  const url = URL.createObjectURL(new Blob([text], { type: 'application/json' }));
   const a = doc.createElement('a');
   a.href = url;
   a.download = fileName;

@@ -5,7 +5,7 @@ import type { Easing, Vec3Like } from '../src';
 import { serializeTuning, type Ralenti } from '../runtime';
 import { FlyThroughRecorder, formatSceneScript, readSceneScriptText, SceneReplay } from '../runtime/recording';
 import type { SceneScript } from '../runtime/offline/scene-types';
-import type { RecordingControls, RecordingState } from '../editor';
+import { downloadJson, type RecordingControls, type RecordingState } from '../editor';
 import { SCRIPT_SOUNDS, SCRIPT_VOICES } from './script-sounds';
 
 /** File name offered for recorded scripts. */
@@ -142,16 +142,7 @@ export class FlyThrough implements RecordingControls {
   /** Offers the recorded or loaded script as a download. */
   download(): void {
     if (!this.script) return;
-    const doc = this.options.doc;
-    const url = URL.createObjectURL(new Blob([this.script.text], { type: 'application/json' }));
-    const a = doc.createElement('a');
-    a.href = url;
-    a.download = FLY_THROUGH_FILE_NAME;
-    a.style.display = 'none';
-    doc.body.appendChild(a);
-    a.click();
-    a.remove();
-    setTimeout(() => URL.revokeObjectURL(url), 1000);
+    downloadJson(this.options.doc, this.script.text, FLY_THROUGH_FILE_NAME);
   }
 
   /** Loads a scene script; on problems lists them by JSON path and keeps the current script. */
