@@ -151,7 +151,6 @@ export class Engine {
       this.stats.steals++;
     }
     const v = this.pool.take();
-    v.state = VOICE_PLAYING;
     v.sound = slot;
     v.channels = this.bank.channels[slot]!.length;
     v.rateFactor = rate / this.sampleRate;
@@ -175,7 +174,6 @@ export class Engine {
     const offset = clampNumber((options.offsetSeconds ?? 0) * rate, 0, this.bank.frames[slot], 0);
     v.reader.setSource(this.bank.channels[slot]!, { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset });
     this.bank.release(slot, 1);
-    this.pool.owned++;
     return this.pool.handleOf(v);
   }
 

@@ -25,8 +25,8 @@ export class VoicePool {
   readonly voices: readonly Voice[];
   /** Voices that may play at once. */
   readonly capacity: number;
-  /** Playing (not releasing) voices. */
-  owned = 0;
+  /** Playing (not releasing) voices: raised by `take`, lowered by `release` and `free`. */
+  private owned = 0;
   private readonly bank: SoundBank;
 
   /** Takes the slots as given. */
@@ -90,16 +90,12 @@ export class VoicePool {
     v.generation = (v.generation + 1) % GENERATIONS;
   }
 
-  /** A free voice slot; when every slot is busy, the quietest releasing voice is cut (it is fading out anyway). */
+  /** A free voice slot, marked playing and counted; when every slot is busy, the quietest releasing voice is cut (it is fading out anyway). */
   take(): Voice {
-    let quietest: Voice | null = null;
-    for (let i = 0; i < this.voices.length; i++) {
-      const v = this.voices[i];
-      if (v.state === VOICE_FREE) return v;
-      if (v.state === VOICE_RELEASING && (quietest === null || v.env * v.audibility < quietest.env * quietest.audibility)) quietest = v;
-    }
-    this.free(quietest!);
-    return quietest!;
+    const v = this.freeOrQuietest();
+    v.state = VOICE_PLAYING;
+    this.owned++;
+    return v;
   }
 
   /** Sets stats.activeVoices and virtualVoices from the slots; returns the sum of the voices' reader clamp counts. */
@@ -117,6 +113,17 @@ export class VoicePool {
     stats.activeVoices = active;
     stats.virtualVoices = virtual;
     return readerClamps;
+  }
+
+  private freeOrQuietest(): Voice {
+    let quietest: Voice | null = null;
+    for (let i = 0; i < this.voices.length; i++) {
+      const v = this.voices[i];
+      if (v.state === VOICE_FREE) return v;
+      if (v.state === VOICE_RELEASING && (quietest === null || v.env * v.audibility < quietest.env * quietest.audibility)) quietest = v;
+    }
+    this.free(quietest!);
+    return quietest!;
   }
 
   private hasFreeSlot(): boolean {
