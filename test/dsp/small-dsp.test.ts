@@ -82,6 +82,7 @@ describe('OnePoleSmoother (Web Audio setTargetAtTime)', () => {
 
 describe('unit helpers', () => {
   it('converts dB and cents both ways', () => {
+    // Amplitude decibels are 20·log10(gain) (common practice): −20 dB = 0.1, a halving = −6.0206 dB.
     expect(dbToGain(-20)).toBeCloseTo(0.1, 12);
     expect(gainToDb(0.5)).toBeCloseTo(-6.0206, 4);
     // REFERENCES.md §9: V = 0.5 → −1200 cents; §10: 5 cents = 1.0028923 (COMPUTED).
