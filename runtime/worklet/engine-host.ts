@@ -218,17 +218,19 @@ export class EngineHost {
     return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS };
   }
 
-  /** Renders through the stereo scratch pair when the node has a channel count other than 2. */
+  /** Renders through the stereo scratch pair when the node has a channel count other than 2 (no allocation). */
   private renderVia(output: Float32Array[], frames: number): void {
     const s = this.scratch;
     if (s[0].length < frames) throw new Error(`block of ${frames} frames exceeds 128`);
-    const l = frames === s[0].length ? s[0] : s[0].subarray(0, frames);
-    const r = frames === s[1].length ? s[1] : s[1].subarray(0, frames);
-    this.engine.render([l, r], frames);
+    this.engine.render(s, frames);
+    const l = s[0];
+    const r = s[1];
     if (output.length === 1) for (let i = 0; i < frames; i++) output[0][i] = 0.5 * (l[i] + r[i]);
     else {
-      output[0].set(l);
-      output[1].set(r);
+      for (let i = 0; i < frames; i++) {
+        output[0][i] = l[i];
+        output[1][i] = r[i];
+      }
       for (let c = 2; c < output.length; c++) output[c].fill(0);
     }
   }
