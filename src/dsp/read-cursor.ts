@@ -56,7 +56,11 @@ export class ReadCursor {
 
   /** Moves the position on by `r` source frames, wrapping inside a loop. */
   advance(r: number): void {
-    let p = this.pos + r;
+    this.moveTo(this.pos + r);
+  }
+
+  /** Sets the position to `p` source frames, reached by advancing: inside a loop, past its end wraps back by whole loop lengths. */
+  moveTo(p: number): void {
     if (this.loop && p >= this.loopEnd) {
       while (p >= this.loopEnd) p -= this.loopLength;
       this.wrapped = true;

@@ -239,13 +239,8 @@ export class StreamReader {
           cur.lastStretch = phases / stride;
         } else this.renderOne(out, o + i, stride);
       }
-      let p = pos + r;
-      if (cur.loop && p >= cur.loopEnd) {
-        while (p >= cur.loopEnd) p -= cur.loopLength;
-        cur.wrapped = true;
-        lo = cur.loopStart;
-      }
-      cur.pos = p;
+      cur.moveTo(pos + r);
+      if (cur.wrapped) lo = cur.loopStart;
     }
   }
 

@@ -92,12 +92,7 @@ export class WasmReadPath {
           if (!direct0) y0.set(k.outViews0[done], o + i);
           if (pair && !direct1) y1.set(k.outViews1[done], o + i);
         }
-        let p = k.f64[k.state >> 3];
-        if (cur.loop && p >= cur.loopEnd) {
-          while (p >= cur.loopEnd) p -= cur.loopLength;
-          cur.wrapped = true;
-        }
-        cur.pos = p;
+        cur.moveTo(k.f64[k.state >> 3]);
         cur.lastStretch = t.phases / k.i32[(k.state >> 2) + 2];
         if (done <= 0) {
           // The module made no progress (it never should): output silence for the rest of the run rather than spin.
