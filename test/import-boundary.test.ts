@@ -39,7 +39,9 @@ describe('import direction', () => {
   it('never imports upward (sample-scene → editor → runtime → src)', () => {
     const wrong: string[] = [];
     for (const layer of layers) {
-      for (const file of walk(join(root, layer))) {
+      const files = walk(join(root, layer));
+      expect(files.length, `${layer}/ has source files to check`).toBeGreaterThan(0); // walk() returns [] for a missing folder
+      for (const file of files) {
         for (const spec of importsOf(readFileSync(file, 'utf8'))) {
           if (!spec.startsWith('.')) continue;
           const target = layerOf(resolve(dirname(file), spec));
@@ -54,7 +56,9 @@ describe('import direction', () => {
     const banned = /\b(window|document|navigator|AudioContext|OfflineAudioContext|AudioWorkletProcessor|AudioBuffer|localStorage|require|process\.|Buffer\.|__dirname)\b/;
     const bannedSpec = /^(node:|fs$|path$|os$|child_process$|three|howler|tweakpane|@tweakpane)/;
     const wrong: string[] = [];
-    for (const file of walk(join(root, 'src'))) {
+    const files = walk(join(root, 'src'));
+    expect(files.length).toBeGreaterThan(10);
+    for (const file of files) {
       const text = readFileSync(file, 'utf8');
       for (const spec of importsOf(text)) if (bannedSpec.test(spec)) wrong.push(`${relative(root, file)} imports ${spec}`);
       const code = text.replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '').replace(/(['"`])(?:\\.|(?!\1).)*\1/g, '""');
