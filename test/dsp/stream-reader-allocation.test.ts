@@ -15,8 +15,8 @@ describe('StreamReader block path', () => {
     const rand = seededRandom(11);
     const src = [0, 1].map(() => Float32Array.from({ length: 48000 }, () => rand() * 2 - 1));
     const readers = (['draft', 'standard', 'high'] as const).map((tier) => new StreamReader({ table: KernelTable.forTier(tier), channels: 2, kernel }));
-    // A source before the first read: read()/readRatios() on a reader that never had one do not return with the
-    // wasm-simd kernel (open defect in src/dsp, reported), while the TypeScript kernel reads silence.
+    // A source before the first read, so every block exercises the resampling path (a reader without a source is
+    // covered by stream-reader-no-source.test.ts).
     for (const r of readers) r.setSource(src);
     const out = [new Float32Array(128), new Float32Array(128)];
     const ratios = Float32Array.from({ length: 128 }, (_, i) => 0.3 + (3.9 * i) / 127);
