@@ -11,7 +11,7 @@ import { MasterBus } from './master-bus';
 import { KernelResidency } from './kernel-residency';
 import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
-import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
+import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
 
 /** Frozen defaults of the engine's options and fades. */
 export const engineDefaults = Object.freeze({
@@ -142,7 +142,7 @@ export class Engine {
     this.snapshots.interpolate(this.time);
     const src = sourceId === -1 ? -1 : this.snapshots.find(sourceId);
     this.mapInto(this.probe, group, (ratio * rate) / this.sampleRate, gain, src);
-    const audibility = this.probe.gain * Math.max(this.probe.left, this.probe.right);
+    const audibility = targetAudibility(this.probe);
     if (this.pool.full) {
       if (!this.pool.steal(priority, audibility, engineDefaults.stealFadeSeconds)) {
         this.stats.refused++;

@@ -36,6 +36,13 @@ export function dbToGainFloor(db: number): number {
   return db <= DB_FLOOR + 0.01 ? 0 : Math.pow(10, db / 20);
 }
 
+/** Target audibility of mapped targets: linear gain of the louder channel, 0…16. */
+export function targetAudibility(t: VoiceTargets): number {
+  const l = t.gain * t.left;
+  const r = t.gain * t.right;
+  return l > r ? l : r;
+}
+
 /** Scratch buffers shared by all voices of an engine (one voice renders at a time). */
 export interface VoiceScratch {
   /** Resampled channels (2 × maxBlockFrames). */
@@ -134,10 +141,7 @@ export class Voice {
 
   /** Target audibility (linear, the louder channel) from the last mapped targets. */
   get audibility(): number {
-    const t = this.targets;
-    const l = t.gain * t.left;
-    const r = t.gain * t.right;
-    return l > r ? l : r;
+    return targetAudibility(this.targets);
   }
 
   /** Current smoothed playback ratio. */
@@ -239,7 +243,7 @@ export class Voice {
       this.advanceCutoff(cutoffTarget, frames);
       return true;
     }
-    const target = this.audibility;
+    const target = gl > gr ? gl : gr;
     const smoothed = leftEnd > rightEnd ? leftEnd : rightEnd;
     if (!this.virtual && target < VIRTUAL_GAIN && smoothed < VIRTUAL_GAIN) this.virtual = true;
     else if (this.virtual && target > RETURN_GAIN) {
