@@ -59,9 +59,11 @@ describe('editor under malformed tuning files', () => {
       })
       .filter((x): x is NonNullable<typeof x> => x !== null);
     expect(texts.length).toBeGreaterThan(50);
+    let refused = 0;
     for (const { c, text } of texts) {
       const ok = panel.loadText(text, 'bad.json');
       if (ok) continue; // JSON text lost what made it malformed (NaN → null …) and it became valid: not this test's case
+      refused++;
       expect(ralenti.tuning, c.name).toBe(defaultTuning);
       expect(panel.lastProblems.length, c.name).toBeGreaterThan(0);
       const status = container.ownerDocument.querySelector('.rl-file-status')!.textContent!;
@@ -69,6 +71,8 @@ describe('editor under malformed tuning files', () => {
       expect(status, c.name).toContain(panel.lastProblems[0].path === '' ? '(document)' : panel.lastProblems[0].path);
       expect(displayed(container), c.name).toBe(before);
     }
+    // Every file reached the refusal checks (a file that became valid would also have sent a tuning, failing below).
+    expect(refused).toBe(texts.length);
     expect(node.commands('tuning')).toEqual([]);
     panel.dispose();
   });
