@@ -3,6 +3,7 @@
 import type { Tuning } from '../../src/index';
 import { pitchErrorStats, trackPitch } from '../../src/analysis';
 import { TimeFlow } from '../../src/dilation';
+import { ratioToCents } from '../../src/dsp';
 import { renderLoadedScene, SCENE_BLOCK_FRAMES } from '../offline/scene-renderer';
 import { evaluateMotion } from '../offline/scene-motion';
 import type { MotionSpec, SceneScript } from '../offline/scene-types';
@@ -106,7 +107,7 @@ export function checkScene(scene: CheckableScene, options: CheckSceneOptions = {
     for (let n = 0; n < judged.length; n++) {
       const t = track.times[n];
       const e = expected[n];
-      const steady = Math.abs(1200 * Math.log2(hi[n] / lo[n])) <= tolerance;
+      const steady = Math.abs(ratioToCents(hi[n] / lo[n])) <= tolerance;
       const inRange = e >= minHz * 1.1 && e <= maxHz / 1.1;
       judged[n] = t < start + CHECK_EDGE_SECONDS || t > end - CHECK_EDGE_SECONDS || !steady || !inRange ? NaN : e;
     }

@@ -5,7 +5,7 @@ import type { Hz, Seconds, Tuning, Vec3Like } from '../../src/index';
 import { dopplerRatio, speedOfSound, createDopplerStats } from '../../src/motion';
 import { Curve, GAME_CLOCK_MIN_TIME_SCALE } from '../../src/dilation';
 import { DEFAULT_GROUP, MAX_TIME_SCALE } from '../../src/tuning';
-import { MAX_RATIO } from '../../src/dsp';
+import { centsToRatio, MAX_RATIO, ratioToCents } from '../../src/dsp';
 
 /** Position (m) and wall-clock velocity (m/s) of a moving point, filled by a MotionAt callback. */
 export interface MotionSample {
@@ -75,7 +75,7 @@ export class ExpectedPitch {
     this.followsTime = group.policy === 'follow-time';
     this.doppler = group.doppler && t.doppler.factor > 0 && input.source !== null;
     this.c = t.air.speedOfSound ?? speedOfSound(t.air.temperatureCelsius);
-    this.maxShiftCents = Math.min(t.doppler.maxShiftCents, 1200 * Math.log2(MAX_RATIO));
+    this.maxShiftCents = Math.min(t.doppler.maxShiftCents, ratioToCents(MAX_RATIO));
   }
 
   /** Unsmoothed targets at `time`: speed part and clamped Doppler part, in cents. */
@@ -85,7 +85,7 @@ export class ExpectedPitch {
     const s = rawScale >= 0 ? Math.min(rawScale, MAX_TIME_SCALE) : 0;
     const base = input.baseRatio ?? expectedPitchDefaults.baseRatio;
     const speed = base * (this.followsTime ? this.pitch.evaluate(s) : 1);
-    out.speedCents = speed > 0 ? 1200 * Math.log2(speed) : -Infinity;
+    out.speedCents = speed > 0 ? ratioToCents(speed) : -Infinity;
     out.dopplerCents = 0;
     if (this.doppler) {
       input.source!(time, this.src);
@@ -97,7 +97,7 @@ export class ExpectedPitch {
         scale(this.lis.velocity, k);
       }
       const ratio = dopplerRatio(this.src, this.lis, { speedOfSound: this.c, dopplerFactor: input.tuning.doppler.factor, stats: this.stats });
-      const cents = ratio > 0 ? 1200 * Math.log2(ratio) : -Infinity;
+      const cents = ratio > 0 ? ratioToCents(ratio) : -Infinity;
       out.dopplerCents = Math.max(-this.maxShiftCents, Math.min(this.maxShiftCents, cents));
     }
     return out;
@@ -121,8 +121,8 @@ export class ExpectedPitch {
     let speed = from.speedCents;
     let doppler = from.dopplerCents;
     let now = start;
-    const maxCents = 1200 * Math.log2(MAX_RATIO);
-    const minCents = 1200 * Math.log2(EXPECTED_MIN_RATIO);
+    const maxCents = ratioToCents(MAX_RATIO);
+    const minCents = ratioToCents(EXPECTED_MIN_RATIO);
     for (let i = 0; i < times.length; i++) {
       const t = times[i];
       if (!(t >= start)) {
@@ -141,7 +141,7 @@ export class ExpectedPitch {
         now = next;
       }
       const total = speed + doppler;
-      out[i] = total < minCents || Number.isNaN(total) ? NaN : input.emittedHz * 2 ** (Math.min(total, maxCents) / 1200);
+      out[i] = total < minCents || Number.isNaN(total) ? NaN : input.emittedHz * centsToRatio(Math.min(total, maxCents));
     }
     return out;
   }

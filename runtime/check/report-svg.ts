@@ -2,6 +2,7 @@
 // a pass/fail badge and error figures per source, and the time scale plotted beneath on the same time axis.
 import type { Cents, Hz, Seconds } from '../../src/index';
 import type { PitchErrorStats } from '../../src/analysis';
+import { ratioToCents } from '../../src/dsp';
 
 /** One checked source as the report shows it. */
 export interface ReportSource {
@@ -168,7 +169,7 @@ function valueAxis(f: Frame, lo: number, hi: number, label: string, out: string[
 function sourcePanel(s: ReportSource, f: Frame, unit: 'hz' | 'cents', tolerance: Cents, out: string[]): void {
   const ref = s.referenceHz ?? median(s.expectedHz);
   const toUnit = (hz: ArrayLike<number>) =>
-    unit === 'hz' ? hz : Float64Array.from(hz as ArrayLike<number>, (v) => (v > 0 ? 1200 * Math.log2(v / ref) : NaN));
+    unit === 'hz' ? hz : Float64Array.from(hz as ArrayLike<number>, (v) => (v > 0 ? ratioToCents(v / ref) : NaN));
   const expected = toUnit(s.expectedHz);
   const measured = toUnit(s.measuredHz);
   const [lo, hi] = range([expected, measured], unit === 'hz' ? Math.max(1, ref * 0.01) : 20);

@@ -1,6 +1,6 @@
 // `ralenti bake <in.wav> --speed V -o out.wav`: variable-speed replay of a file (band-limited resampling),
 // for pre-rendering slowed or sped-up variants of assets. Pitch and duration change together.
-import { resample, qualityTiers, MAX_RATIO } from '../../src/dsp';
+import { resample, qualityTiers, MAX_RATIO, ratioToCents } from '../../src/dsp';
 import type { QualityTierName } from '../../src/index';
 import type { WavEncoding } from '../offline';
 import { CliError, EXIT, choiceOption, numberOption, parseArgs, type CliIo } from './cli-io';
@@ -45,7 +45,7 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
   const inSeconds = wav.channels[0].length / wav.sampleRate;
   const outSeconds = channels[0].length / wav.sampleRate;
   io.out(
-    `baked ${input} at speed ${speed} (${(1200 * Math.log2(speed)).toFixed(1)} cents, ${tier} tier) to ${output}\n` +
+    `baked ${input} at speed ${speed} (${ratioToCents(speed).toFixed(1)} cents, ${tier} tier) to ${output}\n` +
       `${wav.channels.length} channel(s) at ${wav.sampleRate} Hz, ${inSeconds.toFixed(3)} s → ${outSeconds.toFixed(3)} s (${enc}), peak ${formatDb(peakDbfs(channels))}\n`,
   );
   return EXIT.ok;

@@ -2,6 +2,8 @@
 import { existsSync, readFileSync, realpathSync, writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { readWav, writeWav, WavError, type WavAudio, type WavEncoding } from '../offline';
+import { peakLevel } from '../../src/analysis';
+import { gainToDb } from '../../src/dsp';
 import { CliError, EXIT } from './cli-io';
 
 function canonical(path: string): string {
@@ -48,8 +50,8 @@ export function writeWavFile(path: string, audio: { sampleRate: number; channels
 /** Peak of channels in dBFS (−Infinity for silence). */
 export function peakDbfs(channels: readonly Float32Array[]): number {
   let p = 0;
-  for (const c of channels) for (let i = 0; i < c.length; i++) p = Math.max(p, Math.abs(c[i]));
-  return 20 * Math.log10(p);
+  for (const c of channels) p = Math.max(p, peakLevel(c));
+  return gainToDb(p);
 }
 
 /** A level in dBFS with one decimal ('−inf' for silence). */

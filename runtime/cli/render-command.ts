@@ -1,7 +1,7 @@
 // `ralenti render <scene.json> -o out.wav`: renders a scene script offline to a WAV file.
 import { resolve, dirname } from 'node:path';
 import { loadSceneFile, renderLoadedScene, ScriptError, type WavEncoding } from '../offline';
-import { qualityTiers } from '../../src/dsp';
+import { gainToDb, qualityTiers } from '../../src/dsp';
 import type { QualityTierName } from '../../src/index';
 import { CliError, EXIT, choiceOption, numberOption, parseArgs, progressBar, type CliIo } from './cli-io';
 import { formatDb, refuseOverwrite, writeWavFile } from './cli-files';
@@ -52,7 +52,7 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
   io.out(
     `rendered ${loaded.script.duration.toFixed(2)} s at ${result.sampleRate} Hz to ${output} (${encoding}, ${s.engine.tier} tier)\n` +
       `voices: ${s.voicesStarted} started, ${s.voicesRefused} refused, at most ${s.maxVoices} at once, ${s.engine.steals} stolen\n` +
-      `peak: ${formatDb(20 * Math.log10(s.peak))} (before the limiter ${formatDb(20 * Math.log10(s.peakBeforeLimiter))}), limiter reduction at most ${(-s.limiterDb).toFixed(1)} dB\n` +
+      `peak: ${formatDb(gainToDb(s.peak))} (before the limiter ${formatDb(gainToDb(s.peakBeforeLimiter))}), limiter reduction at most ${(-s.limiterDb).toFixed(1)} dB\n` +
       `clamps: ${s.engine.clamps}, errors: ${s.engine.errors}\n`,
   );
   return EXIT.ok;

@@ -3,6 +3,7 @@
 import type { Seconds, Tuning } from '../../src/index';
 import { Curve } from '../../src/dilation/index';
 import { DEFAULT_GROUP } from '../../src/tuning/index';
+import { ratioToCents } from '../../src/dsp/index';
 import { checkRange } from '../runtime-error';
 import type { HowlLike } from './howler-types';
 
@@ -50,7 +51,7 @@ export class HowlRateDriver {
     if (!Number.isFinite(ratio) || ratio <= 0) return false;
     const r = ratio < HOWL_RATE_MIN ? HOWL_RATE_MIN : ratio > HOWL_RATE_MAX ? HOWL_RATE_MAX : ratio;
     if (time - this.lastTime < this.interval) return false;
-    const cents = Math.abs(1200 * Math.log2(r / this.sent));
+    const cents = Math.abs(ratioToCents(r / this.sent));
     if (cents < this.threshold || cents === 0) return false;
     this.howl.rate(r, this.id);
     this.sent = r;
