@@ -74,12 +74,14 @@ describe('malformed tuning corpus', () => {
   });
 
   it('gives the editor the same paths when the corpus arrives as file text', () => {
+    let checked = 0;
     for (const c of malformedCorpus) {
       const input = c.input();
       if (typeof input === 'string') {
         const r = readTuningText(input);
         expect(r.ok, c.name).toBe(false);
         if (!r.ok) expect(r.problems[0].path, c.name).toBe(c.path);
+        checked++;
         continue;
       }
       let textForm: string;
@@ -92,7 +94,10 @@ describe('malformed tuning corpus', () => {
       const r = readTuningText(textForm);
       // JSON text cannot carry NaN/Infinity/undefined/functions (stringify drops or nulls them): such files are refused too, maybe at a neighbour path.
       expect(r.ok, c.name).toBe(false);
+      checked++;
     }
+    // All but the few that no file can hold (BigInt, throwing getters, undefined) were checked: 94 of 97 when written.
+    expect(checked).toBeGreaterThanOrEqual(malformedCorpus.length - 5);
   });
 
   it('caps the issue list at 100 for a document with thousands of problems', () => {
