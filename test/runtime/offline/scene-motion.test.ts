@@ -47,7 +47,7 @@ describe('generateSound', () => {
     expect(s.sampleRate).toBe(48000);
     expect(s.frequency).toBe(441);
     const x = s.channels[0];
-    expect((x.length * s.frequency) % s.sampleRate).toBe(0); // a whole number of cycles fits the buffer
+    expect((x.length * s.frequency!) % s.sampleRate).toBe(0); // a whole number of cycles fits the buffer
     // The sample after the last one (index 0 again) continues the sine: compare with the analytic value.
     expect(Math.abs(x[0] - 0)).toBeLessThan(1e-7);
     expect(Math.abs(x[x.length - 1] - 0.5 * Math.sin((2 * Math.PI * 441 * (x.length - 1)) / 48000))).toBeLessThan(1e-6);
