@@ -61,7 +61,7 @@ export class VoicePool {
     for (let i = 0; i < this.voices.length; i++) {
       const v = this.voices[i];
       if (v.state !== VOICE_PLAYING) continue;
-      if (victim === null || v.priority < victim.priority || (v.priority === victim.priority && (v.audibility < victim.audibility || (v.audibility === victim.audibility && v.sequence < victim.sequence)))) victim = v;
+      if (victim === null || yieldsBefore(v, victim)) victim = v;
     }
     if (victim === null || victim.priority > priority || (victim.priority === priority && victim.audibility > audibility)) return false;
     // A sounding victim needs a fade slot; with every fade slot busy, making room would cut a voice (a click): refuse.
@@ -130,4 +130,12 @@ export class VoicePool {
     for (let i = 0; i < this.voices.length; i++) if (this.voices[i].state === VOICE_FREE) return true;
     return false;
   }
+}
+
+/** Whether `v` is stolen before `w`: lower priority, then lower audibility, then older. */
+function yieldsBefore(v: Voice, w: Voice): boolean {
+  if (v.priority !== w.priority) return v.priority < w.priority;
+  const a = v.audibility;
+  const b = w.audibility;
+  return a !== b ? a < b : v.sequence < w.sequence;
 }
