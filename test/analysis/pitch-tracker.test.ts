@@ -28,6 +28,7 @@ describe('trackPitch', () => {
     const t0 = 2;
     const heard = passFrequency(p.f0, p.c, p.v, p.d, t0);
     const track = trackPitch(phaseIntegrated(heard, sampleRate, 4 * sampleRate), sampleRate);
+    expect(track.times.length).toBeGreaterThan(100); // 4 s of frames: the loop below has something to check
     let steadyWorst = 0;
     let worst = 0;
     for (let i = 0; i < track.times.length; i++) {
