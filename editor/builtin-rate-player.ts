@@ -1,7 +1,7 @@
 // A/B reference path: plays the same looped sources through AudioBufferSourceNode.playbackRate (the browser's own
 // resampler), following the engine's monitored ratio, cutoff and gain for each voice.
 import { distanceGain } from '../src/dilation';
-import type { Tuning, VoiceMonitor } from '../src';
+import { centsToRatio, dbToGain, type Tuning, type VoiceMonitor } from '../src';
 
 /** One source the comparison path mirrors. */
 export interface ComparisonSource {
@@ -92,12 +92,12 @@ export class BuiltinRatePlayer {
         c.gain.gain.setTargetAtTime(0, t, FOLLOW_SECONDS);
         continue;
       }
-      const ratio = 2 ** (m.ratioCents / 1200);
+      const ratio = centsToRatio(m.ratioCents);
       c.node.playbackRate.setTargetAtTime(Math.max(1 / 1024, Math.min(16, ratio)), t, FOLLOW_SECONDS);
       c.filter.frequency.setTargetAtTime(Math.min(m.cutoffHz, nyquist - 1), t, FOLLOW_SECONDS);
       const d = tuning.distance;
       const spatial = c.source.positional ? distanceGain(d.model, m.distance, d.refDistance, d.maxDistance, d.rolloffFactor) : 1;
-      c.gain.gain.setTargetAtTime(m.virtual ? 0 : 10 ** (m.gainDb / 20) * spatial, t, FOLLOW_SECONDS);
+      c.gain.gain.setTargetAtTime(m.virtual ? 0 : dbToGain(m.gainDb) * spatial, t, FOLLOW_SECONDS);
       c.panner.pan.setTargetAtTime(Math.max(-1, Math.min(1, c.source.pan())), t, FOLLOW_SECONDS);
     }
   }

@@ -1,5 +1,5 @@
 // window.ralentiScene: a small read-only inspection handle for tests and curious visitors.
-import type { EngineStats, VoiceMonitor } from '../src';
+import { centsToRatio, type EngineStats, type VoiceMonitor } from '../src';
 import type { TuningProblem } from '../editor';
 import type { RenderLoad } from '../runtime';
 import type { SceneAudio } from './scene-audio';
@@ -71,7 +71,7 @@ export function installSceneHandle(state: SceneState): RalentiSceneHandle {
     get voices() {
       const a = state.audio;
       if (!a) return [];
-      return a.ralenti.voices.map((v) => ({ ...v, name: a.names.get(v.voice) ?? v.group, ratio: 2 ** (v.ratioCents / 1200) }));
+      return a.ralenti.voices.map((v) => ({ ...v, name: a.names.get(v.voice) ?? v.group, ratio: centsToRatio(v.ratioCents) }));
     },
     get tuningJson() {
       return state.tuningJson();

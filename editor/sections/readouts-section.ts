@@ -1,7 +1,7 @@
 // Live readouts: per-voice table (ratio in cents, radial speed, distance, cutoff), ratio graph, spectrum, engine load,
 // voice counts and the last audio-thread error.
 import type { FolderApi, Pane } from 'tweakpane';
-import type { EngineStats, VoiceMonitor } from '../../src';
+import { gainToDb, type EngineStats, type VoiceMonitor } from '../../src';
 import type { RalentiAudioError, RenderLoad } from '../../runtime';
 import { RatioGraph, type RatioTrace } from '../monitors/ratio-graph';
 import { SpectrumView } from '../monitors/spectrum-view';
@@ -86,7 +86,7 @@ export class ReadoutsSection {
     l.virtual = stats.virtualVoices;
     l.steals = stats.steals;
     l.clamps = stats.clamps;
-    l.peakDb = stats.peakOut > 0 ? 20 * Math.log10(stats.peakOut) : -120;
+    l.peakDb = stats.peakOut > 0 ? gainToDb(stats.peakOut) : -120;
     l.limiterDb = stats.limiterDb;
     l.errors = stats.errors;
     l.tier = stats.tier;
