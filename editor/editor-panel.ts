@@ -2,7 +2,7 @@
 import { Pane } from 'tweakpane';
 import type { Ralenti, RalentiAudioError } from '../runtime';
 import { defaultTuning } from '../runtime';
-import type { Tuning } from '../src';
+import { gainToDb, type Tuning } from '../src';
 import { curveBladeBundle, type CurveBladeApi } from './curve-blade';
 import { elementBladeBundle } from './element-blade';
 import { BuiltinRatePlayer, type ComparisonSource } from './builtin-rate-player';
@@ -12,6 +12,7 @@ import { RecordingSection, type RecordingControls } from './sections/recording-s
 import { addDopplerSection, addGroupsSection, addListeningSection, addTimeFlowSection, type TunableContext } from './sections/tunable-sections';
 import { autosave, downloadTuning, editableCopy, readTuningText, type MutableTuning, type TuningProblem } from './tuning-store';
 import { editorCss } from './editor-style';
+import { listeningGain } from './listening-level';
 
 /** What the editor needs from the host page. */
 export interface EditorHost {
@@ -69,7 +70,7 @@ export class EditorPanel {
       style.textContent = editorCss;
       this.doc.head.appendChild(style);
     }
-    this.volume.db = Math.round(20 * Math.log10(Math.max(1e-6, host.master.gain.value)));
+    this.volume.db = Math.round(gainToDb(Math.max(1e-6, host.master.gain.value)));
     this.stopErrors = host.ralenti.onError((e) => (this.lastAudioError = e));
     this.builtin = new BuiltinRatePlayer({ context: host.ralenti.context, output: host.master, sources: host.comparison });
     this.build();
@@ -185,7 +186,7 @@ export class EditorPanel {
 
   private applyVolume(): void {
     const t = this.host.ralenti.context.currentTime;
-    this.host.master.gain.setTargetAtTime(this.volume.db <= -60 ? 0 : 10 ** (this.volume.db / 20), t, 0.02);
+    this.host.master.gain.setTargetAtTime(listeningGain(this.volume.db), t, 0.02);
   }
 
   private switchPath(): void {

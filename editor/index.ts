@@ -1,5 +1,6 @@
 // Public entry of the editor: the tuning panel, its curve blade and tuning-file helpers.
 export { EditorPanel, type EditorHost } from './editor-panel';
+export { LISTENING_FLOOR_DB, listeningGain } from './listening-level';
 export { BuiltinRatePlayer, type ComparisonSource } from './builtin-rate-player';
 export type { NamedVoice } from './sections/readouts-section';
 export { AUTOSAVE_KEY, DOWNLOAD_NAME, loadAutosaved, autosave, clearAutosave, readTuningText, downloadJson, type TuningProblem } from './tuning-store';

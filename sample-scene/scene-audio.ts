@@ -1,6 +1,6 @@
 // Audio of the sample scene: the runtime on a fresh AudioContext, the master chain, the generated sounds and voices.
 import { createRalenti, type Ralenti, type RalentiSource, type RalentiVoice, type Sound } from '../runtime';
-import { loadAutosaved, type ComparisonSource, type NamedVoice, type TuningProblem } from '../editor';
+import { listeningGain, loadAutosaved, type ComparisonSource, type NamedVoice, type TuningProblem } from '../editor';
 import { SCENE_VOICES } from './script-sounds';
 import { clickSound, droneSound, generatorSound, kartSound, musicLoopSound, orbSound, type GeneratedSound } from './procedural-sounds';
 
@@ -36,7 +36,7 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
   const ralenti = await createRalenti(context, { tuning: saved.tuning ?? undefined, workletUrl: new URL('./ralenti-processor.js', location.href).href });
   const engineBus = context.createGain();
   const master = context.createGain();
-  master.gain.value = volumeDb <= -60 ? 0 : 10 ** (volumeDb / 20);
+  master.gain.value = listeningGain(volumeDb);
   ralenti.connect(engineBus);
   engineBus.connect(master);
   master.connect(context.destination);

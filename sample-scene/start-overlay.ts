@@ -1,4 +1,5 @@
 // The start overlay: audio starts only after a click (browser autoplay rules), with the listening-level caution.
+import { LISTENING_FLOOR_DB } from '../editor';
 
 /** Shows the overlay; resolves with the chosen volume in dB once the visitor clicks start. */
 export function showStartOverlay(host: HTMLElement, initialDb: number): { started: Promise<number>; fail(message: string): void; hide(): void } {
@@ -9,7 +10,7 @@ export function showStartOverlay(host: HTMLElement, initialDb: number): { starte
       loop play too. Hold <b>Space</b> for slow motion and tune everything in the panel.</p>
       <p class="caution"><b>Listening level:</b> start low. Pitch and speed changes can make sounds louder than you
       expect, especially on headphones. The safety limiter is on.</p>
-      <label>Volume <input id="start-volume" type="range" min="-60" max="0" step="1" value="${initialDb}"> <span id="start-volume-db">${initialDb} dB</span></label>
+      <label>Volume <input id="start-volume" type="range" min="${LISTENING_FLOOR_DB}" max="0" step="1" value="${initialDb}"> <span id="start-volume-db">${initialDb} dB</span></label>
       <button id="start-button" type="button">Click to start audio</button>
       <p class="error" id="start-error" hidden></p>
     </div>`;

@@ -4,6 +4,7 @@ import { speedOfSound } from '../../src/motion';
 import type { CurveSpec } from '../../src';
 import type { CurveBladeApi, CurveBladeParams } from '../curve-blade';
 import type { MutableTuning } from '../tuning-store';
+import { LISTENING_FLOOR_DB } from '../listening-level';
 
 /** What the tunable sections need from the panel. */
 export interface TunableContext {
@@ -90,7 +91,7 @@ export function addDopplerSection(pane: Pane, ctx: TunableContext): FolderApi {
 /** Listening: master volume (a user setting, not tuning), the safety limiter and its ceiling. */
 export function addListeningSection(pane: Pane, ctx: TunableContext, volume: { db: number }, onVolume: () => void): FolderApi {
   const f = pane.addFolder({ title: 'Listening', expanded: false });
-  f.addBinding(volume, 'db', { label: 'volume (dB)', min: -60, max: 0, step: 1 }).on('change', onVolume);
+  f.addBinding(volume, 'db', { label: 'volume (dB)', min: LISTENING_FLOOR_DB, max: 0, step: 1 }).on('change', onVolume);
   const m = ctx.draft.master;
   f.addBinding(m, 'limiter', { label: 'safety limiter' }).on('change', (e) => ctx.changed(e.last));
   f.addBinding(m, 'ceilingDb', { label: 'ceiling (dBFS)', min: -24, max: 0, step: 0.5 }).on('change', (e) => ctx.changed(e.last));
