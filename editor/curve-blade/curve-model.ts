@@ -14,9 +14,6 @@ export interface CurveRange {
   readonly yKnee?: number;
 }
 
-/** Default range: time scale 0…1 against 0…1. */
-export const defaultCurveRange: CurveRange = Object.freeze({ xMin: 0, xMax: 1, yMin: 0, yMax: 1, yScale: 'linear' });
-
 /** Interpolation modes the blade offers. */
 export const curveInterpolations: readonly CurveInterpolation[] = Object.freeze(['linear', 'monotone']);
 
