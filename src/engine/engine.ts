@@ -202,8 +202,9 @@ export class Engine {
     for (const v of this.voices) {
       v.reader.setTable(table);
       v.setSmoothing(sm);
-      if (v.state !== VOICE_FREE && !this.mapper.hasGroup(v.group)) v.group = DEFAULT_GROUP;
-      if (v.state !== VOICE_FREE) v.followsTime = this.mapper.group(v.group).followsSpeed;
+      if (v.state === VOICE_FREE) continue;
+      if (!this.mapper.hasGroup(v.group)) v.group = DEFAULT_GROUP;
+      v.followsTime = this.mapper.group(v.group).followsSpeed;
     }
     this.stats.tier = t.resampler.tier;
     this.resident?.bind(this.scratch, this.bus); // a new tier's tables may have grown module memory
