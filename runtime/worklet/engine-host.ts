@@ -278,7 +278,8 @@ function silence(output: Float32Array[]): void {
   for (const ch of output) ch.fill(0);
 }
 
-function errorMessage(err: unknown): string {
+/** The message of a thrown value (an Error's message, else its string form). */
+export function errorMessage(err: unknown): string {
   return err instanceof Error ? err.message : String(err);
 }
 

@@ -1,5 +1,6 @@
 // The AudioWorkletProcessor: registration, message hand-off and one call into the engine host per render quantum.
-import { EngineHost, type RenderClock } from './engine-host';
+import { EngineHost, errorMessage, type RenderClock } from './engine-host';
+import { PROCESSOR_NAME, type ProcessorOptions, type Report } from '../protocol';
 
 /**
  * The best clock the AudioWorkletGlobalScope offers: `performance` where it exists; Chromium does not expose it there
@@ -10,7 +11,6 @@ function renderClock(): RenderClock {
   if (perf && typeof perf.now === 'function') return { name: 'performance.now', now: () => perf.now!() };
   return { name: 'Date.now', now: Date.now };
 }
-import { PROCESSOR_NAME, type ProcessorOptions, type Report } from '../protocol';
 
 /** Hosts the Ralenti engine on the audio thread; process() never throws. */
 class RalentiProcessor extends AudioWorkletProcessor {
@@ -28,7 +28,7 @@ class RalentiProcessor extends AudioWorkletProcessor {
         clock: renderClock(),
       });
     } catch (err) {
-      post({ type: 'error', where: 'construct', message: err instanceof Error ? err.message : String(err), count: 1 });
+      post({ type: 'error', where: 'construct', message: errorMessage(err), count: 1 });
     }
     this.port.onmessage = (event: MessageEvent): void => this.host?.handle(event.data);
   }
