@@ -2,6 +2,7 @@
 import type { FolderApi, Pane } from 'tweakpane';
 import type { TuningProblem } from '../tuning-store';
 import { createJsonFileInput } from './json-file-input';
+import { problemList } from './problem-list';
 
 /** Callbacks of the tuning file section. */
 export interface FileActions {
@@ -43,21 +44,7 @@ export class FileSection {
     line.textContent = message;
     this.status.appendChild(line);
     if (!problems.length) return;
-    const list = this.doc.createElement('ul');
-    list.className = 'rl-file-problems';
-    for (const p of problems.slice(0, 12)) {
-      const li = this.doc.createElement('li');
-      const code = this.doc.createElement('code');
-      code.textContent = p.path === '' ? '(document)' : p.path;
-      li.append(code, ` ${p.message}`);
-      list.appendChild(li);
-    }
-    if (problems.length > 12) {
-      const li = this.doc.createElement('li');
-      li.textContent = `… and ${problems.length - 12} more`;
-      list.appendChild(li);
-    }
-    this.status.appendChild(list);
+    this.status.appendChild(problemList(this.doc, problems, 'rl-file-problems'));
   }
 }
 

@@ -1,6 +1,7 @@
 // "Fly-through recording" section: start/stop a recording, download it as a scene script, load a script, replay it.
 import type { ButtonApi, FolderApi, Pane } from 'tweakpane';
 import { createJsonFileInput } from './json-file-input';
+import { problemList } from './problem-list';
 
 /** One problem of a loaded scene script: JSON path ('' = the document) and message. */
 export interface ScriptProblem {
@@ -93,21 +94,7 @@ export class RecordingSection {
     line.textContent = s.message;
     this.status.appendChild(line);
     if (!s.problems.length) return;
-    const list = this.doc.createElement('ul');
-    list.className = 'rl-rec-problems';
-    for (const p of s.problems.slice(0, 12)) {
-      const li = this.doc.createElement('li');
-      const code = this.doc.createElement('code');
-      code.textContent = p.path === '' ? '(document)' : p.path;
-      li.append(code, ` ${p.message}`);
-      list.appendChild(li);
-    }
-    if (s.problems.length > 12) {
-      const li = this.doc.createElement('li');
-      li.textContent = `… and ${s.problems.length - 12} more`;
-      list.appendChild(li);
-    }
-    this.status.appendChild(list);
+    this.status.appendChild(problemList(this.doc, s.problems, 'rl-rec-problems'));
   }
 
   /** Removes the hidden file input (the pane disposes the folder). */
