@@ -1,5 +1,5 @@
 // Difference at a fractional lag, D(τ) = Σ_{j<W} (x_j − x(j+τ))², with x(t) rebuilt by band-limited interpolation
-// through a Kaiser-windowed sinc (J. O. Smith, "Digital Audio Resampling Home Page", CCRMA; REFERENCES.md §3b).
+// through a Kaiser-windowed sinc (J. O. Smith, "Digital Audio Resampling Home Page", CCRMA; docs/references.md §3b).
 import { besselI0, kaiserAt } from '../dsp';
 
 /** Options of a FractionalLagDifference. */

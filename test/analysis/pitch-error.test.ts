@@ -7,7 +7,7 @@ describe('centsBetween', () => {
     { from: 440, to: 880, cents: 1200 },
     { from: 440, to: 220, cents: -1200 },
     { from: 440, to: 440 * 2 ** (1 / 12), cents: 100 },
-    { from: 1000, to: 1000 * 1.0028923, cents: 5 }, // REFERENCES.md §10: 5 cents = ratio 1.0028923 (COMPUTED).
+    { from: 1000, to: 1000 * 1.0028923, cents: 5 }, // docs/references.md §10: 5 cents = ratio 1.0028923 (COMPUTED).
   ])('gives $cents cents from $from Hz to $to Hz', ({ from, to, cents }) => {
     expect(centsBetween(from, to)).toBeCloseTo(cents, 4);
   });

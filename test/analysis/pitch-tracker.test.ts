@@ -7,7 +7,7 @@ const cents = (measured: number, expected: number) => 1200 * Math.log2(measured 
 
 // Straight-line pass: source along x at speed v, closest distance d to a listener at rest at the origin, closest at t0.
 // Heard frequency f0·c/(c − v·cosθ), θ between the source velocity and the line to the listener: the moving-source
-// formula f_o = f_s·c/(c − v_s) of OpenStax University Physics Vol. 1 §17.7 (REFERENCES.md §1a, VERIFIED) with
+// formula f_o = f_s·c/(c − v_s) of OpenStax University Physics Vol. 1 §17.7 (docs/references.md §1a, VERIFIED) with
 // v_s = v·cosθ the velocity component toward the listener, taken at the same instant (no propagation delay).
 function passFrequency(f0: number, c: number, v: number, d: number, t0: number) {
   return (t: number) => {

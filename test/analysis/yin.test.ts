@@ -16,7 +16,7 @@ const cases = f0s.flatMap((f0) => [
 
 describe('yinPitch', () => {
   it.each(cases)('finds $f0 Hz within ±1 cent on a $label', ({ f0, harmonics }) => {
-    // YIN steps 2–5: de Cheveigné & Kawahara, JASA 111(4) 2002 (REFERENCES.md §7); tolerance from the brief.
+    // YIN steps 2–5: de Cheveigné & Kawahara, JASA 111(4) 2002 (docs/references.md §7); tolerance from the brief.
     const frame = harmonicTone(f0, sampleRate, 4800, harmonics);
     const estimate = yinPitch(frame, sampleRate);
     expect(estimate).not.toBeNull();

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Curve, fritschCarlsonTangents } from '../../src/dilation';
 
-// Akima (1970) data, a standard example for monotone interpolation (REFERENCES.md §8, VERIFIED).
+// Akima (1970) data, a standard example for monotone interpolation (docs/references.md §8, VERIFIED).
 const akima: [number, number][] = [
   [0, 10], [2, 10], [3, 10], [5, 10], [6, 10], [8, 10], [9, 10.5], [11, 15], [12, 50], [14, 60], [15, 85],
 ];
@@ -11,7 +11,7 @@ describe('Curve (Fritsch–Carlson monotone cubic)', () => {
   const curve = new Curve(spec('monotone', akima));
 
   // Fritsch & Carlson, SIAM J. Numer. Anal. 17(2), 1980: the interpolant must be monotone on monotone data and stay
-  // within [y_k, y_{k+1}] on every interval (REFERENCES.md §8); a natural cubic spline undershoots to ≈ 4.61 here.
+  // within [y_k, y_{k+1}] on every interval (docs/references.md §8); a natural cubic spline undershoots to ≈ 4.61 here.
   it('is non-decreasing and stays inside each interval on Akima’s data', () => {
     let prev = -Infinity;
     for (let k = 0; k < akima.length - 1; k++) {
@@ -31,7 +31,7 @@ describe('Curve (Fritsch–Carlson monotone cubic)', () => {
     expect(curve.evaluate(10.15)).toBeGreaterThanOrEqual(10.5);
   });
 
-  // REFERENCES.md §8: our rule's tangents on Akima's data (COMPUTED — regression value only).
+  // docs/references.md §8: our rule's tangents on Akima's data (COMPUTED — regression value only).
   it('computes the documented Fritsch–Carlson tangents on Akima’s data', () => {
     const expected = [0, 0, 0, 0, 0, 0, 0.49697, 6.73168, 12, 9, 25];
     const t = fritschCarlsonTangents(akima.map((k) => k[0]), akima.map((k) => k[1]), new Float64Array(akima.length));
@@ -42,7 +42,7 @@ describe('Curve (Fritsch–Carlson monotone cubic)', () => {
     for (const [x, y] of akima) expect(curve.evaluate(x)).toBeCloseTo(y, 12);
   });
 
-  // REFERENCES.md §8: linear data are reproduced exactly, e.g. (0,1),(1,3),(2,5): f(0.5) = 2.0, f(1.7) = 4.4.
+  // docs/references.md §8: linear data are reproduced exactly, e.g. (0,1),(1,3),(2,5): f(0.5) = 2.0, f(1.7) = 4.4.
   it.each([
     [0.5, 2.0],
     [1.7, 4.4],

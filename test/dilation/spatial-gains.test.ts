@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { azimuthDegrees, distanceGain, equalPowerFromSine, equalPowerGains } from '../../src/dilation';
 
 describe('distanceGain (Web Audio API PannerNode distance models)', () => {
-  // W3C Web Audio API, PannerNode distance models; check values COMPUTED from the spec formulas (REFERENCES.md §5), 1e-12.
+  // W3C Web Audio API, PannerNode distance models; check values COMPUTED from the spec formulas (docs/references.md §5), 1e-12.
   it.each([
     ['linear', 5, 1, 10000, 1, 0.99959996],
     ['linear', 5000.5, 1, 10000, 1, 0.5],
@@ -17,7 +17,7 @@ describe('distanceGain (Web Audio API PannerNode distance models)', () => {
     expect(distanceGain(model, d, ref, max, f)).toBeCloseTo(expected, 8);
   });
 
-  it('falls 6.02 dB per doubling for the inverse model far from the reference (spec formula, REFERENCES.md §5)', () => {
+  it('falls 6.02 dB per doubling for the inverse model far from the reference (spec formula, docs/references.md §5)', () => {
     const db = 20 * Math.log10(distanceGain('inverse', 2000, 1, 10000, 1) / distanceGain('inverse', 1000, 1, 10000, 1));
     expect(db).toBeCloseTo(-6.0206, 2);
   });
@@ -34,7 +34,7 @@ describe('distanceGain (Web Audio API PannerNode distance models)', () => {
 
 describe('equalPowerGains (Web Audio API equal-power panning, mono input)', () => {
   const out = new Float64Array(2);
-  // Check values COMPUTED from the spec's equal-power formula (REFERENCES.md §5), 1e-8.
+  // Check values COMPUTED from the spec's equal-power formula (docs/references.md §5), 1e-8.
   it.each([
     [0, 0.70710678, 0.70710678],
     [-45, 0.92387953, 0.38268343],
@@ -58,7 +58,7 @@ describe('equalPowerGains (Web Audio API equal-power panning, mono input)', () =
 
 describe('azimuthDegrees (Web Audio API azimuth from listener orientation)', () => {
   // Expected angles are plane geometry; the convention (clockwise from ahead, right positive, elevation projected out)
-  // follows the W3C Web Audio API PannerNode azimuth/elevation algorithm — from memory, not among REFERENCES.md's values.
+  // follows the W3C Web Audio API PannerNode azimuth/elevation algorithm — from memory, not among docs/references.md's values.
   const forward = { x: 0, y: 0, z: -1 };
   const right = { x: 1, y: 0, z: 0 };
   it.each([

@@ -93,7 +93,7 @@ describe('TargetMapper: Doppler settings', () => {
     const w = wall.map(createVoiceTargets(), input({ timeScale: s, source: approaching() })).doppler;
     const c = speedOfSound(20);
     // Classical Doppler for a source approaching a listener at rest, f'/f = c / (c − v_s) (OpenStax Univ. Phys. Vol. 1 §17.7,
-    // REFERENCES.md §1, VERIFIED); on the game clock the 30 m/s wall-clock velocity reads 30 / 0.5 = 60 m/s.
+    // docs/references.md §1, VERIFIED); on the game clock the 30 m/s wall-clock velocity reads 30 / 0.5 = 60 m/s.
     expect(w).toBeCloseTo(c / (c - 30), 12);
     expect(g).toBeCloseTo(c / (c - 60), 12);
   });
@@ -102,7 +102,7 @@ describe('TargetMapper: Doppler settings', () => {
     const m = new TargetMapper({ tuning: tuningWith((d) => (d.doppler.maxShiftCents = 100)) });
     const up = m.map(createVoiceTargets(), input({ source: { id: 1, position: v(0, 0, -100), velocity: v(0, 0, 1000) } }));
     const down = m.map(createVoiceTargets(), input({ source: { id: 1, position: v(0, 0, -100), velocity: v(0, 0, -300) } }));
-    // A shift of n cents is the ratio 2^(n/1200) (REFERENCES.md §9, VERIFIED).
+    // A shift of n cents is the ratio 2^(n/1200) (docs/references.md §9, VERIFIED).
     expect(up.doppler).toBeCloseTo(Math.pow(2, 100 / 1200), 12);
     expect(down.doppler).toBeCloseTo(Math.pow(2, -100 / 1200), 12);
   });
@@ -111,14 +111,14 @@ describe('TargetMapper: Doppler settings', () => {
     const two = new TargetMapper({ tuning: tuningWith((d) => (d.doppler.factor = 2)) });
     const off = new TargetMapper({ tuning: tuningWith((d) => (d.doppler.factor = 0)) });
     const c = speedOfSound(20);
-    // OpenAL 1.1 §3.5.2: f'/f = SS / (SS − DF·vss), so factor 2 doubles the effective source speed (REFERENCES.md §1c, VERIFIED (secondary)).
+    // OpenAL 1.1 §3.5.2: f'/f = SS / (SS − DF·vss), so factor 2 doubles the effective source speed (docs/references.md §1c, VERIFIED (secondary)).
     expect(two.map(createVoiceTargets(), input({ source: approaching() })).doppler).toBeCloseTo(c / (c - 60), 12);
     expect(off.map(createVoiceTargets(), input({ source: approaching() })).doppler).toBe(1);
   });
 
   it('uses the tuning’s explicit speed of sound', () => {
     const m = new TargetMapper({ tuning: tuningWith((d) => (d.air.speedOfSound = 343.3)) });
-    // OpenAL 1.1 §3.5.2 case of REFERENCES.md §1c (COMPUTED): 1.0957548675.
+    // OpenAL 1.1 §3.5.2 case of docs/references.md §1c (COMPUTED): 1.0957548675.
     expect(m.map(createVoiceTargets(), input({ source: approaching() })).doppler).toBeCloseTo(1.0957548675, 9);
   });
 });
@@ -126,7 +126,7 @@ describe('TargetMapper: Doppler settings', () => {
 describe('TargetMapper: spatial gains', () => {
   const m = new TargetMapper({ tuning: defaultTuning });
   it.each([
-    // Web Audio inverse model (ref 1, rolloff 1) × equal-power pan; values COMPUTED from the spec formulas (REFERENCES.md §5).
+    // Web Audio inverse model (ref 1, rolloff 1) × equal-power pan; values COMPUTED from the spec formulas (docs/references.md §5).
     ['right at 10 m', v(10, 0, 0), 0, 0.1],
     ['left at 2 m', v(-2, 0, 0), 0.5, 0],
     ['ahead at 4 m', v(0, 0, -4), 0.25 * Math.SQRT1_2, 0.25 * Math.SQRT1_2],
@@ -147,7 +147,7 @@ describe('TargetMapper: spatial gains', () => {
   it('uses the tuning’s distance model', () => {
     const lin = new TargetMapper({ tuning: tuningWith((d) => (d.distance = { model: 'linear', refDistance: 1, maxDistance: 10000, rolloffFactor: 1 })) });
     const out = lin.map(createVoiceTargets(), input({ source: { id: 1, position: v(0, 0, -5000.5), velocity: v() } }));
-    // Web Audio linear model: linear(5000.5, 1, 10000, 1) = 0.5 (REFERENCES.md §5, COMPUTED).
+    // Web Audio linear model: linear(5000.5, 1, 10000, 1) = 0.5 (docs/references.md §5, COMPUTED).
     expect(out.left).toBeCloseTo(0.5 * Math.SQRT1_2, 12);
   });
 

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { besselI0, kaiserBeta, kaiserTaps, kaiserWindow, KernelTable, qualityTiers } from '../../src/dsp';
 
 describe('Kaiser β formula', () => {
-  // REFERENCES.md §3a: Kaiser 1974 / Oppenheim & Schafer DTSP pp. 475–476, as implemented by SciPy kaiser_beta.
+  // docs/references.md §3a: Kaiser 1974 / Oppenheim & Schafer DTSP pp. 475–476, as implemented by SciPy kaiser_beta.
   const rows: [number, number, number, string][] = [
     [65, 6.20426, 1e-5, 'VERIFIED: SciPy docs example kaiser_beta(65)'],
     [60, 5.65326, 1e-9, 'COMPUTED from the formula'],
@@ -20,7 +20,7 @@ describe('Kaiser β formula', () => {
 });
 
 describe('Kaiser length estimate (kaiserord)', () => {
-  // REFERENCES.md §3a: SciPy 1.17.1 kaiserord values (COMPUTED status in that file).
+  // docs/references.md §3a: SciPy 1.17.1 kaiserord values (COMPUTED status in that file).
   const rows: [number, number, number][] = [
     [60, 0.1, 74],
     [65, 0.1, 81],
@@ -32,7 +32,7 @@ describe('Kaiser length estimate (kaiserord)', () => {
   });
 
   it('gives M + 1 = 38 taps and β = 5.653 for the Oppenheim & Schafer low-pass example (A = 60 dB, Δω = 0.2π)', () => {
-    // REFERENCES.md §3a: O&S DTSP Kaiser design example, order M = 37 and β = 5.653 (book numbers from memory;
+    // docs/references.md §3a: O&S DTSP Kaiser design example, order M = 37 and β = 5.653 (book numbers from memory;
     // (A − 8)/(2.285·Δω) = 36.219 → 37 COMPUTED). Δω = 0.2π rad/sample is a width of 0.2 of Nyquist.
     expect(kaiserTaps(60, 0.2)).toBe(37 + 1);
     expect(kaiserBeta(60)).toBeCloseTo(5.653, 3);
@@ -41,7 +41,7 @@ describe('Kaiser length estimate (kaiserord)', () => {
 
 describe('Kaiser window', () => {
   it('matches NumPy np.kaiser(9, 5.0) and I0(5)', () => {
-    // REFERENCES.md §3a: NumPy 2.4 np.kaiser values (COMPUTED status), tolerance 1e-8.
+    // docs/references.md §3a: NumPy 2.4 np.kaiser values (COMPUTED status), tolerance 1e-8.
     const expected = [0.03671089, 0.23054433, 0.55285177, 0.86801716, 1, 0.86801716, 0.55285177, 0.23054433, 0.03671089];
     const w = kaiserWindow(new Float64Array(9), 5);
     for (let i = 0; i < 9; i++) expect(Math.abs(w[i] - expected[i])).toBeLessThan(1e-8);

@@ -12,7 +12,7 @@ function peakHz(y: Float32Array): number {
 }
 
 describe('scaling theorem: speed V multiplies frequency by V and divides duration by V', () => {
-  // J. O. Smith, Spectral Audio Signal Processing, "Scaling Theorem" (REFERENCES.md §9, VERIFIED).
+  // J. O. Smith, Spectral Audio Signal Processing, "Scaling Theorem" (docs/references.md §9, VERIFIED).
   const rows: [number, number, number][] = [
     [1000, 1.5, 1500],
     [1000, 0.5, 500],

@@ -37,7 +37,7 @@ describe('resampler quality by the agreed metric', () => {
   });
 
   it('fails the 60 dB check with a rectangular-truncated sinc (Smith: only ~20 dB without a window)', () => {
-    // REFERENCES.md §3b: truncating the sinc without a window gives only slightly more than 20 dB rejection.
+    // docs/references.md §3b: truncating the sinc without a window gives only slightly more than 20 dB rejection.
     const rect = new KernelTable({ design: { attenuationDb: 0, passbandEdge: 0.8, stopbandEdge: 1.05, phases: 128 }, taps: 10 });
     const m = measure((x, r) => {
       const reader = new StreamReader({ table: rect, channels: 1 });

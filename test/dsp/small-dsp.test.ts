@@ -13,7 +13,7 @@ function responseDb(c: Float64Array, f: number, fs: number): number {
 }
 
 describe('BiquadLowpass (Audio EQ Cookbook low-pass)', () => {
-  // REFERENCES.md §4a: W3C Audio EQ Cookbook; worked numbers COMPUTED in double precision (= scipy butter to 12 digits).
+  // docs/references.md §4a: W3C Audio EQ Cookbook; worked numbers COMPUTED in double precision (= scipy butter to 12 digits).
   const rows: [number, number, number, number, number, number, number, number][] = [
     [48000, 1000, Math.SQRT1_2, 0.00391612666055, 0.00783225332109, -1.8153410827, 0.831005589347, -47.3389],
     [44100, 1000, Math.SQRT1_2, 0.00460399847502, 0.00920799695004, -1.79909640948, 0.817512403385, -45.8622],
@@ -31,7 +31,7 @@ describe('BiquadLowpass (Audio EQ Cookbook low-pass)', () => {
   });
 
   it.each([[0.5], [1], [2], [8]])('has gain exactly Q at the cutoff (Q = %f)', (q) => {
-    // REFERENCES.md §4a identity: |H(f0)| = Q.
+    // docs/references.md §4a identity: |H(f0)| = Q.
     const c = BiquadLowpass.coefficients(2000, q, 48000, new Float64Array(5));
     expect(responseDb(c, 2000, 48000)).toBeCloseTo(20 * Math.log10(q), 6);
     expect(responseDb(c, 0, 48000)).toBeCloseTo(0, 9);
@@ -56,7 +56,7 @@ describe('BiquadLowpass (Audio EQ Cookbook low-pass)', () => {
 });
 
 describe('OnePoleSmoother (Web Audio setTargetAtTime)', () => {
-  // REFERENCES.md §5: v(t) = V1 + (V0 − V1)·exp(−(t − T0)/τ); fractions reached (COMPUTED) 1τ 63.21 %, 2τ 86.47 %, 3τ 95.02 %, 4.6052τ 99 %.
+  // docs/references.md §5: v(t) = V1 + (V0 − V1)·exp(−(t − T0)/τ); fractions reached (COMPUTED) 1τ 63.21 %, 2τ 86.47 %, 3τ 95.02 %, 4.6052τ 99 %.
   const rows: [number, number][] = [
     [1, 0.6321],
     [2, 0.8647],
@@ -85,7 +85,7 @@ describe('unit helpers', () => {
     // Amplitude decibels are 20·log10(gain) (common practice): −20 dB = 0.1, a halving = −6.0206 dB.
     expect(dbToGain(-20)).toBeCloseTo(0.1, 12);
     expect(gainToDb(0.5)).toBeCloseTo(-6.0206, 4);
-    // REFERENCES.md §9: V = 0.5 → −1200 cents; §10: 5 cents = 1.0028923 (COMPUTED).
+    // docs/references.md §9: V = 0.5 → −1200 cents; §10: 5 cents = 1.0028923 (COMPUTED).
     expect(ratioToCents(0.5)).toBeCloseTo(-1200, 9);
     expect(centsToRatio(5)).toBeCloseTo(1.0028923, 7);
     expect(centsToRatio(1200)).toBeCloseTo(2, 12);

@@ -7,7 +7,7 @@ import { engineAt, playOne, renderFor, sine, tuningWith } from './engine-helpers
 
 const SR = 48000;
 
-/** |H(f)| of the Audio EQ Cookbook low-pass (REFERENCES.md §4a, VERIFIED formulas), evaluated independently here. */
+/** |H(f)| of the Audio EQ Cookbook low-pass (docs/references.md §4a, VERIFIED formulas), evaluated independently here. */
 function cookbookLowpassDb(f0: number, q: number, fs: number, f: number): number {
   const w0 = (2 * Math.PI * f0) / fs;
   const alpha = Math.sin(w0) / (2 * q);
@@ -43,7 +43,7 @@ describe('Engine rendering', () => {
     expect(worst).toBeLessThan(1e-6);
   });
 
-  // Replay at speed V multiplies every frequency by V (scaling theorem, J. O. Smith, SASP, REFERENCES.md §9, VERIFIED).
+  // Replay at speed V multiplies every frequency by V (scaling theorem, J. O. Smith, SASP, docs/references.md §9, VERIFIED).
   it.each([
     ['effects', 'follow-time', 0.5, 500],
     ['vehicles', 'follow-time', 0.5, 500],
@@ -74,7 +74,7 @@ describe('Engine rendering', () => {
     }
   });
 
-  // Cookbook worked values (REFERENCES.md §4a): |H(f0)| = Q → −3.0103 dB at Q = 1/√2 (VERIFIED identity);
+  // Cookbook worked values (docs/references.md §4a): |H(f0)| = Q → −3.0103 dB at Q = 1/√2 (VERIFIED identity);
   // 48 kHz, f0 = 5 kHz: −18.8260 dB at Fs/4, f0 = 1 kHz: −47.3389 dB at Fs/4 (COMPUTED, cross-checked with scipy butter).
   it.each([
     [1000, 1000, -3.0103],

@@ -31,7 +31,7 @@ describe('PeakLimiter', () => {
     b[100] = 8;
     l.process(a, b, 0, sr);
     // Gain just after the burst: 10^((−3 − 18.06)/20) ≈ 0.0886; one time constant later (2400 samples) 63 % back:
-    // a one-pole release is v1 + (v0 − v1)·e^(−t/τ), the form of Web Audio setTargetAtTime (REFERENCES.md §5, VERIFIED; 1τ → 63.21 %).
+    // a one-pole release is v1 + (v0 − v1)·e^(−t/τ), the form of Web Audio setTargetAtTime (docs/references.md §5, VERIFIED; 1τ → 63.21 %).
     const g0 = 10 ** ((-3 - 20 * Math.log10(8)) / 20);
     const expected = 1 - (1 - g0) * Math.exp(-1);
     expect(a[100 + 2400] / 0.1).toBeCloseTo(expected, 2);

@@ -11,7 +11,7 @@ const moving = (p: [number, number, number], v: [number, number, number]): Movin
 
 describe('dopplerRatio: OpenStax train horn', () => {
   // OpenStax University Physics Vol. 1 §17.7, Example "Calculating a Doppler Shift": 150 Hz horn, c = 340 m/s,
-  // train at 35.0 m/s (REFERENCES.md §1a, VERIFIED). Published 167 Hz / 136 Hz / 150 Hz, tolerance ±0.5 Hz;
+  // train at 35.0 m/s (docs/references.md §1a, VERIFIED). Published 167 Hz / 136 Hz / 150 Hz, tolerance ±0.5 Hz;
   // exact values 167.2131 and 136.0000 at 1e-9 relative.
   const c = 340;
   it('raises the horn to 167 Hz while the train approaches', () => {
@@ -39,7 +39,7 @@ describe('dopplerRatio: OpenStax train horn', () => {
 });
 
 describe('dopplerRatio: OpenAL 1.1 §3.5.2 vector cases', () => {
-  // OpenAL 1.1 Specification §3.5.2 "Velocity Dependent Doppler Effect" (REFERENCES.md §1c, VERIFIED (secondary));
+  // OpenAL 1.1 Specification §3.5.2 "Velocity Dependent Doppler Effect" (docs/references.md §1c, VERIFIED (secondary));
   // expected ratios COMPUTED from the spec's formula, tolerance 1e-9 relative.
   const cases: [string, MovingPoint, MovingPoint, number, number, number][] = [
     ['source approaching at 30 m/s', moving([0, 0, -100], [0, 0, 30]), still(0, 0, 0), 343.3, 1, 1.0957548675],

@@ -3,7 +3,7 @@ import { speedOfSound } from '../../src/motion';
 
 describe('speedOfSound', () => {
   // OpenStax University Physics Vol. 1 §17.3 "Speed of Sound": 331 m/s at 0 °C and 343 m/s at 20.0 °C
-  // (REFERENCES.md §2, VERIFIED); tolerance ±0.5 m/s because the book's law uses 331 and 273 where ours uses 331.3 and 273.15.
+  // (docs/references.md §2, VERIFIED); tolerance ±0.5 m/s because the book's law uses 331 and 273 where ours uses 331.3 and 273.15.
   it.each([
     [0, 331],
     [20, 343],
@@ -11,7 +11,7 @@ describe('speedOfSound', () => {
     expect(Math.abs(speedOfSound(celsius) - published)).toBeLessThanOrEqual(0.5);
   });
 
-  // REFERENCES.md §2 table, COMPUTED from 331.3·sqrt(1 + T/273.15): checks the closed form itself. That 331.3/273.15
+  // docs/references.md §2 table, COMPUTED from 331.3·sqrt(1 + T/273.15): checks the closed form itself. That 331.3/273.15
   // refinement is labelled MEMORY there (not found in a textbook copy); the OpenStax test above is the published anchor.
   it.each([
     [-10, 325.18],
@@ -23,7 +23,7 @@ describe('speedOfSound', () => {
     expect(speedOfSound(celsius)).toBeCloseTo(331.3 * Math.sqrt(1 + celsius / 273.15), 9);
   });
 
-  // REFERENCES.md §2 (COMPUTED claim): the linear form 331.3 + 0.606·T stays within 0.5 % over −30…+50 °C; the linear
+  // docs/references.md §2 (COMPUTED claim): the linear form 331.3 + 0.606·T stays within 0.5 % over −30…+50 °C; the linear
   // form itself is labelled weak / MEMORY there (textbooks usually give 331 + 0.6·T).
   it('stays within 0.5 % of the linear textbook approximation over −30…50 °C', () => {
     for (let t = -30; t <= 50; t += 5) {

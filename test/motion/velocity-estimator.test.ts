@@ -19,7 +19,7 @@ describe('VelocityEstimator', () => {
   });
 
   it('approaches a constant velocity like setTargetAtTime (1 − e^(−t/τ))', () => {
-    // Web Audio API setTargetAtTime: after t = τ the value covers 63.21 % of the step (REFERENCES.md §5, COMPUTED).
+    // Web Audio API setTargetAtTime: after t = τ the value covers 63.21 % of the step (docs/references.md §5, COMPUTED).
     const tau = 0.1;
     const e = new VelocityEstimator({ smoothingSeconds: tau, teleportSpeed: 400 });
     const dt = 1 / 600;

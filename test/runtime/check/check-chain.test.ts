@@ -7,7 +7,7 @@ import { phaseIntegrated } from '../../analysis/signals';
 const sampleRate = 48000;
 
 // A straight-line pass rendered synthetically: heard frequency f0·(c)/(c − DF·v·cosθ), the OpenAL 1.1 §3.5.2 form of
-// the OpenStax §17.7 moving-source formula with Doppler factor DF (REFERENCES.md §1a, §1c), phase-integrated.
+// the OpenStax §17.7 moving-source formula with Doppler factor DF (docs/references.md §1a, §1c), phase-integrated.
 function passSignal(factor: number) {
   const f0 = 330;
   const c = 343;
@@ -47,7 +47,7 @@ function check(renderFactor: number, expectFactor: number) {
 
 describe('tracker, expectation and statistics together', () => {
   it('passes a straight-line pass whose render matches the expectation, well inside 5 cents', () => {
-    // 5 cents: the default tolerance (about the smallest audible shift, REFERENCES.md §10).
+    // 5 cents: the default tolerance (about the smallest audible shift, docs/references.md §10).
     const stats = check(1, 1);
     expect(stats.excluded).toBe(0);
     expect(stats.maxCents).toBeLessThan(1);

@@ -8,7 +8,7 @@ const cents = (a: number, b: number) => 1200 * Math.log2(a / b);
 // A straight-line pass: a 440 Hz tone on a source running along x at v m/s, d m from a listener at rest at the origin,
 // closest at t0, speed of sound c. Heard frequency f0·c/(c − v·cosθ), θ between the source velocity and the line to the
 // listener: the moving-source formula f_o = f_s·c/(c − v_s) of OpenStax University Physics Vol. 1 §17.7
-// (REFERENCES.md §1a, VERIFIED) with v_s = v·cosθ; Doppler factor DF scales v as in OpenAL 1.1 §3.5.2 (§1c).
+// (docs/references.md §1a, VERIFIED) with v_s = v·cosθ; Doppler factor DF scales v as in OpenAL 1.1 §3.5.2 (§1c).
 const passes = [
   { v: 30, d: 8, c: 343 },
   { v: 50, d: 15, c: 331.3 },
@@ -47,7 +47,7 @@ describe('checkScene on a rendered straight-line pass', () => {
       const t = s.times[i];
       // Away from the closest approach (where the 30 ms tracker window averages the steepest part) and the edges.
       if (Math.abs(t - t0) < 0.25 || t < 0.1 || t > 5.9) continue;
-      // 5 cents: the default tolerance, about the smallest audible shift (REFERENCES.md §10, VERIFIED).
+      // 5 cents: the default tolerance, about the smallest audible shift (docs/references.md §10, VERIFIED).
       expect(Math.abs(cents(s.measuredHz[i], heard(t)))).toBeLessThan(5);
       compared++;
     }

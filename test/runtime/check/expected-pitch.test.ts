@@ -37,7 +37,7 @@ const times = (from: number, to: number, step: number) => Float64Array.from({ le
 describe('expected heard frequency', () => {
   it.each([
     // OpenStax University Physics Vol. 1 §17.7, "Calculating a Doppler Shift": 150 Hz horn, c = 340 m/s, 35 m/s
-    // (REFERENCES.md §1a, VERIFIED): 167.2131 Hz approaching, 136.0000 Hz receding (exact values).
+    // (docs/references.md §1a, VERIFIED): 167.2131 Hz approaching, 136.0000 Hz receding (exact values).
     { label: 'approaching', vx: 35, expected: 167.2131 },
     { label: 'receding', vx: -35, expected: 136.0 },
   ])('gives the textbook train horn $label at 35 m/s ($expected Hz)', ({ vx, expected }) => {
@@ -47,7 +47,7 @@ describe('expected heard frequency', () => {
   });
 
   it('follows the closed-form straight-line pass f0·c/(c − v·cosθ) when nothing is smoothed', () => {
-    // Moving-source formula of OpenStax §17.7 with the line-of-sight component v·cosθ (REFERENCES.md §1a).
+    // Moving-source formula of OpenStax §17.7 with the line-of-sight component v·cosθ (docs/references.md §1a).
     const v = 30;
     const d = 5;
     const t0 = 2;
@@ -68,7 +68,7 @@ describe('expected heard frequency', () => {
   });
 
   it('scales the shift with the Doppler factor (OpenAL 1.1 §3.5.2: f′ = f·(SS − DF·vls)/(SS − DF·vss))', () => {
-    // REFERENCES.md §1c, COMPUTED from the formula: source at (0,0,−100) approaching at 30 m/s, SS 343.3, DF 2 → 1.2117896223.
+    // docs/references.md §1c, COMPUTED from the formula: source at (0,0,−100) approaching at 30 m/s, SS 343.3, DF 2 → 1.2117896223.
     const source = straightLine({ x: 0, y: 0, z: -100 }, { x: 0, y: 0, z: 30 });
     const [hz] = expectedHeardFrequencies(input({ emittedHz: 1, tuning: tuningWith({ c: 343.3, factor: 2 }), source }), [0]);
     expect(hz).toBeCloseTo(1.2117896223, 9);
@@ -89,7 +89,7 @@ describe('expected heard frequency', () => {
   });
 
   it('applies the group pitch curve at the time scale, glides by the ratio smoothing time, and leaves exempt groups alone', () => {
-    // One-pole approach v(t) = V1 + (V0 − V1)·e^(−t/τ) in cents (Web Audio setTargetAtTime, REFERENCES.md §5).
+    // One-pole approach v(t) = V1 + (V0 − V1)·e^(−t/τ) in cents (Web Audio setTargetAtTime, docs/references.md §5).
     const tau = 0.05;
     const timeScaleAt = (t: number) => (t < 1 ? 1 : 0.5);
     const ts = times(0.5, 1.5, 0.01);

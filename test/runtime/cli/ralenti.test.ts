@@ -22,7 +22,7 @@ beforeAll(() => {
 
 describe('ralenti bake', () => {
   // Replay at speed V multiplies frequencies by V and divides the duration by V (scaling theorem,
-  // J. O. Smith, Spectral Audio Signal Processing; REFERENCES.md §9, VERIFIED).
+  // J. O. Smith, Spectral Audio Signal Processing; docs/references.md §9, VERIFIED).
   it('bakes a 1 kHz WAV at speed 0.25 to 250 Hz and 4× the length', async () => {
     const out = join(dir, 'slow.wav');
     const r = await cli('bake', tone, '--speed', '0.25', '-o', out);

@@ -17,7 +17,7 @@ describe('renderScene', () => {
     for (let i = 0; i < mono.length; i++) mono[i] = 0.5 * (left[i] + right[i]);
     const track = trackPitch(mono, sampleRate, { hopSeconds: 0.02, minHz: 300, maxHz: 700 });
     // Moving source, listener at rest: f = f0 · c / (c − v_s), v_s the speed toward the listener
-    // (OpenStax University Physics 1, §17.7, VERIFIED; REFERENCES.md §1a). c = 343.3 m/s set in the script.
+    // (OpenStax University Physics 1, §17.7, VERIFIED; docs/references.md §1a). c = 343.3 m/s set in the script.
     const c = 343.3;
     const f0 = 440;
     let checked = 0;
