@@ -62,6 +62,9 @@ export class EngineHost {
   /** Exponentially weighted sums of the same (time constant LOAD_AVERAGE_SECONDS); their ratio is the load. */
   private busyAvgMs = 0;
   private audioAvgMs = 0;
+  /** Largest peakIn / peakOut of every render since the last stats report (the engine resets its own per call). */
+  private intervalPeakIn = 0;
+  private intervalPeakOut = 0;
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
@@ -192,6 +195,9 @@ export class EngineHost {
       this.faulted = true;
       this.fail('process', errorMessage(err));
     }
+    const st = this.engine.stats;
+    if (st.peakIn > this.intervalPeakIn) this.intervalPeakIn = st.peakIn;
+    if (st.peakOut > this.intervalPeakOut) this.intervalPeakOut = st.peakOut;
     this.framesSinceStats += frames;
     if (this.framesSinceStats >= this.statsIntervalFrames) {
       this.framesSinceStats = 0;
@@ -252,7 +258,10 @@ export class EngineHost {
         this.voiceOwners.delete(engineVoice);
         this.voices.delete(mainVoice);
       }
-      const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
+      // Peaks over the whole report interval (true peak of every sample since the last report), not the last block's.
+      const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors, peakIn: this.intervalPeakIn, peakOut: this.intervalPeakOut };
+      this.intervalPeakIn = 0;
+      this.intervalPeakOut = 0;
       this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad() });
     } catch (err) {
       this.fail('stats', errorMessage(err));

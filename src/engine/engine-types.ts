@@ -55,7 +55,7 @@ export interface EngineStats {
   clamps: number;
   /** Requests refused for lack of capacity (sound slots full, bad ids). */
   refused: number;
-  /** Peak absolute output sample of the last render call, before and after the limiter. */
+  /** Peak absolute output sample of the last render call, before and after the limiter (a host's stats report carries the peak over its whole report interval). */
   peakIn: number;
   peakOut: number;
   /** Limiter gain reduction at the end of the last render call, in dB (≤ 0). */
