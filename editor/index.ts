@@ -10,7 +10,7 @@ export { AUTOSAVE_KEY, DOWNLOAD_NAME, loadAutosaved, autosave, clearAutosave, re
 export { AUTOSAVE_VERSIONS_KEY, readAutosaveVersions } from './autosave-versions';
 export { decodeAudioFile, type DecodedAudioFile } from './decode-audio-file';
 export { readAudioFileRate, type AudioFileRate } from './audio-file-rate';
-export type { ReplaceSound } from './sound-drop';
+export { dropSound, type ReplaceSound } from './sound-drop';
 export { groupPageParts, type GroupPagePart, type GroupPageArgs } from './sections/group-section';
 export { CurveBladePlugin, curveBladeBundle, CurveBladeApi } from './curve-blade';
 export { ElementBladePlugin, elementBladeBundle } from './element-blade';

@@ -9,6 +9,8 @@ import { VoiceNames } from './voice-names';
 export interface MountEditorOptions extends Partial<Omit<EditorHost, 'ralenti' | 'container' | 'names' | 'storage'>> {
   /** Element the dock is added to (default: document.body). */
   parent?: HTMLElement;
+  /** id given to the dock element (default none). */
+  id?: string;
   /** Build the panel in this element instead of a dock (then there is no resizing or folding). */
   container?: HTMLElement;
   /** Storage for the autosave and the dock's width; null turns both off (default: localStorage). */
@@ -17,8 +19,8 @@ export interface MountEditorOptions extends Partial<Omit<EditorHost, 'ralenti' |
   restoreAutosave?: boolean;
   /** Drive panel.update() from requestAnimationFrame (default true); false: call it from your own frame loop. */
   autoUpdate?: boolean;
-  /** Names for the readouts: voices by RalentiVoice and sources by RalentiSource. */
-  names?: { voices?: [RalentiVoice, string][]; sources?: [RalentiSource, string][] };
+  /** Names for the readouts: voices by RalentiVoice and sources by RalentiSource, or a VoiceNames the page keeps up to date. */
+  names?: VoiceNames | { voices?: [RalentiVoice, string][]; sources?: [RalentiSource, string][] };
 }
 
 /** A mounted editor. */
@@ -48,10 +50,14 @@ export function mountEditor(ralenti: Ralenti, options: MountEditorOptions = {}):
   const doc = options.container?.ownerDocument ?? options.parent?.ownerDocument ?? document;
   const storage = options.storage === null ? undefined : (options.storage ?? defaultStorage(doc));
   const dock = options.container ? null : new EditorDock(doc, options.parent ?? doc.body, storage);
-  const names = new VoiceNames();
-  for (const [v, n] of options.names?.voices ?? []) names.nameVoice(v.id, n);
-  for (const [s, n] of options.names?.sources ?? []) names.nameSource(s.id, n);
-  const { parent: _p, container, storage: _s, restoreAutosave, autoUpdate, names: _n, ...host } = options;
+  const given = options.names;
+  const names = given instanceof VoiceNames ? given : new VoiceNames();
+  if (given && !(given instanceof VoiceNames)) {
+    for (const [v, n] of given.voices ?? []) names.nameVoice(v.id, n);
+    for (const [s, n] of given.sources ?? []) names.nameSource(s.id, n);
+  }
+  if (dock && options.id) dock.element.id = options.id;
+  const { parent: _p, container, storage: _s, restoreAutosave, autoUpdate, names: _n, id: _i, ...host } = options;
   const panel = new EditorPanel({ ...host, ralenti, container: container ?? dock!.body, names, storage });
   if (restoreAutosave !== false) panel.restoreAutosave();
   let frame = 0;

@@ -19,7 +19,7 @@ describe('editor field specs', () => {
   });
 
   it('matches the published JSON Schema’s minimum and maximum for every numeric section field', () => {
-    const props = (tuningSchema as { properties: Record<string, { properties: Record<string, { minimum?: number; maximum?: number }> }> }).properties;
+    const props = (tuningSchema as unknown as { properties: Record<string, { properties: Record<string, { minimum?: number; maximum?: number }> }> }).properties;
     let checked = 0;
     for (const f of sectionFieldSpecs) {
       if (f.limit.kind !== 'number') continue;
