@@ -18,10 +18,10 @@ describe('npm run build (scripts/build.mjs)', () => {
   afterAll(() => rmSync(out, { recursive: true, force: true }));
 
   it('writes the ESM entries, the worklet as its own file, and declarations for core and runtime', () => {
-    for (const f of ['index.js', 'runtime.js', 'runtime-inline.js', 'three.js', 'howler.js', 'ralenti-processor.js']) {
+    for (const f of ['index.js', 'runtime.js', 'runtime-inline.js', 'three.js', 'howler.js', 'editor.js', 'ralenti-processor.js']) {
       expect(existsSync(join(out, f)), f).toBe(true);
     }
-    for (const f of ['src/index.d.ts', 'runtime/index.d.ts', 'runtime/inline.d.ts', 'runtime/three/index.d.ts', 'runtime/howler/index.d.ts']) {
+    for (const f of ['src/index.d.ts', 'runtime/index.d.ts', 'runtime/inline.d.ts', 'runtime/three/index.d.ts', 'runtime/howler/index.d.ts', 'editor/index.d.ts']) {
       expect(existsSync(join(out, 'types', f)), f).toBe(true);
     }
     expect(readFileSync(join(out, 'types/runtime/index.d.ts'), 'utf8')).toContain('createRalenti');
@@ -73,6 +73,17 @@ describe('npm run build (scripts/build.mjs)', () => {
     }
     expect(pkg.files).toContain('dist');
     expect(pkg.scripts.prepack).toMatch(/scripts\/build\.mjs/);
+  });
+
+  it('builds the editor entry importing only tweakpane beyond the package itself (its core is bundled in)', () => {
+    expect(readFileSync(join(out, 'types/editor/index.d.ts'), 'utf8')).toContain('mountEditor');
+    const bare = new Set<string>();
+    const files = readdirSync(out).filter((f) => f.endsWith('.js') && f !== 'ralenti-processor.js');
+    // esbuild writes module-level imports at line starts: `import … from "x";` (possibly over several lines) or `import "x";`.
+    for (const f of files) for (const m of readFileSync(join(out, f), 'utf8').matchAll(/^import\s(?:[^;"]*?\sfrom\s*)?"([^"]+)"/gm)) if (!m[1].startsWith('.')) bare.add(`${f}:${m[1]}`);
+    const fromEditor = [...bare].filter((b) => b.startsWith('editor.js:')).map((b) => b.slice('editor.js:'.length));
+    expect(fromEditor).toEqual(['tweakpane']);
+    expect([...bare].some((b) => b.endsWith(':@tweakpane/core'))).toBe(false);
   });
 
   it('loads the core bundle as plain ESM in Node', async () => {
