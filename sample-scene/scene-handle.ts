@@ -28,7 +28,7 @@ export interface RalentiSceneHandle {
   readonly lastLoadProblems: TuningProblem[];
   readonly playbackPath: 'engine' | 'builtin';
   /** The editor's session: which tuning plays (A/B), unsaved edits, undo/redo, the last notice; null before audio. */
-  readonly editor: { side: 'A' | 'B'; dirty: boolean; canUndo: boolean; canRedo: boolean; notice: string; autosave: string; savedText: string } | null;
+  readonly editor: { side: 'A' | 'B'; dirty: boolean; canUndo: boolean; canRedo: boolean; notice: string; autosave: string; autosavePending: boolean; savedText: string } | null;
   /** Fly-through recording and replay state plus the camera position (m), or null before audio starts. */
   readonly flyThrough: (FlyThroughSummary & { listener: { x: number; y: number; z: number } }) | null;
 }
@@ -89,7 +89,7 @@ export function installSceneHandle(state: SceneState): RalentiSceneHandle {
       const p = state.editor();
       if (!p) return null;
       const s = p.session;
-      return { side: s.side, dirty: s.dirty, canUndo: s.history.canUndo, canRedo: s.history.canRedo, notice: p.notice.last, autosave: s.lastAutosave, savedText: s.saved };
+      return { side: s.side, dirty: s.dirty, canUndo: s.history.canUndo, canRedo: s.history.canRedo, notice: p.notice.last, autosave: s.lastAutosave, autosavePending: s.autosavePending, savedText: s.saved };
     },
     get flyThrough() {
       return state.flyThrough();
