@@ -3,7 +3,7 @@
 // element so that a page can keep its own content clear of it; the width and the fold are remembered.
 
 /** Frozen defaults of EditorDock. */
-export const editorDockDefaults = Object.freeze({ width: 360, minWidth: 280, maxWidth: 720, foldedWidth: 30, storageKey: 'ralenti.editor.dock' });
+export const editorDockDefaults = Object.freeze({ windowShare: 0.22, minWidth: 280, maxWidth: 720, foldedWidth: 30, storageKey: 'ralenti.editor.dock' });
 
 /** The dock: `body` holds the panel and scrolls. */
 export class EditorDock {
@@ -23,7 +23,8 @@ export class EditorDock {
     this.storage = storage;
     const d = editorDockDefaults;
     const saved = this.read();
-    this.width = clamp(saved.width ?? Math.min(d.width, Math.round((doc.defaultView?.innerWidth ?? 1280) * 0.34)), d.minWidth, d.maxWidth);
+    // Default: about a fifth of the window, 300 px at 1024 wide up to 480 px at 2560.
+    this.width = clamp(saved.width ?? clamp(Math.round((doc.defaultView?.innerWidth ?? 1280) * d.windowShare), 300, 480), d.minWidth, d.maxWidth);
     this.folded = saved.folded ?? false;
     this.element = doc.createElement('aside');
     this.element.className = 'rl-dock';
