@@ -87,8 +87,9 @@ export class CurveView implements View {
       opt.textContent = mode === 'monotone' ? 'smooth (monotone)' : 'straight';
       this.interpolationElement.appendChild(opt);
     }
-    this.xInput = this.field('time scale of the selected key');
-    this.yInput = this.field(`value of the selected key${this.unit ? ` (${this.unit})` : ''}`);
+    const r = this.range;
+    this.xInput = this.field(`time scale of the selected key (${r.xMin}…${r.xMax})`);
+    this.yInput = this.field(`value of the selected key (${this.unit ? `${this.unit}, ` : ''}${r.yMin}…${r.yMax})`);
     this.addButton = this.button('+', 'add a key after the selected one');
     this.removeButton = this.button('−', 'remove the selected key');
     row.append(this.interpolationElement, this.labelled('s', this.xInput), this.labelled(this.unit || 'y', this.yInput), this.addButton, this.removeButton);

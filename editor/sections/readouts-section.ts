@@ -71,22 +71,24 @@ export class ReadoutsSection {
     this.folder.addBlade({ view: 'ralenti-element', element: this.spectrum.element });
     const l = this.load;
     const fmt0 = (v: number) => v.toFixed(0);
-    this.folder.addBinding(l, 'loadPercent', {
+    const tip = (b: { element: HTMLElement }, t: string) => (b.element.title = t);
+    const loadBinding = this.folder.addBinding(l, 'loadPercent', {
       label: 'engine load',
       readonly: true,
       format: (v: number) => (l.loadClock ? `${v.toFixed(1)} % · ${l.loadClock === 'Date.now' ? '1 s avg (ms clock)' : '1 s avg'}` : 'not measured'),
     });
-    this.folder.addBinding(l, 'loadPercent', { label: 'load history %', readonly: true, view: 'graph', min: 0, max: 100 });
-    this.folder.addBinding(l, 'active', { label: 'voices playing', readonly: true, format: (v: number) => `${v.toFixed(0)} of ${l.capacity}` });
-    this.folder.addBinding(l, 'virtual', { label: 'voices virtual', readonly: true, format: fmt0 });
+    tip(loadBinding, 'Share of the audio thread’s time spent rendering, averaged over 1 s (%; above 100 % the sound breaks up).');
+    tip(this.folder.addBinding(l, 'loadPercent', { label: 'load history %', readonly: true, view: 'graph', min: 0, max: 100 }), 'Engine load over the last seconds (0…100 %).');
+    tip(this.folder.addBinding(l, 'active', { label: 'voices playing', readonly: true, format: (v: number) => `${v.toFixed(0)} of ${l.capacity}` }), 'Voices playing, of the pool size.');
+    tip(this.folder.addBinding(l, 'virtual', { label: 'voices virtual', readonly: true, format: fmt0 }), 'Voices too quiet to render (below −90 dB); they keep their place and come back above −84 dB.');
     this.folder.addBinding(l, 'limiterDb', { label: 'limiter (dB)', readonly: true, format: (v: number) => v.toFixed(1) }).element.title = 'Gain reduction of the safety limiter at the last report (dB, ≤ 0).';
-    this.folder.addBinding(l, 'steals', { label: 'steals · clamps', readonly: true, format: () => `${l.steals} · ${l.clamps}` });
-    this.folder.addBinding(l, 'errors', { label: 'audio errors', readonly: true, format: fmt0 });
+    tip(this.folder.addBinding(l, 'steals', { label: 'steals · clamps', readonly: true, format: () => `${l.steals} · ${l.clamps}` }), 'Voices stolen for newer ones · values the audio thread clamped or replaced (counts since start).');
+    tip(this.folder.addBinding(l, 'errors', { label: 'audio errors', readonly: true, format: fmt0 }), 'Errors caught on the audio thread since start.');
     this.errorLine = doc.createElement('div');
     this.errorLine.className = 'rl-audio-error';
     this.errorLine.textContent = 'last audio error: none';
     this.folder.addBlade({ view: 'ralenti-element', element: this.errorLine });
-    this.folder.addBinding(l, 'resampler', { label: 'resampler', readonly: true });
+    tip(this.folder.addBinding(l, 'resampler', { label: 'resampler', readonly: true }), 'Resampler tier and inner loop the audio thread runs.');
   }
 
   /** Says which path the readouts describe. */
