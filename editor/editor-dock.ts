@@ -18,13 +18,15 @@ export class EditorDock {
   private readonly fold: HTMLButtonElement;
   private readonly storage: Storage | undefined;
   private readonly off: () => void;
+  /** True once the designer has chosen a width (then window resizes leave it alone). */
+  private sized: boolean;
 
   constructor(doc: Document, parent: HTMLElement, storage?: Storage) {
     this.storage = storage;
     const d = editorDockDefaults;
     const saved = this.read();
-    // Default: about a fifth of the window, 300 px at 1024 wide up to 480 px at 2560.
-    this.width = clamp(saved.width ?? clamp(Math.round((doc.defaultView?.innerWidth ?? 1280) * d.windowShare), 300, 480), d.minWidth, d.maxWidth);
+    this.sized = saved.width !== undefined;
+    this.width = clamp(saved.width ?? defaultDockWidth(doc.defaultView?.innerWidth ?? 1280), d.minWidth, d.maxWidth);
     this.folded = saved.folded ?? false;
     this.element = doc.createElement('aside');
     this.element.className = 'rl-dock';
@@ -49,7 +51,7 @@ export class EditorDock {
       this.setWidth(right - e.clientX);
     };
     const up = () => {
-      if (dragging) this.write();
+      if (dragging) (this.sized = true), this.write();
       dragging = false;
       this.element.classList.remove('rl-dock-resizing');
     };
@@ -58,11 +60,18 @@ export class EditorDock {
       this.element.classList.add('rl-dock-resizing');
       e.preventDefault();
     });
+    // Until the designer picks a width, the dock follows the window's size.
+    const follow = () => {
+      const w = defaultDockWidth(doc.defaultView?.innerWidth ?? 1280);
+      if (!this.sized && w !== this.width) this.setWidth(w);
+    };
     doc.addEventListener('pointermove', move);
     doc.addEventListener('pointerup', up);
+    doc.defaultView?.addEventListener('resize', follow);
     this.off = () => {
       doc.removeEventListener('pointermove', move);
       doc.removeEventListener('pointerup', up);
+      doc.defaultView?.removeEventListener('resize', follow);
     };
     this.apply();
   }
@@ -114,6 +123,11 @@ export class EditorDock {
       // Storage refused: the dock simply forgets.
     }
   }
+}
+
+/** The dock's width before the designer picks one, px: about a fifth of the window, 300 px at 1024 wide to 480 px at 2560. */
+export function defaultDockWidth(windowWidth: number): number {
+  return clamp(Math.round(windowWidth * editorDockDefaults.windowShare), 300, 480);
 }
 
 function clamp(v: number, lo: number, hi: number): number {

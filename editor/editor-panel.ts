@@ -115,6 +115,9 @@ export class EditorPanel {
     this.names = host.names ?? new VoiceNames();
     for (const v of host.voices ?? []) this.names.voices.includes(v as NamedVoice) || this.names.voices.push(v as NamedVoice);
     this.notice = new Announcer(this.doc);
+    const key = host.compareKey ?? '`';
+    this.notice.say(`Ctrl/Cmd+Z undo · ${key} switches A/B${host.replaceSound ? ' · drop an audio file on a voice to hear it' : ''}`);
+    this.notice.last = '';
     this.buses = new GroupControls(host.ralenti);
     if (host.master) this.volume.db = Math.round(gainToDb(Math.max(1e-6, host.master.gain.value)));
     const win = this.doc.defaultView;

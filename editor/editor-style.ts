@@ -7,9 +7,9 @@ export const editorCss = `
   font-family: system-ui, -apple-system, "Segoe UI", Roboto, sans-serif; color: #e6e9f0; box-sizing: border-box; }
 .rl-dock-grip { position: absolute; left: -4px; top: 0; bottom: 0; width: 8px; cursor: ew-resize; z-index: 2; }
 .rl-dock-grip:hover, .rl-dock-resizing .rl-dock-grip { background: rgba(95, 211, 199, 0.35); }
-.rl-dock-fold { position: absolute; left: 2px; top: 4px; z-index: 3; width: 24px; height: 24px; border: 1px solid #334066; border-radius: 4px;
+.rl-dock-fold { position: absolute; left: 4px; top: 3px; z-index: 3; width: 20px; height: 20px; border: 1px solid #334066; border-radius: 4px;
   background: #182036; color: #cfd6e4; cursor: pointer; font: 14px/1 sans-serif; padding: 0; }
-.rl-dock-body { flex: 1; overflow-y: auto; overflow-x: hidden; padding-left: 28px; }
+.rl-dock-body { flex: 1; overflow-y: auto; overflow-x: hidden; }
 .rl-dock-folded .rl-dock-body, .rl-dock-folded .rl-dock-grip { display: none; }
 .rl-dock.rl-dropping, .rl-dropping { outline: 2px dashed #5fd3c7; outline-offset: -2px; }
 .rl-pane { --tp-base-background-color: #161d2b; --tp-base-shadow-color: rgba(0, 0, 0, 0.3);
@@ -45,6 +45,7 @@ export const editorCss = `
 .rl-meter-off .rl-meter-track { opacity: 0.3; }
 .rl-path-line { font: 10px/1.35 sans-serif; color: #9aa6bd; padding: 2px 0; }
 .rl-path-line[data-path="builtin"] { color: #ffc27a; }
+.rl-elblade:has(> .rl-voices) { overflow-x: auto; }
 .rl-voices { width: 100%; border-collapse: collapse; font: 10px/1.35 ui-monospace, Menlo, Consolas, monospace; color: #d9dee8; }
 .rl-voices th { font-weight: 600; text-align: right; color: #9aa6bd; padding: 1px 3px; }
 .rl-voices th:first-child, .rl-voices td:first-child { text-align: left; max-width: 110px; overflow: hidden; text-overflow: ellipsis; }
