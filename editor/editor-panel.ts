@@ -1,17 +1,17 @@
 // The tuning editor: a tweakpane panel over a running Ralenti, editing a draft tuning that is applied live, with undo,
 // A/B of two tunings, honest fields, meters, and an autosave that never keeps a tuning that stopped the page.
 import { Pane, type FolderApi } from 'tweakpane';
-import type { Ralenti, RalentiAudioError } from '../runtime';
+import type { RalentiAudioError } from '../runtime';
 import { defaultTuning, serializeTuning } from '../runtime';
 import { gainToDb, type Tuning } from '../src';
 import { curveBladeBundle, type CurveBladeApi } from './curve-blade';
 import { elementBladeBundle } from './element-blade';
-import { BuiltinRatePlayer, type ComparisonSource } from './builtin-rate-player';
+import { PlaybackPath } from './playback-path';
 import { CompareSection } from './sections/compare-section';
 import { FileSection } from './sections/file-section';
 import { GroupSection } from './sections/group-section';
 import { ReadoutsSection } from './sections/readouts-section';
-import { RecordingSection, type RecordingControls } from './sections/recording-section';
+import { RecordingSection } from './sections/recording-section';
 import { addDistanceSection, addDopplerSection, addListeningSection, addTimeFlowSection, type TunableContext } from './sections/tunable-sections';
 import { downloadJson, DOWNLOAD_NAME, editableCopy, loadAutosaved, readTuningText, type MutableTuning, type TuningProblem } from './tuning-store';
 import { readAutosaveVersions } from './autosave-versions';
@@ -24,37 +24,11 @@ import { TuningSession } from './tuning-session';
 import { openPickerOf, pickTuningFile, writeTuningFile, type TuningFileHandle } from './tuning-file-access';
 import { VoiceNames, type NamedVoice } from './voice-names';
 import { editorKeyAction } from './editor-keys';
-import { SoundDropTarget, type ReplaceSound } from './sound-drop';
+import { SoundDropTarget } from './sound-drop';
+import type { EditorHost } from './editor-host';
 
-/** What the editor needs from the host page (only `ralenti` and `container` are required). */
-export interface EditorHost {
-  ralenti: Ralenti;
-  /** Element the panel lives in (it scrolls when taller than the page). */
-  container: HTMLElement;
-  /** Listening gain after the engine: the volume control drives it (absent: no volume control). */
-  master?: GainNode;
-  /** Gain between the engine and `master`, muted when the browser's playbackRate path plays (needs `comparison`). */
-  engineBus?: GainNode;
-  /** Names for the readouts (voices and sources); `voices` is the older way to name voices. */
-  names?: VoiceNames;
-  voices?: readonly NamedVoice[];
-  /** Sources the browser playbackRate comparison mirrors (with `engineBus` and `master`). */
-  comparison?: readonly ComparisonSource[];
-  /** Storage for the autosave (localStorage); undefined disables it. */
-  storage?: Storage;
-  /** Problems found in the autosaved tuning at start, shown in the file section. */
-  restoreProblems?: readonly TuningProblem[];
-  /** Whether the running tuning came from the autosave. */
-  restored?: boolean;
-  /** Fly-through recording and replay; the "Fly-through recording" section appears when given. */
-  recording?: RecordingControls;
-  /** Asks before replacing unsaved edits (default: window.confirm). */
-  confirm?: (message: string) => boolean;
-  /** Replaces a voice's sound with a dropped file (the page decides how); absent: drops are refused. */
-  replaceSound?: ReplaceSound;
-  /** Key (KeyboardEvent.key) that toggles A/B; default '`'. */
-  compareKey?: string;
-}
+export type { EditorHost };
+
 
 /** The editor panel; call update() once per animation frame (mountEditor does it for you). */
 export class EditorPanel {
@@ -63,7 +37,7 @@ export class EditorPanel {
   /** The live listening volume in dB (master bus). */
   readonly volume = { db: -18 };
   /** Which path plays: the engine, or the browser's built-in playbackRate. */
-  readonly path: { mode: 'engine' | 'builtin' } = { mode: 'engine' };
+  readonly path: { mode: 'engine' | 'builtin' };
   /** Undo history, saved state, A/B and autosave. */
   readonly session: TuningSession;
   /** Names shown in the readouts. */
@@ -72,9 +46,7 @@ export class EditorPanel {
   readonly notice: Announcer;
   private readonly host: EditorHost;
   private readonly doc: Document;
-  private readonly builtin: BuiltinRatePlayer | null;
-  private readonly builtinTap: AnalyserNode | null;
-  private readonly tapBuffer = new Float32Array(2048);
+  private readonly builtin: PlaybackPath | null;
   private readonly buses: GroupControls;
   private readonly live = { timeScale: 1 };
   private readonly side = { now: 'B' as 'A' | 'B' };
@@ -92,15 +64,6 @@ export class EditorPanel {
   private lastAudioError: RalentiAudioError | null = null;
   private readonly drop: SoundDropTarget;
   private readonly cleanup: (() => void)[] = [];
-  private readonly autosaveSwitch = {
-    get enabled(): boolean {
-      return panelOf(this).session.autosave;
-    },
-    set enabled(on: boolean) {
-      panelOf(this).session.autosave = on;
-    },
-    panel: null as EditorPanel | null,
-  };
 
   constructor(host: EditorHost) {
     this.host = host;
@@ -111,7 +74,6 @@ export class EditorPanel {
       style.textContent = editorCss;
       this.doc.head.appendChild(style);
     }
-    this.autosaveSwitch.panel = this;
     this.names = host.names ?? new VoiceNames();
     for (const v of host.voices ?? []) this.names.voices.includes(v as NamedVoice) || this.names.voices.push(v as NamedVoice);
     this.notice = new Announcer(this.doc);
@@ -125,9 +87,8 @@ export class EditorPanel {
     this.cleanup.push(host.ralenti.onError((e) => (this.lastAudioError = e)));
     const ctx = host.ralenti.context;
     const withBuiltin = host.comparison && host.comparison.length > 0 && host.master && host.engineBus;
-    this.builtinTap = withBuiltin && typeof ctx.createAnalyser === 'function' ? ctx.createAnalyser() : null;
-    if (this.builtinTap) this.builtinTap.fftSize = 2048;
-    this.builtin = withBuiltin ? new BuiltinRatePlayer({ context: ctx, output: host.master!, sources: host.comparison!, tap: this.builtinTap ?? undefined }) : null;
+    this.builtin = withBuiltin ? new PlaybackPath(host.ralenti, host.master!, host.engineBus!, host.comparison!) : null;
+    this.path = this.builtin?.state ?? { mode: 'engine' };
     const onKey = (e: KeyboardEvent) => this.onKey(e);
     const onPageError = () => this.session.cancelAutosave('the page threw an error after this change');
     win?.addEventListener('keydown', onKey);
@@ -234,11 +195,9 @@ export class EditorPanel {
     this.live.timeScale = s;
     for (const c of this.curves) if (c.marker !== s) c.marker = s;
     const now = ralenti.context.currentTime;
-    const builtinOn = this.builtin !== null && this.path.mode === 'builtin';
-    const altPeak = builtinOn && this.builtinTap ? this.tapPeak(this.builtinTap) : undefined;
+    const altPeak = this.builtin?.update();
     this.readouts.update({ stats: ralenti.stats, monitors: ralenti.voices, capacity: ralenti.capacity, lastError: this.lastAudioError, load: ralenti.renderLoad, now, altPeak });
     for (const [name, meter] of this.groups.meters) meter.push(this.buses.state(name)?.peak ?? null, now);
-    this.builtin?.update(ralenti.voices, ralenti.tuning);
     this.recording?.update();
     if (this.session.frame(ralenti.stats.errors)) this.file.setVersions(this.versionLabels());
   }
@@ -276,7 +235,7 @@ export class EditorPanel {
       undo: () => this.undo(), redo: () => this.redo(), save: () => void this.save(),
       saveCopy: () => downloadJson(this.doc, this.session.working, this.fileName), openFile: (input) => void this.openFile(input),
       loadText: (text, name) => this.loadText(text, name), reset: () => this.reset(),
-      autosave: this.autosaveSwitch, autosaveChanged: () => this.afterChange(), restoreVersion: (i) => this.restoreVersion(i),
+      autosave: this.session.autosaveSwitch, autosaveChanged: () => this.afterChange(), restoreVersion: (i) => this.restoreVersion(i),
     });
     this.recording = this.host.recording ? new RecordingSection(this.pane, this.doc, this.host.recording) : null;
     f.push(this.readouts.folder, this.compare.folder, this.file.folder);
@@ -384,29 +343,13 @@ export class EditorPanel {
     else this.listenTo(this.session.side === 'A' ? 'B' : 'A');
   }
 
-  private tapPeak(a: AnalyserNode): number {
-    a.getFloatTimeDomainData(this.tapBuffer);
-    let p = 0;
-    for (const x of this.tapBuffer) p = Math.max(p, Math.abs(x));
-    return p;
-  }
-
   private applyVolume(): void {
     if (!this.host.master) return;
     this.host.master.gain.setTargetAtTime(listeningGain(this.volume.db), this.host.ralenti.context.currentTime, 0.02);
   }
 
   private switchPath(): void {
-    if (!this.builtin || !this.host.engineBus) return;
-    const t = this.host.ralenti.context.currentTime;
-    const builtin = this.path.mode === 'builtin';
-    if (builtin) this.builtin.start();
-    this.host.engineBus.gain.setTargetAtTime(builtin ? 0 : 1, t, 0.02);
-    if (!builtin) setTimeout(() => this.builtin?.stop(), 150);
+    this.builtin?.switched();
     this.readouts.setPath(this.path.mode);
   }
-}
-
-function panelOf(o: { panel: EditorPanel | null }): EditorPanel {
-  return o.panel!;
 }

@@ -1,7 +1,9 @@
 // Public entry of the editor (`ralenti/editor`, for development builds): mountEditor for any page, the panel, its
 // curve blade and tuning-file helpers.
 export { mountEditor, type MountEditorOptions, type MountedEditor } from './mount-editor';
-export { EditorPanel, type EditorHost } from './editor-panel';
+export { EditorPanel } from './editor-panel';
+export type { EditorHost } from './editor-host';
+export { PlaybackPath } from './playback-path';
 export { EditorDock, editorDockDefaults } from './editor-dock';
 export { VoiceNames, type NamedVoice } from './voice-names';
 export { LISTENING_FLOOR_DB, listeningGain } from './listening-level';

@@ -39,8 +39,8 @@ export class TuningSession {
   readonly a = { text: '', name: 'saved', fromFile: false };
   /** Which tuning plays: A or B (the working tuning, where edits go). */
   side: 'A' | 'B' = 'B';
-  /** Whether autosave is on. */
-  autosave = true;
+  /** The autosave switch the panel binds to. */
+  readonly autosaveSwitch = { enabled: true };
   /** Last autosave outcome, for the status line ('' = none yet). */
   lastAutosave = '';
   private pending: PendingSave | null = null;
@@ -134,7 +134,7 @@ export class TuningSession {
 
   /** Arms the autosave for `text` (its error baseline is taken at the next frame). */
   private schedule(text: string): void {
-    if (!this.autosave || !this.options.storage) return;
+    if (!this.autosaveSwitch.enabled || !this.options.storage) return;
     this.pending = { text, framesLeft: this.surviveFrames, errors: NaN };
   }
 }
