@@ -85,4 +85,26 @@ describe('EditorPanel', () => {
     panel.listenTo('B');
     expect(ralenti.tuning.timeFlow.slowMotionScale).toBe(0.2);
   });
+
+  it('saves back into the file it was opened from through its File System Access handle, and is then not dirty', async () => {
+    const { panel, ralenti } = setup();
+    const written: string[] = [];
+    const handle = {
+      name: 'level-3.json',
+      getFile: async () => new File([''], 'level-3.json'),
+      createWritable: async () => {
+        let text = '';
+        return { write: async (d: string) => void (text += d), close: async () => void written.push(text) };
+      },
+    };
+    panel.loadText(serializeTuning(defaultTuning), 'level-3.json', handle);
+    const t = JSON.parse(serializeTuning(ralenti.tuning));
+    t.master.gainDb = -3;
+    ralenti.setTuning(t);
+    panel.session.commit(serializeTuning(ralenti.tuning), 'edit');
+    expect(panel.session.dirty).toBe(true);
+    await panel.save();
+    expect(written).toEqual([serializeTuning(ralenti.tuning)]);
+    expect(panel.session.dirty).toBe(false);
+  });
 });
