@@ -36,7 +36,7 @@ const described: { [S in SectionName]: { [K in keyof (typeof sectionLimits)[S]]:
   distance: {
     model: { label: 'distance law', unit: '', step: 1, about: 'Web Audio API distance model' },
     refDistance: { label: 'ref distance (m)', unit: 'm', step: 0.01, about: 'Distance at which the distance gain is 1' },
-    maxDistance: { label: 'max distance (m)', unit: 'm', step: 1, about: 'Distance beyond which the gain stops falling' },
+    maxDistance: { label: 'max distance (m)', unit: 'm', step: 0.01, about: 'Distance beyond which the gain stops falling' },
     rolloffFactor: { label: 'rolloff', unit: '×', step: 0.01, about: 'How fast the gain falls with distance' },
   },
   timeFlow: {

@@ -32,7 +32,8 @@ export function addNumberField(
   });
   binding.element.title = tooltipOf(spec);
   binding.element.dataset.field = spec.path;
-  const clampAndRound = (v: number): number => roundToStep(Math.min(limit.max, Math.max(limit.min, v)), spec.step);
+  // Rounded to the step, then kept inside the range (a limit off the step grid, like 0.01 with step 1, stays reachable).
+  const clampAndRound = (v: number): number => Math.min(limit.max, Math.max(limit.min, roundToStep(v, spec.step)));
   binding.on('change', (e) => {
     const v = e.value as number;
     const stored = clampAndRound(v);
