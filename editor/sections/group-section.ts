@@ -4,7 +4,7 @@
 import type { BladeApi, FolderApi, Pane } from 'tweakpane';
 import type { CurveSpec } from '../../src';
 import type { CurveBladeApi, CurveBladeParams } from '../curve-blade';
-import { curveFieldSpecs, groupPrioritySpec, tooltipOf } from '../field-specs';
+import { curveFieldSpecs, groupPrioritySpec, roundToStep, tooltipOf } from '../field-specs';
 import { addChoiceField, addNumberField } from '../controls/number-field';
 import type { GroupControls } from '../group-controls';
 import { PeakMeter } from '../monitors/peak-meter';
@@ -34,11 +34,31 @@ function addCurve(a: GroupPageArgs, key: 'pitch' | 'tone' | 'level', params: Par
   blade.element.dataset.curve = title;
   blade.element.title = `${tooltipOf(spec)} x: time scale 0…4 (the part above 1 is drawn compressed; see the knee mark).`;
   blade.on('change', (ev) => {
-    owner[key] = ev.value as CurveSpec;
+    // While dragging, the exact position plays; on release the keys are stored rounded to the field's steps.
+    const spec = ev.value as CurveSpec;
+    const stored = ev.last ? roundCurveKeys(spec, curveFieldSpecs[key].step, curveFieldSpecs[key].limit) : spec;
+    owner[key] = stored;
+    if (stored !== spec) blade.value = stored;
     a.ctx.changed(ev.last);
   });
   a.ctx.curves.push(blade);
   return blade;
+}
+
+/** The curve with y rounded to `yStep` inside the range and x to 0.001 where that keeps x strictly increasing; the same object when nothing changes. */
+export function roundCurveKeys(spec: CurveSpec, yStep: number, y: { min: number; max: number }): CurveSpec {
+  let changed = false;
+  let prevX = -Infinity;
+  const keys = spec.keys.map((k, i) => {
+    const next = spec.keys[i + 1];
+    const rx = roundToStep(k.x, 0.001);
+    const x = rx > prevX && (next === undefined || rx < roundToStep(next.x, 0.001)) ? rx : k.x;
+    prevX = x;
+    const ky = Math.min(y.max, Math.max(y.min, roundToStep(k.y, yStep)));
+    if (x !== k.x || ky !== k.y) changed = true;
+    return { x, y: ky };
+  });
+  return changed ? { interpolation: spec.interpolation, keys } : spec;
 }
 
 /** Bus controls of the group (when the runtime has group buses) and its meter. */

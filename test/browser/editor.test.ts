@@ -126,6 +126,33 @@ describe.skipIf(mode === 'skip')('sample scene and tuning panel in Chromium', ()
     await blur(page);
   });
 
+  it('moves a curve key dragged with the mouse and stores it rounded to the curve’s steps on release', async () => {
+    await page.locator('#panel .rl-group-tab', { hasText: 'ambience' }).click();
+    const key = page.locator('[data-curve="ambience · level"] circle[data-x="0.35"]');
+    await key.scrollIntoViewIfNeeded();
+    const box = (await key.boundingBox())!;
+    const keysOf = (json: string) => JSON.parse(json).groups.ambience.level.keys as { x: number; y: number }[];
+    const before = keysOf((await handle(page)).tuningJson!);
+    expect(before.find((k) => k.x === 0.35)?.y).toBe(-2);
+    const cx = box.x + box.width / 2;
+    const cy = box.y + box.height / 2;
+    await page.mouse.move(cx, cy);
+    await page.mouse.down();
+    for (let i = 1; i <= 5; i++) await page.mouse.move(cx, cy - 6 * i);
+    await page.mouse.up();
+    // Up the graph is louder: the key's level rises; it keeps its place among the keys.
+    const h = await waitFor(page, 'the dragged level key', (x) => keysOf(x.tuningJson!)[1].y > -1.5);
+    const after = keysOf(h.tuningJson!);
+    expect(after).toHaveLength(before.length);
+    expect(after[1].x).toBeGreaterThan(before[0].x);
+    expect(after[1].x).toBeLessThan(before[2].x);
+    expect(after[0]).toEqual(before[0]);
+    expect(after[2]).toEqual(before[2]);
+    // Level keys step by 0.1 dB and x by 0.001.
+    expect(Number(after[1].y.toFixed(1))).toBe(after[1].y);
+    expect(Number(after[1].x.toFixed(3))).toBe(after[1].x);
+  });
+
   it('stores typed numbers rounded to the field’s step, reverts text that is not a number, and announces clamps', async () => {
     await open(page, 'Time flow');
     await type(page, 'timeFlow.slowMotionScale', '0.1');

@@ -1,6 +1,7 @@
 // The panel's fields against the format: every scalar of the format has a field whose range is the format's own.
 import { describe, expect, it } from 'vitest';
 import { curveFieldSpecs, groupPrioritySpec, roundToStep, sectionFieldSpecs, tooltipOf } from '../../editor/field-specs';
+import { roundCurveKeys } from '../../editor/sections/group-section';
 import { curveLimits, groupLimits, sectionLimits } from '../../src/tuning/index';
 import tuningSchema from '../../src/tuning/tuning.schema.json';
 
@@ -51,5 +52,17 @@ describe('editor field specs', () => {
       } else if (f.limit.kind === 'enum') for (const v of f.limit.values) expect(t).toContain(v);
       else expect(t).toContain('On or off');
     }
+  });
+});
+
+describe('roundCurveKeys', () => {
+  it('rounds y to the step inside the range, and x to 0.001 only where the keys stay strictly increasing', () => {
+    const spec = { interpolation: 'linear' as const, keys: [{ x: 0, y: 0.12345 }, { x: 0.50004, y: 1.00049 }, { x: 0.70041, y: 5 }] };
+    expect(roundCurveKeys(spec, 0.001, { min: 0, max: 4 }).keys).toEqual([{ x: 0, y: 0.123 }, { x: 0.5, y: 1 }, { x: 0.7, y: 4 }]);
+    // Two keys that would both round to x = 0.5 keep their exact x.
+    const close = { interpolation: 'linear' as const, keys: [{ x: 0.50004, y: 1 }, { x: 0.50041, y: 1 }] };
+    expect(roundCurveKeys(close, 0.001, { min: 0, max: 4 }).keys.map((k) => k.x)).toEqual([0.50004, 0.50041]);
+    const same = { interpolation: 'linear' as const, keys: [{ x: 0, y: 1 }] };
+    expect(roundCurveKeys(same, 0.001, { min: 0, max: 4 })).toBe(same);
   });
 });
