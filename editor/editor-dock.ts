@@ -51,12 +51,13 @@ export class EditorDock {
       this.setWidth(right - e.clientX);
     };
     const up = () => {
-      if (dragging) (this.sized = true), this.write();
+      if (dragging) this.write();
       dragging = false;
       this.element.classList.remove('rl-dock-resizing');
     };
     grip.addEventListener('pointerdown', (e) => {
       dragging = true;
+      this.sized = true;
       this.element.classList.add('rl-dock-resizing');
       e.preventDefault();
     });

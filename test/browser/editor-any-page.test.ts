@@ -66,4 +66,23 @@ describe.skipIf(mode === 'skip')('the editor entry on a game page of its own', (
     await page.keyboard.press('Control+z');
     await expect.poll(factor).toBe(1);
   });
+
+  it('resizes the dock by dragging its left edge and folds it to a strip and back', async () => {
+    const page = session!.page;
+    const width = () => page.evaluate(() => document.querySelector<HTMLElement>('.rl-dock')!.getBoundingClientRect().width);
+    const published = () => page.evaluate(() => getComputedStyle(document.documentElement).getPropertyValue('--rl-dock-width'));
+    const grip = (await page.locator('.rl-dock-grip').boundingBox())!;
+    await page.mouse.move(grip.x + grip.width / 2, 300);
+    await page.mouse.down();
+    await page.mouse.move(grip.x - 100, 300, { steps: 4 });
+    await page.mouse.up();
+    const wide = await width();
+    expect(wide).toBeGreaterThan(390);
+    expect(await published()).toBe(`${Math.round(wide)}px`);
+    await page.locator('.rl-dock-fold').click();
+    expect(await width()).toBe(30);
+    expect(await published()).toBe('30px');
+    await page.locator('.rl-dock-fold').click();
+    expect(await width()).toBe(wide);
+  });
 });
