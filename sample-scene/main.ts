@@ -2,7 +2,7 @@
 import * as THREE from 'three';
 import { serializeTuning, type RalentiSource } from '../runtime';
 import type { Vec3Like } from '../src/units';
-import { dropSound, mountEditor, type MountedEditor } from '../editor';
+import { dropSound, mountEditor, type DecodedAudioFile, type MountedEditor } from '../editor';
 import { dronePosition, GENERATOR_POSITION, kartHeading, kartPosition, orbPosition } from './actor-paths';
 import { FlyCamera, isTyping } from './fly-camera';
 import { FlyThrough } from './fly-through';
@@ -124,7 +124,7 @@ overlay.started.then(async (volumeDb) => {
     restored: audio.restored,
     restoreProblems: audio.restoreProblems,
     restoreAutosave: false,
-    replaceSound: (id, sound) => audio.replaceSound(id, sound),
+    replaceSound: (id, sound) => replaceAndLabel(audio, id, sound),
     autoUpdate: false,
   });
   audio.ralenti.onError((e) => console.warn(`ralenti audio thread: ${e.message}`));
@@ -235,13 +235,20 @@ rangeHost.addEventListener('drop', (e) => {
   const name = labelAt(e.clientX, e.clientY, soundBodies);
   if (!name) return editor.panel.notice.say(`${file.name}: drop it on a source's label to replace its sound.`, 'warn');
   const id = a.names.voices.find((v) => a.voiceNames.get(v.voiceId) === name)?.voiceId ?? -1;
-  void dropOnSource(file, id, name);
+  void dropOnSource(file, id);
 });
 
-async function dropOnSource(file: File, voiceId: number, name: string): Promise<void> {
+async function dropOnSource(file: File, voiceId: number): Promise<void> {
   const a = state.audio!;
-  const shown = await dropSound(file, voiceId, a.context.sampleRate, (id, sound) => a.replaceSound(id, sound), editor!.panel.notice);
-  if (shown) range[name as 'drone'].label.querySelector('i')!.textContent = `${a.dropped(name)} (dropped)`;
+  await dropSound(file, voiceId, a.context.sampleRate, (id, sound) => replaceAndLabel(a, id, sound), editor!.panel.notice);
+}
+
+/** Replaces a voice's sound (dropped on its label or on its readout row) and names the file on the body's label. */
+function replaceAndLabel(a: SceneAudio, voiceId: number, sound: DecodedAudioFile): string {
+  const name = a.voiceNames.get(voiceId) as (typeof soundBodies)[number]['value'] | undefined;
+  const shown = a.replaceSound(voiceId, sound);
+  if (name) range[name].label.querySelector('i')!.textContent = `${a.dropped(name)} (dropped)`;
+  return shown;
 }
 
 let labelFrame = 0;
