@@ -1,5 +1,5 @@
-// The README's `npx ralenti …` lines, run through the tool's main() (via runCli): each command works as shown, and the printed
-// check output matches the README's text block. Outputs go to a temporary folder, never over repository files.
+// docs/cli.md's `npx ralenti …` lines, run through the tool's main() (via runCli): each command works as shown, and the printed
+// check output matches the text block shown there. Outputs go to a temporary folder, never over repository files.
 import { describe, expect, it, beforeAll } from 'vitest';
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { basename, join, resolve } from 'node:path';
@@ -9,7 +9,7 @@ import { writeWav } from '../../../runtime/offline';
 import { runCli } from './run-cli';
 
 const root = resolve(__dirname, '../../..');
-const readme = readFileSync(join(root, 'README.md'), 'utf8');
+const readme = readFileSync(join(root, 'docs', 'cli.md'), 'utf8');
 
 /** Every `npx ralenti …` line of the README's sh blocks, without its trailing comment, split into words. */
 function readmeCommands(): string[][] {
@@ -45,7 +45,7 @@ beforeAll(() => {
   writeFileSync(join(dir, 'footsteps.wav'), writeWav({ sampleRate: 48000, channels: [x, x], encoding: 'pcm16' }));
 });
 
-describe('README command lines', () => {
+describe('docs/cli.md command lines', () => {
   const lines = readmeCommands();
 
   it('shows render, bake and check, and per-command help', () => {
@@ -68,7 +68,7 @@ describe('README command lines', () => {
     expect(r.out.startsWith(`usage: ralenti ${name} `)).toBe(true);
   });
 
-  it('prints the check output shown in the README for the recorded fly-through', async () => {
+  it('prints the check output shown in docs/cli.md for the recorded fly-through', async () => {
     const section = readme.slice(readme.indexOf('## Checking Doppler behaviour'));
     const shown = /```text\n([\s\S]*?)```/.exec(section)?.[1];
     expect(shown).toBeDefined();
