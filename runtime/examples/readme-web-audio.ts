@@ -11,5 +11,6 @@ export async function startSiren(url: string) {
   const car = ralenti.createSource().setPosition(-60, 0, -5);
   ralenti.setListener({ position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } });
   ralenti.play(siren, { group: 'vehicles', loop: true, source: car });
-  return (seconds: number) => { car.setPosition(-60 + 30 * seconds, 0, -5); ralenti.update(); }; // per frame: a 30 m/s pass
+  const frame = (seconds: number) => { car.setPosition(-60 + 30 * seconds, 0, -5); ralenti.update(); }; // a 30 m/s pass
+  return { ralenti, frame }; // call frame(seconds) each animation frame; ralenti.setTimeScale(0.25) slows it
 }
