@@ -42,7 +42,7 @@ function tscProgram() {
 /**
  * Rewrites extension-less relative specifiers of the emitted declarations ('./x' → './x.js', './dir' → './dir/index.js')
  * so that `moduleResolution: node16/nodenext` resolves them (TypeScript handbook, "Modules — Reference": relative
- * imports in ES modules need the extension); resolves to the number of specifiers changed.
+ * imports in ES modules need the extension; docs/references.md §15g); resolves to the number of specifiers changed.
  */
 export function addDeclarationExtensions(typesDir) {
   let changed = 0;

@@ -93,7 +93,7 @@ export function folderBytes(path: string): number {
   return readdirSync(path).reduce((sum, f) => sum + folderBytes(join(path, f)), 0);
 }
 
-/** A mono 16-bit PCM WAV of `seconds` of a sine (RIFF WAVE layout, docs/references.md §15). */
+/** A mono 16-bit PCM WAV of `seconds` of a sine (RIFF WAVE layout, docs/references.md §15a). */
 export function sineWav(frequency: number, sampleRate: number, seconds: number): Uint8Array {
   const frames = Math.round(sampleRate * seconds);
   const b = Buffer.alloc(44 + 2 * frames);

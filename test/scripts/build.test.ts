@@ -78,7 +78,7 @@ describe('npm run build (scripts/build.mjs)', () => {
 
   it('has no install-time script in the manifest (npm runs these in every game that installs the package)', () => {
     const pkg = JSON.parse(readFileSync(join(__dirname, '../..', 'package.json'), 'utf8'));
-    // npm docs, "scripts" (Life Cycle Scripts): preinstall, install, postinstall and prepare run on install (docs/references.md §15).
+    // npm docs, "scripts" (Life Cycle Scripts): preinstall, install, postinstall and prepare run on install (docs/references.md §15f).
     for (const s of ['preinstall', 'install', 'postinstall', 'prepare']) expect(pkg.scripts?.[s], s).toBeUndefined();
   });
 
