@@ -19,24 +19,25 @@ const report: GameReport = { done: false, error: null, values: {} };
 (window as unknown as { game: GameReport }).game = report;
 const sleep = (ms: number) => new Promise<void>((done) => setTimeout(done, ms));
 
-/** Frequency in Hz of the analyser's latest window from its rising zero crossings (linear interpolation). */
+/**
+ * Frequency in Hz of the analyser's latest window: the median time between rising zero crossings (each placed by
+ * linear interpolation), so that a dropout on a busy machine spoils a few periods and not the estimate.
+ */
 function frequency(analyser: AnalyserNode): number {
   const x = new Float32Array(analyser.fftSize);
   analyser.getFloatTimeDomainData(x);
-  let first = -1;
-  let last = -1;
-  let cycles = 0;
+  const periods: number[] = [];
+  let previous = -1;
   for (let i = 1; i < x.length; i++) {
     if (x[i - 1] < 0 && x[i] >= 0) {
       const t = i - 1 + x[i - 1] / (x[i - 1] - x[i]);
-      if (first < 0) first = t;
-      else {
-        last = t;
-        cycles += 1;
-      }
+      if (previous >= 0) periods.push(t - previous);
+      previous = t;
     }
   }
-  return cycles > 0 ? (cycles * analyser.context.sampleRate) / (last - first) : 0;
+  if (periods.length === 0) return 0;
+  periods.sort((a, b) => a - b);
+  return analyser.context.sampleRate / periods[Math.floor(periods.length / 2)];
 }
 
 /** Resolves to performance.now() when the analyser first holds a non-silent sample. */
@@ -57,19 +58,35 @@ function tap(node: AudioNode): AnalyserNode {
   return analyser;
 }
 
+/**
+ * The frequency once it has settled: three readings 150 ms apart within 3 cents of each other, or the last reading
+ * after `limitMs` (a busy machine delays timers and frames, so fixed waits would read mid-change).
+ */
+async function settled(analyser: AnalyserNode, limitMs: number): Promise<number> {
+  const readings: number[] = [];
+  const end = performance.now() + limitMs;
+  const close = (a: number, b: number) => Math.abs(1200 * Math.log2(a / b)) < 3;
+  for (;;) {
+    await sleep(150);
+    readings.push(frequency(analyser));
+    const [a, b, c] = readings.slice(-3);
+    if ((c !== undefined && close(a, b) && close(b, c)) || performance.now() > end) return readings[readings.length - 1];
+  }
+}
+
 /** Still, moving towards the listener, still again, then slow motion: the frequency heard in each state. */
 async function measure(analyser: AnalyserNode, move: (on: boolean) => void, slow: () => number): Promise<void> {
-  await sleep(600);
-  report.values.still = frequency(analyser);
+  await sleep(300);
+  report.values.still = await settled(analyser, 3000);
   move(true);
-  await sleep(500);
-  report.values.moving = frequency(analyser);
+  await sleep(300);
+  report.values.moving = await settled(analyser, 2000);
   move(false);
-  await sleep(700);
-  report.values.stillAgain = frequency(analyser);
+  await sleep(300);
+  report.values.stillAgain = await settled(analyser, 3000);
   report.values.slowScale = slow();
-  await sleep(1200);
-  report.values.slow = frequency(analyser);
+  await sleep(300);
+  report.values.slow = await settled(analyser, 4000);
 }
 
 /** The README's three.js + howler snippet: a drone on the camera's line of sight, approaching at 40 m/s. */
@@ -78,7 +95,7 @@ async function howlerGame(clicked: number): Promise<void> {
   const scene = new THREE.Scene();
   const camera = new THREE.PerspectiveCamera(60, 1, 0.1, 1000);
   const drone = new THREE.Object3D();
-  drone.position.set(0, 0, -120);
+  drone.position.set(0, 0, -300);
   scene.add(camera, drone);
   scene.updateMatrixWorld(true);
   const audio = await startAudio(camera, drone, undefined);
@@ -137,7 +154,12 @@ async function decodeCheck(): Promise<void> {
     volume: () => 1, mute: () => fakeHowler, unload: () => fakeHowler, codecs: () => true,
   } as unknown as HowlerGlobalLike;
   const bridge = new HowlerBridge({ howler: fakeHowler, create: createRalenti });
+  const started = performance.now();
+  await bridge.start();
+  report.values.startMs = performance.now() - started; // processor module, engine and resampler table on the audio thread
+  const loading = performance.now();
   const sound = await bridge.loadSrc('sounds/rotor.wav');
+  report.values.loadMs = performance.now() - loading; // fetch, decode at the file's rate, upload
   report.values.bridgeFrames = sound.frames;
   report.values.bridgeRate = sound.sampleRate;
   report.values.bridgeContextRate = bridge.ralenti?.context.sampleRate ?? 0;
