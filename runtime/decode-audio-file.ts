@@ -12,6 +12,9 @@ export interface DecodeAudioFileOptions {
 /** Lowest and highest rates an OfflineAudioContext is tried at, Hz (Chromium accepts 3000…768000). */
 export const DECODE_RATE_RANGE = Object.freeze({ min: 3000, max: 768000 });
 
+/** One decoding context per rate, reused for every file at that rate (they never render). */
+const decoders = new Map<number, OfflineAudioContext>();
+
 /**
  * Decodes `bytes` (WAV, FLAC, Ogg Vorbis/Opus, MP3: at the file's own rate; other formats: at `context`'s rate).
  * The buffer is detached by the browser's decoder; rejects with the browser's error for undecodable data.
@@ -20,11 +23,14 @@ export async function decodeAudioFile(bytes: ArrayBuffer, options: DecodeAudioFi
   const rate = audioFileSampleRate(bytes);
   const Offline = (globalThis as { OfflineAudioContext?: typeof OfflineAudioContext }).OfflineAudioContext;
   if (rate !== null && Offline && rate >= DECODE_RATE_RANGE.min && rate <= DECODE_RATE_RANGE.max) {
-    let own: OfflineAudioContext | null = null;
-    try {
-      own = new Offline(1, 1, rate);
-    } catch {
-      own = null; // a rate this browser refuses: decode at the context's rate below
+    let own = decoders.get(rate) ?? null;
+    if (!own) {
+      try {
+        own = new Offline(1, 1, rate);
+        decoders.set(rate, own);
+      } catch {
+        own = null; // a rate this browser refuses: decode at the context's rate below
+      }
     }
     if (own) return own.decodeAudioData(bytes);
   }
