@@ -59,8 +59,8 @@ function tap(node: AudioNode): AnalyserNode {
 }
 
 /**
- * The frequency once it has settled: three readings 150 ms apart within 3 cents of each other, or the last reading
- * after `limitMs` (a busy machine delays timers and frames, so fixed waits would read mid-change).
+ * The frequency once it has settled: three readings 150 ms apart within 3 cents of each other, or the median of the
+ * readings after `limitMs` (a busy machine delays timers and frames, so fixed waits would read mid-change).
  */
 async function settled(analyser: AnalyserNode, limitMs: number): Promise<number> {
   const readings: number[] = [];
@@ -70,17 +70,18 @@ async function settled(analyser: AnalyserNode, limitMs: number): Promise<number>
     await sleep(150);
     readings.push(frequency(analyser));
     const [a, b, c] = readings.slice(-3);
-    if ((c !== undefined && close(a, b) && close(b, c)) || performance.now() > end) return readings[readings.length - 1];
+    if (c !== undefined && close(a, b) && close(b, c)) return c;
+    if (performance.now() > end) return [...readings].sort((x, y) => x - y)[Math.floor(readings.length / 2)];
   }
 }
 
 /** Still, moving towards the listener, still again, then slow motion: the frequency heard in each state. */
-async function measure(analyser: AnalyserNode, move: (on: boolean) => void, slow: () => number): Promise<void> {
+async function measure(analyser: AnalyserNode, move: (on: boolean) => void, slow: () => number, movingMs: number): Promise<void> {
   await sleep(300);
   report.values.still = await settled(analyser, 3000);
   move(true);
   await sleep(300);
-  report.values.moving = await settled(analyser, 2000);
+  report.values.moving = await settled(analyser, movingMs);
   move(false);
   await sleep(300);
   report.values.stillAgain = await settled(analyser, 3000);
@@ -115,7 +116,7 @@ async function howlerGame(clicked: number): Promise<void> {
   await measure(analyser, (on) => (speed = on ? 40 : 0), () => {
     audio.slowMotion(true);
     return entries.defaultTuning.timeFlow.slowMotionScale;
-  });
+  }, 2000);
   clearInterval(timer);
 }
 
@@ -128,7 +129,8 @@ async function plainGame(clicked: number): Promise<void> {
   let last = performance.now();
   const timer = setInterval(() => {
     const now = performance.now();
-    if (moving) seconds += (now - last) / 1000;
+    // The pass runs 1.6 s at most (x = −12 m): still approaching, however late the timers fire.
+    if (moving) seconds = Math.min(1.6, seconds + (now - last) / 1000);
     last = now;
     frame(seconds);
   }, 16);
@@ -136,7 +138,7 @@ async function plainGame(clicked: number): Promise<void> {
   await measure(analyser, (on) => (moving = on), () => {
     ralenti.setTimeScale(0.25);
     return 0.25;
-  });
+  }, 1000);
   clearInterval(timer);
 }
 
