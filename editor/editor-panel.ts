@@ -94,7 +94,7 @@ export class EditorPanel {
     win?.addEventListener('keydown', onKey);
     win?.addEventListener('error', onPageError);
     this.cleanup.push(() => win?.removeEventListener('keydown', onKey), () => win?.removeEventListener('error', onPageError));
-    this.drop = new SoundDropTarget(host.container, ctx.sampleRate, host.replaceSound ?? null, this.notice, () => this.groups.selected, () => host.ralenti.voices);
+    this.drop = new SoundDropTarget(host.container, ctx, host.replaceSound ?? null, this.notice, () => this.groups.selected, () => host.ralenti.voices);
     this.build(emptyViewState());
     if (host.restoreProblems?.length) this.file.show('The autosaved tuning did not load; the built-in tuning runs.', host.restoreProblems);
     else if (host.restored) this.file.show('Restored the autosaved tuning.');

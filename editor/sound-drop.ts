@@ -2,16 +2,16 @@
 // first playing voice of the selected group. The file is decoded at its own rate; the page does the replacing.
 import type { VoiceMonitor } from '../src';
 import type { Announcer } from './controls/announcer';
-import { decodeAudioFile, type DecodedAudioFile } from './decode-audio-file';
+import { decodeDroppedFile, type DecodedAudioFile } from './decode-audio-file';
 
 /** Replaces the sound of voice `voiceId` with `sound`; resolves with the name the readouts now show. */
 export type ReplaceSound = (voiceId: number, sound: DecodedAudioFile) => Promise<string> | string;
 
-/** Decodes `file` and hands it to `replace` for `voiceId`, saying what happened; resolves with the new name or null. */
-export async function dropSound(file: File, voiceId: number, fallbackRate: number, replace: ReplaceSound, notice: Announcer): Promise<string | null> {
+/** Decodes `file` (at its own rate; else at `context`'s) and hands it to `replace` for `voiceId`, saying what happened; resolves with the new name or null. */
+export async function dropSound(file: File, voiceId: number, context: BaseAudioContext, replace: ReplaceSound, notice: Announcer): Promise<string | null> {
   let decoded: DecodedAudioFile;
   try {
-    decoded = await decodeAudioFile(file, fallbackRate);
+    decoded = await decodeDroppedFile(file, context);
   } catch (err) {
     notice.say(`${file.name}: the browser could not decode it (${(err as Error)?.message ?? err}).`, 'warn');
     return null;
@@ -32,7 +32,7 @@ export class SoundDropTarget {
   private readonly element: HTMLElement;
   private readonly off: () => void;
 
-  constructor(element: HTMLElement, fallbackRate: number, replace: ReplaceSound | null, notice: Announcer, selectedGroup: () => string, voices: () => readonly VoiceMonitor[]) {
+  constructor(element: HTMLElement, context: BaseAudioContext, replace: ReplaceSound | null, notice: Announcer, selectedGroup: () => string, voices: () => readonly VoiceMonitor[]) {
     this.element = element;
     const over = (e: DragEvent) => {
       if (!replace || !e.dataTransfer?.types.includes('Files')) return;
@@ -49,7 +49,7 @@ export class SoundDropTarget {
       const group = selectedGroup();
       const id = row ? Number(row.dataset.voice) : (voices().find((v) => v.group === group && v.voice > 0)?.voice ?? -1);
       if (id < 0) return notice.say(`${file.name}: drop it on a voice in the readouts (no voice of ${group} is playing).`, 'warn');
-      void dropSound(file, id, fallbackRate, replace, notice);
+      void dropSound(file, id, context, replace, notice);
     };
     element.addEventListener('dragover', over);
     element.addEventListener('dragleave', leave);

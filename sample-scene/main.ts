@@ -240,7 +240,7 @@ rangeHost.addEventListener('drop', (e) => {
 
 async function dropOnSource(file: File, voiceId: number): Promise<void> {
   const a = state.audio!;
-  await dropSound(file, voiceId, a.context.sampleRate, (id, sound) => replaceAndLabel(a, id, sound), editor!.panel.notice);
+  await dropSound(file, voiceId, a.context, (id, sound) => replaceAndLabel(a, id, sound), editor!.panel.notice);
 }
 
 /** Replaces a voice's sound (dropped on its label or on its readout row) and names the file on the body's label. */
