@@ -8,12 +8,18 @@ export const MIN_RATIO = 1 / 65536;
 /** Largest playback ratio (4 = two octaves up); larger ones are clamped on the audio path and refused by `resample`. */
 export const MAX_RATIO = 4;
 
+/** Top of the audible band, Hz: nothing may fold below min(this, Nyquist). */
+export const AUDIBLE_TOP_HZ = 20000;
+
 /**
- * Above ratio 1 the kernel's stopband edge is placed at this fraction of the output Nyquist (7/6: 28 kHz at 48 kHz), so
- * anything folded by the speed-up lands only between 20 kHz and the output Nyquist; the kernel is stretched by
- * ratio · stopbandEdge / ALIAS_STOP_FRACTION (never below 1).
+ * Where the stretched (ratio > 1) kernel's stopband edge may sit, as a fraction of the output Nyquist, so that anything
+ * folded by the speed-up lands above the audible band: a component at f > Nyquist folds to fs − f, which stays above
+ * min(20 kHz, Nyquist) while f ≤ fs − min(20 kHz, Nyquist). 7/6 at 48 kHz (28 kHz), 1.093 at 44.1 kHz, 1 at 40 kHz and below.
  */
-export const ALIAS_STOP_FRACTION = 7 / 6;
+export function aliasStopFraction(sampleRate: number): number {
+  const nyquist = sampleRate / 2;
+  return 2 - Math.min(1, AUDIBLE_TOP_HZ / nyquist);
+}
 
 /** The quality tier names, cheapest first. */
 export const qualityTiers: readonly QualityTierName[] = Object.freeze(['draft', 'standard', 'high'] as QualityTierName[]);
@@ -38,6 +44,33 @@ export const tierDesigns: Readonly<Record<QualityTierName, TierDesign>> = Object
   standard: Object.freeze({ attenuationDb: 104, passbandEdge: 0.855, stopbandEdge: 1.05, phases: 256 }),
   high: Object.freeze({ attenuationDb: 124, passbandEdge: 0.87, stopbandEdge: 1.05, phases: 1024 }),
 });
+
+/**
+ * Passband edge (fraction of Nyquist) per tier where the stopband must end at or below Nyquist (output rates under
+ * ~42 kHz, where the audible band reaches Nyquist): chosen so that the tier's passband figure (standard 0.5 dB, high
+ * 0.1 dB) still holds at 0.9 of Nyquist; the draft tier keeps its transition width.
+ */
+export const narrowPassbandEdges: Readonly<Record<QualityTierName, number>> = Object.freeze({ draft: 0.67, standard: 0.87, high: 0.885 });
+
+/** A tier's kernel design at an output rate, and the stopband limit of its stretched (ratio > 1) form. */
+export interface RateDesign {
+  /** The kernel design (edges as fractions of Nyquist). */
+  readonly design: TierDesign;
+  /** The stretched kernel's stopband edge may not exceed this fraction of the output Nyquist (`aliasStopFraction`). */
+  readonly aliasStop: number;
+}
+
+/**
+ * The design of `tier` for output rate `sampleRate` (Hz, 8000…192000): the tier's own design where its stopband edge
+ * already ends below fs − min(20 kHz, Nyquist) (42.1 kHz and up: the 48 kHz tables), else the stopband edge moved down
+ * to that limit with the passband edge of `narrowPassbandEdges`, so that nothing folds or images into the audible band.
+ */
+export function tierDesignAt(tier: QualityTierName, sampleRate: number): RateDesign {
+  const base = tierDesigns[tier];
+  const aliasStop = aliasStopFraction(sampleRate);
+  if (base.stopbandEdge <= aliasStop) return { design: base, aliasStop };
+  return { design: { ...base, passbandEdge: narrowPassbandEdges[tier], stopbandEdge: aliasStop }, aliasStop };
+}
 
 /** True when `name` is one of `qualityTiers`. */
 export function isQualityTier(name: unknown): name is QualityTierName {
