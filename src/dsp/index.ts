@@ -1,6 +1,6 @@
 // Public names of the DSP core: kernel design, streaming resampler, offline resample, biquad low-pass, smoothing, unit helpers.
 export { besselI0, kaiserBeta, kaiserTaps, kaiserAt, kaiserWindow } from './kaiser';
-export { qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, AUDIBLE_TOP_HZ, aliasStopFraction, tierDesigns, narrowPassbandEdges, tierDesignAt, isQualityTier } from './quality-tiers';
+export { qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, AUDIBLE_TOP_HZ, aliasStopFraction, tierDesigns, narrowDesigns, tierDesignAt, isQualityTier } from './quality-tiers';
 export type { QualityTierName, TierDesign, RateDesign } from './quality-tiers';
 export { KernelTable, STRETCH_GRID_STEP } from './kernel-table';
 export type { KernelTableOptions, KernelTableData } from './kernel-table';

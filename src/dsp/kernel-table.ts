@@ -109,11 +109,13 @@ export class KernelTable {
       designs++;
       [this.dense, this.phaseMajor] = designSamples(d, n, this.cutoff, this.beta);
     }
+    const step = d.gridStep ?? STRETCH_GRID_STEP;
+    if (!(step > 1 && step <= 2)) throw new DspArgumentError('design', 'gridStep must be in (1, 2]');
     const grid = [l];
     const last = Math.max(1, Math.floor(l / (MAX_RATIO * this.stretchPerRatio)));
     while (grid[grid.length - 1] > last) {
       const s = grid[grid.length - 1];
-      grid.push(Math.max(last, Math.min(s - 1, Math.floor(s / STRETCH_GRID_STEP))));
+      grid.push(Math.max(last, Math.min(s - 1, Math.floor(s / step))));
     }
     this.strideGrid = Int32Array.from(grid);
     this.gridFloor = new Int32Array(l + 1);
@@ -143,7 +145,7 @@ export class KernelTable {
     if (!isQualityTier(tier)) throw new DspArgumentError('tier', `unknown quality tier ${JSON.stringify(tier)}`);
     if (!(sampleRate >= 8000 && sampleRate <= 192000)) throw new DspArgumentError('sampleRate', `must be 8000…192000 Hz, got ${sampleRate}`);
     const { design, aliasStop } = tierDesignAt(tier, sampleRate);
-    const key = `${tier}:${design.passbandEdge}:${design.stopbandEdge}:${aliasStop}`;
+    const key = `${tier}:${design.passbandEdge}:${design.stopbandEdge}:${design.phases}:${aliasStop}`;
     let t = cache.get(key);
     if (t) return t;
     t = new KernelTable({ design, name: tier, aliasStop });

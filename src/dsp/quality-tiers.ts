@@ -36,6 +36,8 @@ export interface TierDesign {
   readonly stopbandEdge: number;
   /** Table phases per input sample (entries per zero crossing of the unit sinc). */
   readonly phases: number;
+  /** Geometric step between the kernel widths used above ratio 1 (default STRETCH_GRID_STEP, 1.05; finer costs WebAssembly memory). */
+  readonly gridStep?: number;
 }
 
 /** Per-tier kernel designs (frozen). */
@@ -46,11 +48,15 @@ export const tierDesigns: Readonly<Record<QualityTierName, TierDesign>> = Object
 });
 
 /**
- * Passband edge (fraction of Nyquist) per tier where the stopband must end at or below Nyquist (output rates under
- * ~42 kHz, where the audible band reaches Nyquist): chosen so that the tier's passband figure (standard 0.5 dB, high
- * 0.1 dB) still holds at 0.9 of Nyquist; the draft tier keeps its transition width.
+ * Where the stopband must end at or below Nyquist (output rates under ~42 kHz, where the audible band reaches Nyquist),
+ * each tier's passband edge, phases and stretch-grid step: chosen so that the 0.5 dB point stays above 0.9 of Nyquist
+ * even where the stretch grid widens the kernel by up to one step (standard and high); the draft tier keeps its width.
  */
-export const narrowPassbandEdges: Readonly<Record<QualityTierName, number>> = Object.freeze({ draft: 0.67, standard: 0.87, high: 0.885 });
+export const narrowDesigns: Readonly<Record<QualityTierName, { readonly passbandEdge: number; readonly phases: number; readonly gridStep: number }>> = Object.freeze({
+  draft: Object.freeze({ passbandEdge: 0.67, phases: 128, gridStep: 1.05 }),
+  standard: Object.freeze({ passbandEdge: 0.925, phases: 256, gridStep: 1.03 }),
+  high: Object.freeze({ passbandEdge: 0.93, phases: 1024, gridStep: 1.05 }),
+});
 
 /** A tier's kernel design at an output rate, and the stopband limit of its stretched (ratio > 1) form. */
 export interface RateDesign {
@@ -63,13 +69,13 @@ export interface RateDesign {
 /**
  * The design of `tier` for output rate `sampleRate` (Hz, 8000…192000): the tier's own design where its stopband edge
  * already ends below fs − min(20 kHz, Nyquist) (42.1 kHz and up: the 48 kHz tables), else the stopband edge moved down
- * to that limit with the passband edge of `narrowPassbandEdges`, so that nothing folds or images into the audible band.
+ * to that limit with the passband edge, phases and grid step of `narrowDesigns`, so that nothing folds or images into the audible band.
  */
 export function tierDesignAt(tier: QualityTierName, sampleRate: number): RateDesign {
   const base = tierDesigns[tier];
   const aliasStop = aliasStopFraction(sampleRate);
   if (base.stopbandEdge <= aliasStop) return { design: base, aliasStop };
-  return { design: { ...base, passbandEdge: narrowPassbandEdges[tier], stopbandEdge: aliasStop }, aliasStop };
+  return { design: { ...base, ...narrowDesigns[tier], stopbandEdge: aliasStop }, aliasStop };
 }
 
 /** True when `name` is one of `qualityTiers`. */

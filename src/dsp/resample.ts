@@ -1,9 +1,10 @@
-// Offline variable-speed replay of a mono buffer at the same sample rate, by the StreamReader's bandlimited interpolation.
+// Offline variable-speed replay of a mono buffer at the same sample rate, by the StreamReader's bandlimited interpolation
+// (J. O. Smith, "Digital Audio Resampling", CCRMA), driven exactly as the engine streams it.
 import { DspArgumentError } from './dsp-argument-error';
 import { KernelTable } from './kernel-table';
 import { MAX_RATIO, MIN_RATIO, defaultQualityTier, isQualityTier } from './quality-tiers';
 import { StreamReader } from './stream-reader';
-import type { KernelPreference } from './wasm/wasm-kernel';
+import { WasmKernel, type KernelPreference } from './wasm/wasm-kernel';
 
 /** Options of `resample`. */
 export interface ResampleOptions {
@@ -11,7 +12,14 @@ export interface ResampleOptions {
   quality?: string;
   /** Inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (the reference) or 'wasm-simd' (throws where unavailable). */
   kernel?: KernelPreference;
+  /** Sample rate of the input and the output, Hz (8000…192000, default 48000): picks the kernel design for that rate (`tierDesignAt`). */
+  sampleRate?: number;
 }
+
+/** Inputs up to this many frames are copied once into the WebAssembly kernel's memory and read there in place. */
+const RESIDENT_LIMIT = 1 << 24;
+/** Output frames per streaming read. */
+const BLOCK = 4096;
 
 function checkRatio(r: number, argument: string): void {
   if (!Number.isFinite(r) || r <= 0 || r > MAX_RATIO) {
@@ -29,19 +37,26 @@ export function resample(input: Float32Array, ratio: number | Float32Array, opti
   if (!isQualityTier(q)) throw new DspArgumentError('quality', `unknown quality tier ${JSON.stringify(q)} (expected draft, standard or high)`);
   const kernel = options?.kernel ?? 'auto';
   if (kernel !== 'auto' && kernel !== 'typescript' && kernel !== 'wasm-simd') throw new DspArgumentError('kernel', `unknown kernel ${JSON.stringify(kernel)} (expected auto, typescript or wasm-simd)`);
-  const reader = new StreamReader({ table: KernelTable.forTier(q), channels: 1, kernel });
-  reader.setSource([input]);
-  if (typeof ratio === 'number') {
-    checkRatio(ratio, 'ratio');
-    const out = new Float32Array(Math.floor(input.length / ratio));
-    const outs = [out];
-    const block = 4096;
-    for (let o = 0; o < out.length; o += block) reader.read(outs, o, Math.min(block, out.length - o), ratio, ratio);
-    return out;
+  const sampleRate = options?.sampleRate ?? 48000;
+  if (!(sampleRate >= 8000 && sampleRate <= 192000)) throw new DspArgumentError('sampleRate', `must be 8000…192000 Hz, got ${sampleRate}`);
+  if (typeof ratio === 'number') checkRatio(ratio, 'ratio');
+  else if (!(ratio instanceof Float32Array)) throw new DspArgumentError('ratio', 'must be a number or a Float32Array');
+  else for (let i = 0; i < ratio.length; i++) checkRatio(ratio[i], `ratio[${i}]`);
+  const reader = new StreamReader({ table: KernelTable.forTier(q, sampleRate), channels: 1, kernel });
+  // The streaming path as the engine runs it: the source resident in the kernel's memory (no per-run span copies).
+  const wasm = reader.kernelName === 'wasm-simd' && input.length <= RESIDENT_LIMIT ? WasmKernel.shared() : null;
+  const resident = wasm !== null && wasm.upload(input);
+  try {
+    reader.setSource([input]);
+    const outs = [new Float32Array(typeof ratio === 'number' ? Math.floor(input.length / ratio) : ratio.length)];
+    const n = outs[0].length;
+    for (let o = 0; o < n; o += BLOCK) {
+      const m = Math.min(BLOCK, n - o);
+      if (typeof ratio === 'number') reader.read(outs, o, m, ratio, ratio);
+      else reader.readRatios(outs, o, m, ratio, o);
+    }
+    return outs[0];
+  } finally {
+    if (resident) wasm.discard(input);
   }
-  if (!(ratio instanceof Float32Array)) throw new DspArgumentError('ratio', 'must be a number or a Float32Array');
-  for (let i = 0; i < ratio.length; i++) checkRatio(ratio[i], `ratio[${i}]`);
-  const out = new Float32Array(ratio.length);
-  reader.readRatios([out], 0, out.length, ratio, 0);
-  return out;
 }
