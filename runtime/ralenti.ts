@@ -2,6 +2,7 @@
 import type { Easing, EngineSnapshot, EngineStats, PlayOptions, Seconds, Tuning, Vec3Like, VoiceMonitor } from '../src/index';
 import { parseTuning, MAX_TIME_SCALE } from '../src/tuning/index';
 import { TimeFlow } from '../src/dilation/index';
+import { packKernelTable, wasmSimdSupported } from '../src/dsp/index';
 import { commandTransfer, encodeSnapshot, type Command, type RenderLoad, type Report } from './protocol';
 import { RalentiOptionError, checkRange } from './runtime-error';
 import { RalentiSource } from './ralenti-source';
@@ -59,6 +60,8 @@ export interface RalentiInit {
   node: AudioWorkletNode;
   tuning: Tuning;
   capacity: number;
+  /** Tiers whose tables (and WebAssembly layouts) the processor already holds (createRalenti sets it); a switch to another tier first sends that tier's tables, designed here. Absent: the processor designs its own. */
+  tableTiers?: readonly string[];
 }
 
 const EMPTY_STATS: EngineStats = Object.freeze({
@@ -103,6 +106,8 @@ export class Ralenti {
   private nextSource = 1;
   private nextSync = 1;
   private disposed = false;
+  /** Tiers the processor has tables for, or null when it designs its own. */
+  private readonly tableTiers: Set<string> | null;
 
   /** Wraps an existing node; use createRalenti() instead unless you built the node yourself. */
   constructor(init: RalentiInit) {
@@ -110,6 +115,7 @@ export class Ralenti {
     this.node = init.node;
     this.capacity = init.capacity;
     this.current = init.tuning;
+    this.tableTiers = init.tableTiers === undefined ? null : new Set(init.tableTiers);
     this.snapshot = { time: 0, listener: this.listener, sources: [] };
     this.node.port.onmessage = (e: MessageEvent) => this.receive(e.data as Report);
     this.node.onprocessorerror = () => this.emitError({ where: 'processorerror', message: 'the processor failed and stopped', count: -1 });
@@ -226,6 +232,12 @@ export class Ralenti {
   setTuning(json: unknown): Tuning {
     const t = parseTuning(json);
     this.current = t;
+    const tier = t.resampler.tier;
+    if (this.tableTiers !== null && !this.tableTiers.has(tier)) {
+      // Designed here, off the audio thread; the worklet copies the layout in slices and switches when it is in.
+      this.send({ type: 'tables', tables: [packKernelTable(tier, this.context.sampleRate, wasmSimdSupported())] });
+      this.tableTiers.add(tier);
+    }
     this.send({ type: 'tuning', tuning: t });
     return t;
   }
