@@ -23,9 +23,10 @@ export class TableInstaller {
   }
 
   /**
-   * Rebuilds `packed` tables (throws TypeError on a malformed entry); returns those ready for the engine now. A table
-   * whose layout has to be copied in is ready now only when `installNow` (construction, before any audio), else it
-   * waits for `step` calls.
+   * Rebuilds `packed` tables (throws TypeError on a malformed entry); returns those ready for the engine now. On the
+   * TypeScript kernel every table is ready; on the WebAssembly kernel only one with its layout, at once when `installNow`
+   * (construction, before any audio), else after `step` calls; one without a layout is left out (its tier waits for a
+   * later message that brings one), so that the audio thread never builds a layout.
    */
   receive(packed: readonly unknown[], installNow: boolean): KernelTable[] {
     const ready: KernelTable[] = [];
@@ -33,8 +34,10 @@ export class TableInstaller {
       if (!isPackedKernelTable(p)) throw new TypeError('tables: expected { table: { name, design, aliasStop, taps, dense, phaseMajor }, image }');
       const table = KernelTable.fromData(p.table);
       const image = (p as PackedKernelTable).image;
-      if (this.kernel === null || image === null || image === undefined) {
+      if (this.kernel === null) {
         ready.push(table);
+      } else if (image === null || image === undefined) {
+        continue;
       } else if (installNow) {
         this.kernel.installStep(table, image, Infinity);
         ready.push(table);
