@@ -7,4 +7,5 @@ export { RalentiSource } from './ralenti-source';
 export { RalentiOptionError } from './runtime-error';
 export { defaultWorkletUrl, workletBlobUrl } from './worklet-url';
 export { PROCESSOR_NAME, type RenderLoad } from './protocol';
+export type { TableCounters } from './worklet/table-installer';
 export { TuningError, defaultTuning, parseTuning, serializeTuning } from '../src/tuning/index';

@@ -4,6 +4,7 @@ import { parseTuning, MAX_TIME_SCALE } from '../src/tuning/index';
 import { TimeFlow } from '../src/dilation/index';
 import { packKernelTable, wasmSimdSupported } from '../src/dsp/index';
 import { commandTransfer, encodeSnapshot, type Command, type RenderLoad, type Report } from './protocol';
+import type { TableCounters } from './worklet/table-installer';
 import { RalentiOptionError, checkRange } from './runtime-error';
 import { RalentiSource } from './ralenti-source';
 
@@ -91,6 +92,8 @@ export class Ralenti {
   voices: VoiceMonitor[] = [];
   /** Latest render load measured in the worklet; null until reported, or where the audio thread has no clock. */
   renderLoad: RenderLoad | null = null;
+  /** Kernel-table work counted on the audio thread (designs, layouts built, layouts still being copied in); null until reported. */
+  tableWork: TableCounters | null = null;
   private current: Tuning;
   private readonly flow = new TimeFlow({ initial: 1 });
   private readonly sources: RalentiSource[] = [];
@@ -307,6 +310,7 @@ export class Ralenti {
         this.stats = r.stats;
         this.voices = r.voices;
         this.renderLoad = r.load ?? null;
+        this.tableWork = r.tables ?? null;
         return;
       case 'error':
         this.emitError({ where: r.where, message: r.message, count: r.count });

@@ -197,7 +197,9 @@ export class WasmKernel {
     const n = Math.min(image.bytes.length - job.copied, Math.max(16, maxBytes));
     const end = job.at + job.copied + n;
     const have = this.exports.memory.buffer.byteLength;
-    if (end > have) this.exports.memory.grow(Math.ceil((end - have) / 65536));
+    // Grow a few slices ahead (at most to the image's end), so that views are renewed once per 1 MB rather than per slice.
+    const ahead = Math.min(job.at + image.bytes.length, Math.max(end, have + (1 << 20)));
+    if (end > have) this.exports.memory.grow(Math.ceil((ahead - have) / 65536));
     this.refresh();
     new Uint8Array(this.exports.memory.buffer, job.at + job.copied, n).set(image.bytes.subarray(job.copied, job.copied + n));
     job.copied += n;
