@@ -13,7 +13,7 @@ export interface PackedKernelTable {
 }
 
 /** Bytes of an image copied per render quantum on the audio thread while a tier's layout is being installed. */
-export const INSTALL_BYTES_PER_QUANTUM = 256 * 1024;
+export const INSTALL_BYTES_PER_QUANTUM = 128 * 1024;
 
 /**
  * Designs `tier`'s table for output rate `sampleRate` (Hz) here (main thread; allocates, may take ~0.1 s for 'high')
