@@ -50,10 +50,11 @@ export const tierDesigns: Readonly<Record<QualityTierName, TierDesign>> = Object
 /**
  * Where the stopband must end at or below Nyquist (output rates under ~42 kHz, where the audible band reaches Nyquist),
  * each tier's passband edge, phases and stretch-grid step: chosen so that the 0.5 dB point stays above 0.9 of Nyquist
- * even where the stretch grid widens the kernel by up to one step (standard and high); the draft tier keeps its width.
+ * even where the stretch grid widens the kernel by up to one step (standard and high); the draft tier (no passband
+ * figure) trades some width for fewer taps (42 rather than 26).
  */
 export const narrowDesigns: Readonly<Record<QualityTierName, { readonly passbandEdge: number; readonly phases: number; readonly gridStep: number }>> = Object.freeze({
-  draft: Object.freeze({ passbandEdge: 0.67, phases: 128, gridStep: 1.05 }),
+  draft: Object.freeze({ passbandEdge: 0.8, phases: 128, gridStep: 1.05 }),
   standard: Object.freeze({ passbandEdge: 0.925, phases: 256, gridStep: 1.03 }),
   high: Object.freeze({ passbandEdge: 0.93, phases: 1024, gridStep: 1.05 }),
 });

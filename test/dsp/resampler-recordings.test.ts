@@ -1,5 +1,5 @@
 // Real recordings baked at speed 1.7 against the trusted resampler (libsamplerate-js, best sinc): a voice recording
-// from Debian's alsa-utils (48 kHz) and espeak-ng speech (22.05 kHz), both installed by .ci/run.
+// from Debian's alsa-utils (48 kHz) and espeak-ng speech (22.05 kHz), both installed by .ci/run (docs/references.md §20).
 //
 // The measure, defined here: ours and the reference are aligned by the integer lag (±16 samples) that maximises their
 // cross-correlation; the difference signal and the reference are analysed by Welch's method (Kaiser β = 20 frames of

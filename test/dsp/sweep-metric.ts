@@ -2,7 +2,7 @@
 // the same rate fs, analysed by a short-time Fourier transform (fft.js, Kaiser β = 20 window). Shared by test/dsp and
 // bench/resampler-rates.bench.ts.
 //
-// The measure, defined here:
+// The measure, defined here (a logarithmic sweep read by short-time spectra; docs/references.md §20):
 // - Input: a log sweep of amplitude 0.5 from 20 Hz to 0.95 · fs/2 lasting r · 2 s, so that the heard sweep
 //   (every frequency × r) always lasts 2 s; 10 ms raised-cosine fades at both ends. (0.95 of Nyquist: content
 //   at Nyquist itself has its image at Nyquist, which no resampler can separate.)
