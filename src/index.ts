@@ -14,7 +14,7 @@ export type { TuningIssue } from './tuning';
 export { yinPitch, YinEstimator, trackPitch, PitchTracker, magnitudeSpectrum, peakFrequency, toneLevelDb, SpectrumAnalyzer, rmsLevel, peakLevel, rmsDb, peakDb, centsBetween, pitchErrorStats } from './analysis';
 export type { YinOptions, PitchEstimate, PitchTrackerOptions, PitchTrack, SpectrumOptions, SpectralPeak, PitchErrorStats } from './analysis';
 // DSP (resampler, kernel tables, biquad low-pass, smoothing, unit helpers).
-export { resample, qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, KernelTable, StreamReader, DspArgumentError, BiquadLowpass, OnePoleSmoother, dbToGain, gainToDb, centsToRatio, ratioToCents } from './dsp';
+export { resample, resampleChunks, qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, KernelTable, StreamReader, DspArgumentError, BiquadLowpass, OnePoleSmoother, dbToGain, gainToDb, centsToRatio, ratioToCents } from './dsp';
 export { wasmSimdSupported, activeKernel } from './dsp';
 export type { KernelName, KernelPreference } from './dsp';
 export type { ResampleOptions, StreamReaderOptions, StreamSourceOptions, KernelTableOptions, TierDesign, BiquadLowpassOptions, OnePoleSmootherOptions } from './dsp';

@@ -10,7 +10,7 @@ export { wasmSimdSupported, activeKernel, WasmKernel } from './wasm/wasm-kernel'
 export type { KernelName, KernelPreference, KernelImage } from './wasm/wasm-kernel';
 export { packKernelTable, packAllTiers, packedTransfer, isPackedKernelTable, INSTALL_BYTES_PER_QUANTUM } from './table-transfer';
 export type { PackedKernelTable } from './table-transfer';
-export { resample } from './resample';
+export { resample, resampleChunks } from './resample';
 export type { ResampleOptions } from './resample';
 export { DspArgumentError } from './dsp-argument-error';
 export { BiquadLowpass, BIQUAD_MIN_CUTOFF_HZ, BIQUAD_MAX_CUTOFF_FRACTION, BIQUAD_Q_RANGE } from './biquad-lowpass';
