@@ -3,7 +3,8 @@
 import { describe, expect, it } from 'vitest';
 import { Engine } from '../../src/engine';
 import { KernelTable, StreamReader, WasmKernel, packKernelTable, type PackedKernelTable } from '../../src/dsp';
-import { sine, tuningWith } from './engine-helpers';
+import { renderFor, sine, tuningWith } from './engine-helpers';
+import { sweepInput, sweepRejectionDb } from '../dsp/sweep-metric';
 
 const RATE = 44100;
 const packedCache = new Map<string, PackedKernelTable>();
@@ -69,5 +70,19 @@ describe('engine tables from the host', () => {
       });
       expect(outs[1]).toEqual(outs[0]);
     }
+  });
+
+  it('is band-limited at 44.1 kHz output in the engine too: a sweep sped up 2.5× keeps spurs ≥ 100 dB down (was −21 dB)', () => {
+    // The engine designs its tables for its own rate; same sweep measure as test/dsp/resampler-rates.test.ts.
+    const fs = 44100;
+    const r = 2.5;
+    const run = (tables?: KernelTable[]) => {
+      const e = new Engine({ sampleRate: fs, capacity: 2, tables });
+      e.play(e.addSound([sweepInput(fs, r)], fs), { group: 'interface', ratio: r, fadeInSeconds: 0 });
+      return sweepRejectionDb(renderFor(e, 2)[0], fs, r);
+    };
+    expect(run()).toBeGreaterThanOrEqual(100);
+    // Handed the 48 kHz table instead, the same engine folds the sweep into the audible band (issue 19's finding).
+    expect(run([KernelTable.forTier('standard', 48000)])).toBeLessThan(40);
   });
 });
