@@ -3,7 +3,7 @@
 import type { Hz, Seconds } from '../units';
 import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, TimeScaleRequest, VoiceMonitor } from './engine-types';
 import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
-import { KernelTable, WasmKernel } from '../dsp';
+import { KernelTable, WasmKernel, aliasStopFraction } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
@@ -70,6 +70,10 @@ export class Engine {
     this.mapper = new TargetMapper({ tuning: t });
     this.snapshots = new SnapshotStore({ maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
     this.bus = new MasterBus({ sampleRate: sr, maxBlockFrames: this.maxBlock, ceilingDb: t.master.ceilingDb, limiter: t.master.limiter, gainDb: t.master.gainDb });
+    for (const k of options.tables ?? []) {
+      // A table designed for another output rate would fold or image into the audible band here.
+      if (!(k instanceof KernelTable) || Math.abs(k.aliasStop - aliasStopFraction(sr)) > 1e-12) throw new RangeError(`EngineOptions.tables: "${String(k?.name)}" was not designed for ${sr} Hz output`);
+    }
     this.given = options.tables === undefined ? null : new Map(options.tables.map((k) => [k.name, k]));
     const table = this.tableFor(t.resampler.tier) ?? options.tables?.[0] ?? KernelTable.forTier(t.resampler.tier, sr);
     this.table = table;
