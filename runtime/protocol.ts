@@ -26,7 +26,7 @@ export interface ProcessorOptions {
   tuning: Tuning;
   /** Interval between stats reports in seconds of rendered audio (0.05…10). */
   statsIntervalSeconds: Seconds;
-  /** Kernel tables of every tier for the context's rate, designed on the main thread (the tuning's tier with its WebAssembly layout); absent: the audio thread designs its own. */
+  /** Kernel tables for the context's rate designed on the main thread (the tuning's tier with its WebAssembly layout, or every tier's samples where there is no SIMD); absent: the audio thread designs its own. */
   tables?: PackedKernelTable[];
 }
 
