@@ -5,6 +5,8 @@ import { EngineHost } from '../../runtime/worklet/engine-host';
 import type { Report, StatsReport } from '../../runtime/protocol';
 import { INSTALL_BYTES_PER_QUANTUM, KernelTable, WasmKernel, packAllTiers, packKernelTable } from '../../src/dsp/index';
 import { defaultTuning, parseTuning, serializeTuning } from '../../src/tuning/index';
+import { Ralenti } from '../../runtime/index';
+import { FakeWorkletNode, fakeContext } from './fake-worklet-node';
 
 const RATE = 48000;
 
@@ -44,5 +46,23 @@ describe('EngineHost kernel tables', () => {
     const last = reports.filter((r): r is StatsReport => r.type === 'stats').at(-1)!;
     expect(last.tables).toEqual({ designed, stridesBuilt: built, installing: 0 });
     expect(last.stats.tier).toBe('high');
+  });
+
+  it('sends a new tier\'s tables (buffers transferred) before the tuning that asks for it, once per tier', () => {
+    const node = new FakeWorkletNode();
+    const r = new Ralenti({ context: fakeContext(), node: node as unknown as AudioWorkletNode, tuning: defaultTuning, capacity: 4, tableTiers: ['standard'] });
+    const toHigh = JSON.parse(serializeTuning(tuning('high') as never));
+    r.setTuning(toHigh);
+    r.setTuning(toHigh);
+    r.setTuning(JSON.parse(serializeTuning(defaultTuning)));
+    expect(node.sent.map((s) => s.command.type)).toEqual(['tables', 'tuning', 'tuning', 'tuning']);
+    const [tables] = node.commands('tables');
+    expect(tables.tables.map((t) => t.table.name)).toEqual(['high']);
+    expect(tables.tables[0].image).not.toBeNull();
+    expect(node.sent[0].transfer).toHaveLength(3); // samples, phase-major rows, WebAssembly layout
+    // Without tableTiers (a node built by hand) the processor designs its own: no tables are sent.
+    const plain = new FakeWorkletNode();
+    new Ralenti({ context: fakeContext(), node: plain as unknown as AudioWorkletNode, tuning: defaultTuning, capacity: 4 }).setTuning(toHigh);
+    expect(plain.commands('tables')).toEqual([]);
   });
 });
