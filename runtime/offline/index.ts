@@ -12,3 +12,7 @@ export type { SoundBuffer } from './scene-sounds';
 export type * from './scene-types';
 export { readWav, writeWav, WavError } from './wav';
 export type { WavAudio, WavEncoding } from './wav';
+export { parseWavLayout, wavHeader, bytesPerSampleOf, checkWavRate, WAV_RATE_RANGE } from './wav-format';
+export type { WavLayout } from './wav-format';
+export { decodeFrames, encodeFrames, TpdfDither, WAV_SAMPLE_BOUND } from './wav-samples';
+export type { SampleCounts } from './wav-samples';
