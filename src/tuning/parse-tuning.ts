@@ -3,6 +3,7 @@ import type { CurveSpec, GroupTuning, Tuning } from './tuning-types';
 import { DEFAULT_GROUP, TUNING_VERSION, defaultTuning } from './default-tuning';
 import { TuningError, type TuningIssue } from './tuning-error';
 import { childPath, itemPath } from './json-path';
+import { findDuplicateKeys, MAX_TUNING_TEXT } from './json-text';
 import { migrateVersion0, type IssueSink } from './migrate-tuning';
 import {
   curveLimits,
@@ -45,31 +46,60 @@ function isPlainObject(value: Json): value is Obj {
   return proto === Object.prototype || proto === null;
 }
 
-/** Rejects forbidden keys and non-JSON values anywhere in the tree, before anything reads it. */
-function scanTree(value: Json, path: string, depth: number, issues: IssueSink): void {
-  if (value === null || typeof value !== 'object') {
-    if (typeof value === 'function' || typeof value === 'symbol' || typeof value === 'bigint' || typeof value === 'undefined') {
-      issues.add(path, `expected a JSON value, got ${describe(value)}`);
+/** Most values scanned in one document (the largest valid tuning holds about 27,000; caller-built objects have no text size to check): beyond it the document is refused. */
+const MAX_NODES = 1_000_000;
+
+/**
+ * Rejects forbidden keys and non-JSON values anywhere in the tree, before anything reads it. Paths are built only
+ * for issues (from the `trail` of keys and indices), so a large document costs one visit per value.
+ */
+function scanTree(root: Json, issues: IssueSink): void {
+  const trail: (string | number)[] = [];
+  let nodes = 0;
+  const pathNow = (): string => {
+    let p = '';
+    for (const t of trail) p = typeof t === 'number' ? itemPath(p, t) : childPath(p, t);
+    return p;
+  };
+  const visit = (value: Json, depth: number): boolean => {
+    if (++nodes > MAX_NODES) {
+      issues.add('', `more than ${MAX_NODES} values: not a tuning document`);
+      return false;
     }
-    return;
-  }
-  if (depth > MAX_DEPTH) {
-    issues.add(path, `nested deeper than ${MAX_DEPTH} levels`);
-    return;
-  }
-  if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) scanTree(value[i], itemPath(path, i), depth + 1, issues);
-    return;
-  }
-  if (!isPlainObject(value)) {
-    issues.add(path, 'expected a plain JSON object');
-    return;
-  }
-  for (const key of Object.keys(value)) {
-    const p = childPath(path, key);
-    if (forbiddenKeys.includes(key)) issues.add(p, `forbidden key "${key}"`);
-    else scanTree(value[key], p, depth + 1, issues);
-  }
+    if (value === null || typeof value !== 'object') {
+      if (typeof value === 'function' || typeof value === 'symbol' || typeof value === 'bigint' || typeof value === 'undefined') {
+        issues.add(pathNow(), `expected a JSON value, got ${describe(value)}`);
+      }
+      return true;
+    }
+    if (depth > MAX_DEPTH) {
+      issues.add(pathNow(), `nested deeper than ${MAX_DEPTH} levels`);
+      return true;
+    }
+    if (Array.isArray(value)) {
+      for (let i = 0; i < value.length; i++) {
+        trail.push(i);
+        const go = visit(value[i], depth + 1);
+        trail.pop();
+        if (!go) return false;
+      }
+      return true;
+    }
+    if (!isPlainObject(value)) {
+      issues.add(pathNow(), 'expected a plain JSON object');
+      return true;
+    }
+    for (const key of Object.keys(value)) {
+      trail.push(key);
+      let go = true;
+      if (forbiddenKeys.includes(key)) issues.add(pathNow(), `forbidden key "${key}"`);
+      else go = visit(value[key], depth + 1);
+      trail.pop();
+      if (!go) return false;
+    }
+    return true;
+  };
+  visit(root, 0);
 }
 
 function checkKeys(obj: Obj, allowed: readonly string[], path: string, issues: IssueSink): void {
@@ -259,23 +289,30 @@ function deepFreeze<T>(value: T): T {
  * Parses a tuning document (an object, or its JSON text) into a complete, deeply frozen Tuning.
  * Whole sections (and `groups`) may be omitted and take the built-in values; a present section must be
  * complete. A top-level "$schema" string (for editors) is accepted and dropped. Version 0 documents are migrated. Throws TuningError listing every problem with its JSON path.
+ * Text input is refused above MAX_TUNING_TEXT (4 MiB) before parsing, and keys repeated within one object are problems.
  */
 export function parseTuning(json: unknown): Tuning {
   const issues: IssueSink = new Issues();
   let input = json;
   if (typeof json === 'string') {
+    // Text: size first (before any parsing), then syntax, then keys repeated within an object.
+    if (json.length > MAX_TUNING_TEXT) {
+      throw new TuningError([{ path: '', message: `the text is ${json.length} characters; a tuning file is at most ${MAX_TUNING_TEXT} (4 MiB)` }]);
+    }
     try {
       input = JSON.parse(json);
     } catch (e) {
       throw new TuningError([{ path: '', message: `not valid JSON: ${(e as Error).message}` }]);
     }
+    const dups = findDuplicateKeys(json);
+    if (dups.length > 0) throw new TuningError(dups.map((d) => ({ path: d.path, message: `duplicate key "${d.key}" (JSON would keep only the last one)` })));
   }
   let result: Tuning | undefined;
   try {
     if (!isPlainObject(input)) {
       issues.add('', `expected a tuning object, got ${describe(input)}`);
     } else {
-      scanTree(input, '', 0, issues);
+      scanTree(input, issues);
       if (issues.list.length === 0) {
         const version = parseVersion(input, issues);
         if (version === 0) {
