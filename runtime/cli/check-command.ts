@@ -31,6 +31,7 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
   if (p.positionals.length !== 1) throw new CliError(p.positionals.length === 0 ? 'missing the scene script' : `expected one scene script, got ${p.positionals.length} arguments`, EXIT.usage);
   const tolerance = numberOption(p, 'tolerance-cents', 0.1, 1200, 5)!;
   const rate = numberOption(p, 'rate', 8000, 192000);
+  if (rate !== undefined && !Number.isInteger(rate)) throw new CliError(`--rate must be a whole number of hertz, got ${p.options.get('rate')}`, EXIT.usage);
   const report = p.options.get('report');
   if (report !== undefined && (typeof report !== 'string' || !/\.(svg|html?)$/i.test(report))) throw new CliError(`--report must name a .svg or .html file, got ${JSON.stringify(report)}`, EXIT.usage);
   const scenePath = p.positionals[0];

@@ -68,7 +68,7 @@ export function loadScene(script: SceneScript | unknown, options: { baseDir?: st
     if ('path' in s.tuning) {
       const file = resolve(base, s.tuning.path);
       try {
-        json = JSON.parse(readFileSync(file, 'utf8'));
+        json = readFileSync(file, 'utf8'); // the text: parseTuning checks its size and repeated keys before using it
       } catch (e) {
         ok = false;
         issues.push({ path: 'tuning', message: `cannot read the tuning file ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}` });
