@@ -43,10 +43,33 @@ const word = fc.constantFrom(
   'good.wav', 'bad.wav', 'scene.json', 'link.wav', 'folder', 'missing.wav', 'out.wav', 'out2.wav', 'report.svg', 'folder/out.wav', './good.wav',
 );
 
+const file = fc.constantFrom('good.wav', 'good.wav', 'scene.json', 'scene.json', 'bad.wav', 'link.wav', 'folder', 'missing.wav');
+const output = fc.constantFrom('out.wav', 'out.wav', 'out2.wav', 'good.wav', 'link.wav', 'folder', 'folder/out.wav', 'no-folder/out.wav');
+const pairs = {
+  tier: fc.tuple(fc.constant('--tier'), fc.constantFrom('draft', 'standard', 'high', 'best')),
+  encoding: fc.tuple(fc.constant('--encoding'), fc.constantFrom('pcm16', 'pcm24', 'float32', 'pcm8')),
+  rate: fc.tuple(fc.constant('--rate'), fc.constantFrom('8000', '22050', '44100.5', '7999')),
+  gain: fc.tuple(fc.constant('--gain'), fc.constantFrom('-6', '0', '12', '61', 'NaN')),
+  normalize: fc.constant(['--normalize']),
+  quiet: fc.constant(['-q']),
+  report: fc.tuple(fc.constant('--report'), fc.constantFrom('report.svg', 'report.html', 'report.txt', 'scene.json')),
+  tolerance: fc.tuple(fc.constant('--tolerance-cents'), fc.constantFrom('5', '0', '1200')),
+  junk: fc.tuple(word),
+};
+const speed = fc.constantFrom('0.5', '2', '1.7', '0.01', '5', 'abc');
+/** Mostly well-shaped commands of each verb (its own options, values valid or not), some word lists at random. */
+const argvArb = fc.oneof(
+  { weight: 2, arbitrary: fc.tuple(file, speed, output, fc.array(fc.oneof(pairs.tier, pairs.encoding, pairs.gain, pairs.normalize, pairs.quiet), { maxLength: 3 })).map(([f, v, o, p]) => ['bake', f, '--speed', v, '-o', o, ...p.flat()]) },
+  { weight: 2, arbitrary: fc.tuple(file, output, fc.array(fc.oneof(pairs.tier, pairs.encoding, pairs.rate, pairs.gain, pairs.normalize, pairs.quiet), { maxLength: 3 })).map(([f, o, p]) => ['render', f, '-o', o, ...p.flat()]) },
+  { weight: 1, arbitrary: fc.tuple(file, fc.array(fc.oneof(pairs.rate, pairs.report, pairs.tolerance, pairs.quiet), { maxLength: 3 })).map(([f, p]) => ['check', f, ...p.flat()]) },
+  { weight: 1, arbitrary: fc.tuple(fc.constantFrom('bake', 'render', 'check'), file, fc.array(fc.oneof(...Object.values(pairs)), { maxLength: 4 })).map(([v, f, p]) => [v, f, ...p.flat()]) },
+  { weight: 1, arbitrary: fc.array(word, { minLength: 0, maxLength: 8 }) },
+);
+
 describe('fuzz: the tool boundaries', () => {
   it('ralenti arguments: 150 random argument lists end with a documented exit code and damage no input', async () => {
     const codes = new Map<number, number>();
-    const c = await fuzz('CLI arguments and files', fc.array(word, { minLength: 0, maxLength: 8 }), 150, 1805, async (argv) => {
+    const c = await fuzz('CLI arguments and files', argvArb, 150, 1805, async (argv) => {
       const r = await runCli(argv);
       codes.set(r.code, (codes.get(r.code) ?? 0) + 1);
       if (![0, 1, 2, 3, 4].includes(r.code)) return `exit code ${r.code}`;
