@@ -3,6 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import { BlastGuard, blastGuardDefaults, PeakLimiter } from '../../src/engine';
 import { engineAt, renderFor, sine, tuningWith } from './engine-helpers';
+import { libsamplerateResample } from '../../bench/resampler-reference';
 
 const SR = 48000;
 const db = (x: number) => 20 * Math.log10(x);
@@ -30,6 +31,18 @@ describe('limiter ceiling', () => {
     const settled = db(peakOf(a, Math.round(0.25 * sr)));
     expect(settled).toBeLessThanOrEqual(ceilingDb + 1e-6);
     expect(settled).toBeGreaterThan(ceilingDb - 0.1);
+  });
+
+  // True peak: 4× oversampling as a BS.1770-4 meter does (docs/references.md §19.6), by an outside resampler
+  // (libsamplerate-js 2.1.2, SRC_SINC_BEST_QUALITY = converter 0). Ratio 0.25 = four output samples per input sample.
+  it.each([440, 997, 5000, 11000, 15000])('keeps the true peak of a sustained %s Hz tone 20 dB over the ceiling within 0.1 dB of −1 dBFS', async (hz) => {
+    const l = new PeakLimiter({ sampleRate: SR, ceilingDb: -1 });
+    const a = sine(hz, SR, 0.3, 10 ** (19 / 20));
+    l.process(a, a.slice(), 0, a.length);
+    const up = await libsamplerateResample(a.slice(SR / 5), 0.25, 0);
+    const truePeak = db(peakOf(up, 400, up.length - 400));
+    expect(truePeak).toBeLessThan(-1 + 0.1);
+    expect(truePeak).toBeGreaterThan(-1 - 0.1);
   });
 
   it('settles the engine output of a +12 dBFS tone at the default −1 dBFS ceiling (not −3)', () => {
