@@ -70,6 +70,20 @@ describe('clipping and gain', () => {
   });
 });
 
+describe('output safety in a render with the limiter off', () => {
+  it('a hostile scene (64 loud tones, limiter off) never exceeds 0 dBFS and reports the blast guard muting it', async () => {
+    const tuning = JSON.parse(readFileSync('runtime/offline/examples/slow-motion.tuning.json', 'utf8'));
+    tuning.master = { limiter: false, ceilingDb: -1, gainDb: 12 };
+    const voices = Array.from({ length: 64 }, () => ({ sound: 't', gain: 1, loop: true, group: 'interface' }));
+    writeFileSync(path('hostile.json'), JSON.stringify({ version: 1, duration: 1, tuning, sounds: { t: { type: 'tone', frequency: 110, gain: 1 } }, voices }));
+    const r = await runCli(['render', path('hostile.json'), '-q', '-o', path('hostile.wav')]);
+    expect(r.code).toBe(EXIT.ok);
+    expect(r.out).toMatch(/blasts muted: 1/);
+    const [l, rr] = readWav(readFileSync(path('hostile.wav'))).channels;
+    expect(Math.max(peakDb(l), peakDb(rr))).toBeLessThanOrEqual(0);
+  });
+});
+
 describe('input sanity', () => {
   it('clamps input samples of ±1e30 to ±16 and says how many', async () => {
     const r = await runCli(['bake', path('wild.wav'), '--speed', '0.5', '-q', '-o', path('wild-out.wav')]);
