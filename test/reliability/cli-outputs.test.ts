@@ -67,6 +67,16 @@ describe('outputs that are inputs under another name', () => {
     untouched();
   });
 
+  it('check refuses a report path that is a hard link to the scene script', async () => {
+    const tone = JSON.stringify({ version: 1, duration: 0.5, sounds: { t: { type: 'tone', frequency: 440 } }, voices: [{ sound: 't' }] });
+    writeFileSync(path('tone.json'), tone);
+    linkSync(path('tone.json'), path('tone-link.svg'));
+    const r = await runCli(['check', path('tone.json'), '-q', '--report', path('tone-link.svg')]);
+    expect(r.code).toBe(EXIT.usage);
+    expect(readFileSync(path('tone.json'), 'utf8')).toBe(tone);
+    untouched();
+  });
+
   it('treats another letter case as the input exactly when the file system folds case', async () => {
     const r = await runCli(['bake', path('Good.wav'), '--speed', '0.5', '-q', '-o', path('good.wav')]);
     if (foldsCase()) expect(r.code).toBe(EXIT.usage);
