@@ -72,7 +72,7 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
     `rendered ${loaded.script.duration.toFixed(2)} s at ${run.sampleRate} Hz to ${output} (${encoding}${encoding === 'pcm16' ? ', TPDF dither' : ''}, ${s.engine.tier} tier)\n` +
       `voices: ${s.voicesStarted} started, ${s.voicesRefused} refused, at most ${s.maxVoices} at once, ${s.engine.steals} stolen\n` +
       `peak: ${formatDb(gainToDb(writer.counts.peak))} after gain ${gainToDb(gain).toFixed(1)} dB (engine: ${formatDb(gainToDb(s.peak))}, before its limiter ${formatDb(gainToDb(s.peakBeforeLimiter))}), limiter reduction at most ${(-s.limiterDb).toFixed(1)} dB\n` +
-      clipReport(writer.counts, encoding, 0) +
+      clipReport(writer.counts, encoding, loaded.inputClamped ?? 0) +
       `clamps: ${s.engine.clamps}, blasts muted: ${s.engine.blasts}, errors: ${s.engine.errors}\n`,
   );
   return EXIT.ok;
