@@ -33,6 +33,8 @@ export interface WavLayout {
   frames: number;
 }
 
+/** Chunks looked at before the data chunk; a file of millions of tiny chunks is refused instead of crawled. */
+const MAX_CHUNKS = 4096;
 const FORMAT_PCM = 1;
 const FORMAT_FLOAT = 3;
 const FORMAT_EXTENSIBLE = 0xfffe;
@@ -58,7 +60,8 @@ export function parseWavLayout(readAt: (offset: number, length: number) => Uint8
   if (tag(head, 0) !== 'RIFF' || tag(head, 8) !== 'WAVE') throw new WavError('not a WAV file: missing the RIFF/WAVE header');
   let offset = 12;
   let fmt: { format: number; channels: number; sampleRate: number; bits: number } | null = null;
-  while (offset + 8 <= totalBytes) {
+  for (let chunks = 0; offset + 8 <= totalBytes; chunks++) {
+    if (chunks >= MAX_CHUNKS) throw new WavError(`malformed WAV file: more than ${MAX_CHUNKS} chunks before the data`);
     const h = readAt(offset, 8);
     const v = new DataView(h.buffer, h.byteOffset, h.byteLength);
     const id = tag(h, 0);

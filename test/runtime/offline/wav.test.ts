@@ -148,3 +148,15 @@ describe('WAV input sanity', () => {
     expect(wav.clamped).toBe(4);
   });
 });
+
+describe('WAV chunk walking', () => {
+  it('refuses a file with more than 4096 chunks before its data instead of crawling them', () => {
+    const head = new Uint8Array(12 + 5000 * 8);
+    const v = new DataView(head.buffer);
+    head.set([0x52, 0x49, 0x46, 0x46], 0); // RIFF
+    v.setUint32(4, head.length - 8, true);
+    head.set([0x57, 0x41, 0x56, 0x45], 8); // WAVE
+    for (let i = 0; i < 5000; i++) head.set([0x4a, 0x55, 0x4e, 0x4b], 12 + 8 * i); // empty "JUNK" chunks
+    expect(() => readWav(head)).toThrow(/more than 4096 chunks/);
+  });
+});
