@@ -71,8 +71,9 @@ export class SceneRun {
   readonly sampleRate: number;
   /** Frames of the whole render. */
   readonly totalFrames: number;
-  /** The last block (first `step()` frames valid). */
+  /** Left channel of the last block (its first `step()` frames are valid). */
   readonly left = new Float32Array(SCENE_BLOCK_FRAMES);
+  /** Right channel of the last block. */
   readonly right = new Float32Array(SCENE_BLOCK_FRAMES);
   /** Summary so far. */
   readonly stats: SceneRenderStats;

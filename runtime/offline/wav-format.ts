@@ -8,6 +8,7 @@ export type WavEncoding = 'pcm16' | 'pcm24' | 'float32';
 
 /** A file that is not a WAV file, is truncated, or uses an encoding or rate this module does not take. */
 export class WavError extends Error {
+  /** A WavError with `message` saying what is wrong. */
   constructor(message: string) {
     super(message);
     this.name = 'WavError';
