@@ -26,7 +26,7 @@ options:
   --encoding <name>       float32, pcm24 or pcm16 (default: the input's); pcm16 is TPDF-dithered
   --gain <dB>             gain applied to the output, -60…60 dB (default 0)
   --normalize             scale the output so that its peak is ${NORMALIZE_PEAK_DB} dBFS (reads the input twice)
-  -q, --quiet             no progress bar
+  -q, --quiet             no progress on stderr
   -h, --help              this help
 
 Input samples beyond ±${WAV_SAMPLE_BOUND} (+24 dBFS) or not finite are clamped and counted; output samples beyond
