@@ -66,7 +66,7 @@ export interface RalentiInit {
 }
 
 const EMPTY_STATS: EngineStats = Object.freeze({
-  activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
+  activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
   limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: 'standard',
 }) as EngineStats;
 

@@ -1,8 +1,9 @@
 // `ralenti check <scene.json>`: renders each tonal voice solo, tracks its pitch (YIN, src/analysis) and compares it
 // with the heard frequency expected from the motion and tuning alone (runtime/check); writes an optional report.
-import { resolve } from 'node:path';
+import { dirname, extname, resolve } from 'node:path';
 import { loadSceneFile, ScriptError, type LoadedScene } from '../offline';
-import { checkScene, writeReport } from '../check';
+import { checkScene, renderReportHtml, renderReportSvg } from '../check';
+import { refuseOverwrite, SafeFileWriter } from './cli-files';
 import { CliError, EXIT, numberOption, parseArgs, progressBar, type CliIo } from './cli-io';
 import type { CliCommand } from './cli-command';
 
@@ -31,10 +32,11 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
   if (p.positionals.length !== 1) throw new CliError(p.positionals.length === 0 ? 'missing the scene script' : `expected one scene script, got ${p.positionals.length} arguments`, EXIT.usage);
   const tolerance = numberOption(p, 'tolerance-cents', 0.1, 1200, 5)!;
   const rate = numberOption(p, 'rate', 8000, 192000);
+  if (rate !== undefined && !Number.isInteger(rate)) throw new CliError(`--rate must be a whole number of hertz, got ${p.options.get('rate')}`, EXIT.usage);
   const report = p.options.get('report');
   if (report !== undefined && (typeof report !== 'string' || !/\.(svg|html?)$/i.test(report))) throw new CliError(`--report must name a .svg or .html file, got ${JSON.stringify(report)}`, EXIT.usage);
   const scenePath = p.positionals[0];
-  if (typeof report === 'string' && resolve(report) === resolve(scenePath)) throw new CliError(`refusing to overwrite the input ${scenePath}`, EXIT.usage);
+  if (typeof report === 'string') refuseOverwrite(report, [scenePath]);
   let loaded: LoadedScene;
   try {
     loaded = loadSceneFile(scenePath, rate);
@@ -55,11 +57,15 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
   io.out(`${lines.join('\n')}\n`);
   if (skipped > 0) io.out(`(${skipped} voice(s) of noise or WAV sounds not checked)\n`);
   if (typeof report === 'string') {
-    try {
-      writeReport(report, { title: scenePath, toleranceCents: tolerance, sources: results, timeScale: checked.timeScale });
-    } catch (e) {
-      throw new CliError(`cannot write ${report}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`, EXIT.output);
-    }
+    // Never over an input under any name (the script, its WAV sounds, its tuning file); temporary file, then rename.
+    const base = dirname(resolve(scenePath));
+    const inputs = [scenePath, ...Object.values(loaded.script.sounds).flatMap((s) => (s.type === 'file' ? [resolve(base, s.path)] : []))];
+    if (loaded.script.tuning !== null && 'path' in loaded.script.tuning) inputs.push(resolve(base, loaded.script.tuning.path));
+    const doc = { title: scenePath, toleranceCents: tolerance, sources: results, timeScale: checked.timeScale };
+    const text = extname(report).toLowerCase() === '.svg' ? renderReportSvg(doc) : renderReportHtml(doc);
+    const file = new SafeFileWriter(report, inputs);
+    file.writeAt(new TextEncoder().encode(text), 0);
+    file.commit();
     io.out(`report written to ${report}\n`);
   }
   const failed = results.filter((r) => !r.passed).length;

@@ -63,6 +63,8 @@ export interface EngineStats {
   /** Peak absolute output sample of the last render call, before and after the limiter. */
   peakIn: number;
   peakOut: number;
+  /** Times the blast guard muted the output (sustained level far above full scale, or non-finite samples). */
+  blasts: number;
   /** Limiter gain reduction at the end of the last render call, in dB (≤ 0). */
   limiterDb: Decibels;
   /** Current time scale as the engine evaluates it. */

@@ -92,7 +92,7 @@ export class Engine {
     this.resident?.bind(this.scratch, this.bus);
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null };
     this.stats = {
-      activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
+      activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
       limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: table.name as Tuning['resampler']['tier'], kernel: this.voices[0].reader.kernelName,
     };
   }
@@ -269,7 +269,7 @@ export class Engine {
       for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
     }
     const readerClamps = this.pool.count(st);
-    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.limiter.nonFinite + readerClamps;
+    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps;
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
     st.limiterDb = this.bus.limiter.reductionDb;
