@@ -1,0 +1,264 @@
+// Judges one source's heard pitch against its expectation, frame by frame, by analysis through synthesis: a clean
+// signal that follows the expected frequency exactly is tracked with the same YIN tracker (docs/references.md §7) and
+// the same windows as the heard audio, so the tracker's averaging over fast glides (closest approach) cancels and
+// every voiced frame can be judged. Frames that cannot be judged are kept as spans with their reason.
+import { PitchTracker, quantileSorted } from '../../../src/analysis';
+import { followBand } from './band-follower';
+
+/** Why a frame of a sounding source was not judged. */
+export type UnjudgedReason = 'unvoiced' | 'level' | 'overlap' | 'range';
+
+/** A run of frames with one reason, in seconds of the audio. */
+export interface UnjudgedSpan {
+  from: number;
+  to: number;
+  reason: UnjudgedReason;
+}
+
+/** Pass/fail limits of the check. */
+export interface CheckLimits {
+  /** Largest 95th percentile of the error, cents (default 5: about the smallest audible shift, docs/references.md §10). */
+  p95Cents: number;
+  /** Largest single-frame error, cents (default 20). */
+  maxCents: number;
+  /** Smallest judged share of sounding frames within ±closestApproachSeconds of closest approach, 0…1 (default 0.9). */
+  closestApproachShare: number;
+  /** Half-width of the closest-approach window, s (default 0.5). */
+  closestApproachSeconds: number;
+  /** Smallest judged share of all sounding frames, 0…1 (default 0.5). */
+  judgedShare: number;
+}
+
+/** Frozen default limits. */
+export const checkLimitDefaults: Readonly<CheckLimits> = Object.freeze({ p95Cents: 5, maxCents: 20, closestApproachShare: 0.9, closestApproachSeconds: 0.5, judgedShare: 0.5 });
+
+/** What judgeSource needs. */
+export interface JudgeInput {
+  /** Source name for messages. */
+  name: string;
+  /** Heard audio, mono. */
+  audio: Float32Array;
+  sampleRate: number;
+  /** Expected fundamental at audio time t (s), NaN while the source is not heard. */
+  expectedHz: (t: number) => number;
+  /** Relative amplitudes of the source's harmonics (a tone: [1]). */
+  partials: readonly number[];
+  /** Other sources in the same audio (a mix): their expected fundamentals and harmonic counts; empty for a stem. */
+  others: readonly { expectedHz: (t: number) => number; harmonics: number }[];
+  /** Reception time of closest approach, s, or null for a source without one. */
+  closestApproach: number | null;
+  limits: CheckLimits;
+  /** Hop between frames, s (default 0.01). */
+  hopSeconds?: number;
+  /** Tracker window, s (default 0.03). */
+  windowSeconds?: number;
+}
+
+/** Error figures of one source. */
+export interface SourceFigures {
+  medianCents: number;
+  p95Cents: number;
+  maxCents: number;
+  /** Audio time of the largest error, s (NaN when nothing was judged). */
+  maxAt: number;
+  /** Frames while the source sounds, and how many of them were judged. */
+  soundingFrames: number;
+  judgedFrames: number;
+  /** judgedFrames / soundingFrames (0 when nothing sounds). */
+  judgedShare: number;
+  /** Judged share within the closest-approach window (NaN without one). */
+  closestApproachShare: number;
+}
+
+/** Per-frame result of one source. */
+export interface JudgedSource {
+  name: string;
+  /** Frame times (s). */
+  times: Float64Array;
+  /** Instantaneous expected frequency at each frame, Hz (NaN when not heard). */
+  expectedHz: Float64Array;
+  /** Heard frequency (tracked), Hz (NaN when none). */
+  heardHz: Float64Array;
+  /** Signed error in cents on judged frames, NaN elsewhere. */
+  errorCents: Float64Array;
+  unjudged: UnjudgedSpan[];
+  figures: SourceFigures;
+  closestApproach: number | null;
+  passed: boolean;
+  /** Why it failed, each naming the source and a time; empty when it passed. */
+  failures: string[];
+}
+
+const OVERLAP_CENTS = 350;
+const cents = (a: number, b: number): number => 1200 * Math.log2(a / b);
+
+/** Judges one source; see the file comment. */
+export function judgeSource(input: JudgeInput): JudgedSource {
+  const sr = input.sampleRate;
+  const n = input.audio.length;
+  const hop = input.hopSeconds ?? 0.01;
+  const win = input.windowSeconds ?? 0.03;
+  // Expected frequency on a 1 ms grid, then per sample by straight lines; the synthetic reference integrates it.
+  const grid = 0.001;
+  const g = new Float64Array(Math.ceil(n / sr / grid) + 2);
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < g.length; i++) {
+    const f = input.expectedHz(i * grid);
+    g[i] = f;
+    if (f > 0) [lo, hi] = [Math.min(lo, f), Math.max(hi, f)];
+  }
+  const expAt = (t: number): number => {
+    const x = t / grid;
+    const i = Math.floor(x);
+    if (i < 0 || i + 1 >= g.length) return NaN;
+    return g[i] + (x - i) * (g[i + 1] - g[i]);
+  };
+  const reference = new Float32Array(n);
+  const amp = input.partials.reduce((a, b) => a + b, 0) || 1;
+  let phase = 0;
+  for (let i = 0; i < n; i++) {
+    const f = expAt(i / sr);
+    if (!(f > 0)) continue;
+    phase += f / sr;
+    phase -= Math.floor(phase);
+    let v = 0;
+    for (let k = 0; k < input.partials.length; k++) if ((k + 1) * f < sr / 2) v += input.partials[k] * Math.sin(2 * Math.PI * (k + 1) * phase);
+    reference[i] = (0.5 * v) / amp;
+  }
+  const heard = Float32Array.from(input.audio);
+  if (input.others.length > 0) {
+    followBand(heard, sr, (i) => expAt(i / sr));
+    followBand(reference, sr, (i) => expAt(i / sr));
+  }
+  const minHz = Math.max(30, (Number.isFinite(lo) ? lo : 100) / 1.5);
+  const maxHz = Math.min(sr / 4 - 1, (Number.isFinite(hi) ? hi : 1000) * 1.5);
+  const tracker = new PitchTracker({ sampleRate: sr, hopSeconds: hop, windowSeconds: win, minHz, maxHz });
+  const heardTrack = tracker.track(heard);
+  const refTrack = tracker.track(reference);
+  const frames = heardTrack.times.length;
+  const W = Math.round(win * sr);
+  const span = tracker.frameFrames;
+  const times = new Float64Array(frames);
+  const expected = new Float64Array(frames);
+  const errors = new Float64Array(frames).fill(NaN);
+  const reasons: (UnjudgedReason | 'judged' | 'silent')[] = [];
+  const levels = new Float64Array(frames);
+  let peak = 0;
+  for (let i = 0; i < frames; i++) {
+    const o = i * tracker.hopFrames;
+    let e = 0;
+    for (let j = o; j < o + W; j++) e += heard[j] * heard[j];
+    levels[i] = Math.sqrt(e / W);
+    peak = Math.max(peak, levels[i]);
+  }
+  const floor = Math.max(1e-4, peak * 10 ** (-45 / 20));
+  for (let i = 0; i < frames; i++) {
+    const o = i * tracker.hopFrames;
+    const t = (o + (W - 1) / 2) / sr;
+    times[i] = t;
+    const f = expAt(t);
+    expected[i] = f;
+    // The whole span the frame reads must be heard (no start, stop or silence inside it).
+    let sounding = true;
+    for (let j = o; j <= o + span && sounding; j += Math.max(1, Math.floor(sr * grid))) if (!(expAt(j / sr) > 0)) sounding = false;
+    if (!sounding || !(expAt((o + span) / sr) > 0)) {
+      reasons.push('silent');
+      continue;
+    }
+    let why: UnjudgedReason | 'judged' = 'judged';
+    if (f < minHz * 1.05 || f > maxHz / 1.05) why = 'range';
+    else if (input.others.some((s) => overlaps(f, s.expectedHz(t), s.harmonics))) why = 'overlap';
+    else if (levels[i] < floor) why = 'level';
+    else if (!(heardTrack.frequencies[i] > 0)) why = 'unvoiced';
+    else if (!(refTrack.frequencies[i] > 0)) why = 'range';
+    else errors[i] = cents(heardTrack.frequencies[i], refTrack.frequencies[i]);
+    reasons.push(why);
+  }
+  return verdict(input, times, expected, heardTrack.frequencies.slice(0, frames), errors, reasons, hop);
+}
+
+function overlaps(f: number, other: number, harmonics: number): boolean {
+  if (!(other > 0)) return false;
+  for (let k = 1; k <= harmonics; k++) if (Math.abs(cents(other * k, f)) < OVERLAP_CENTS) return true;
+  // This source's own harmonics landing on the other's fundamental do not disturb this fundamental's band.
+  return false;
+}
+
+function verdict(
+  input: JudgeInput,
+  times: Float64Array,
+  expected: Float64Array,
+  heardHz: Float64Array,
+  errors: Float64Array,
+  reasons: (UnjudgedReason | 'judged' | 'silent')[],
+  hop: number,
+): JudgedSource {
+  const lim = input.limits;
+  const unjudged: UnjudgedSpan[] = [];
+  const abs: number[] = [];
+  let sounding = 0;
+  let maxCents = NaN;
+  let maxAt = NaN;
+  let caSounding = 0;
+  let caJudged = 0;
+  const ca = input.closestApproach;
+  for (let i = 0; i < times.length; i++) {
+    const r = reasons[i];
+    if (r === 'silent') continue;
+    sounding++;
+    const nearCa = ca !== null && Math.abs(times[i] - ca) <= lim.closestApproachSeconds;
+    if (nearCa) caSounding++;
+    if (r === 'judged') {
+      const a = Math.abs(errors[i]);
+      abs.push(a);
+      if (!(a <= maxCents)) [maxCents, maxAt] = [a, times[i]];
+      if (nearCa) caJudged++;
+      continue;
+    }
+    const last = unjudged[unjudged.length - 1];
+    if (last && last.reason === r && times[i] - last.to <= hop * 1.5) last.to = times[i];
+    else unjudged.push({ from: times[i], to: times[i], reason: r });
+  }
+  abs.sort((a, b) => a - b);
+  const figures: SourceFigures = {
+    medianCents: quantileSorted(abs, 0.5),
+    p95Cents: quantileSorted(abs, 0.95),
+    maxCents,
+    maxAt,
+    soundingFrames: sounding,
+    judgedFrames: abs.length,
+    judgedShare: sounding > 0 ? abs.length / sounding : 0,
+    closestApproachShare: ca !== null && caSounding > 0 ? caJudged / caSounding : NaN,
+  };
+  const failures: string[] = [];
+  const at = (t: number): string => `${t.toFixed(2)} s`;
+  if (abs.length === 0) failures.push(`${input.name}: no frame could be judged (${sounding} sounding frames)`);
+  else {
+    if (figures.p95Cents > lim.p95Cents) {
+      const worst = worstSpan(times, errors, lim.p95Cents);
+      failures.push(`${input.name}: 95th percentile error ${figures.p95Cents.toFixed(1)} cents > ${lim.p95Cents} cents, off from ${at(worst[0])} to ${at(worst[1])}`);
+    }
+    if (maxCents > lim.maxCents) failures.push(`${input.name}: error ${maxCents.toFixed(1)} cents at ${at(maxAt)} > max ${lim.maxCents} cents`);
+    if (figures.judgedShare < lim.judgedShare) failures.push(`${input.name}: only ${(figures.judgedShare * 100).toFixed(0)} % of the sounding frames judged (floor ${(lim.judgedShare * 100).toFixed(0)} %)`);
+  }
+  if (ca !== null && caSounding > 0 && figures.closestApproachShare < lim.closestApproachShare) {
+    const inside = unjudged.filter((s) => s.to >= ca - lim.closestApproachSeconds && s.from <= ca + lim.closestApproachSeconds);
+    const why = inside.map((s) => `${s.reason} ${at(s.from)}–${at(s.to)}`).join(', ');
+    failures.push(`${input.name}: only ${(figures.closestApproachShare * 100).toFixed(0)} % judged within ±${lim.closestApproachSeconds} s of closest approach at ${at(ca)} (floor ${(lim.closestApproachShare * 100).toFixed(0)} %): ${why}`);
+  }
+  return { name: input.name, times, expectedHz: expected, heardHz, errorCents: errors, unjudged, figures, closestApproach: ca, passed: failures.length === 0, failures };
+}
+
+/** First and last time where the error exceeds `limit` (s). */
+function worstSpan(times: Float64Array, errors: Float64Array, limit: number): [number, number] {
+  let a = NaN;
+  let b = NaN;
+  for (let i = 0; i < times.length; i++) {
+    if (Math.abs(errors[i]) > limit) {
+      if (Number.isNaN(a)) a = times[i];
+      b = times[i];
+    }
+  }
+  return [a, b];
+}
