@@ -60,6 +60,7 @@ const colours = Object.freeze({
   level: '#e6e6e6',
   overlap: '#f6d0d0',
   range: '#d7e8f7',
+  'path-step': '#e3d7f2',
   timeScale: '#a05a00',
   pass: '#2e7d32',
   fail: '#c62828',
@@ -171,7 +172,7 @@ function valueAxis(f: Frame, lo: number, hi: number, label: string, out: string[
   return y;
 }
 
-const REASON_TEXT: Readonly<Record<string, string>> = Object.freeze({ unvoiced: 'unvoiced', level: 'too quiet', overlap: 'overlap with another source', range: 'outside the tracker range' });
+const REASON_TEXT: Readonly<Record<string, string>> = Object.freeze({ unvoiced: 'unvoiced', level: 'too quiet', overlap: 'overlap with another source', range: 'outside the tracker range', 'path-step': 'step in the recorded path' });
 
 function sourcePanel(s: ReportSource, f: Frame, limits: CheckLimits, out: string[]): void {
   const bandHi = Array.from(s.expectedHz as ArrayLike<number>, (v) => v * 2 ** (limits.p95Cents / 1200));

@@ -6,7 +6,7 @@ import { PitchTracker, quantileSorted } from '../../../src/analysis';
 import { followBand } from './band-follower';
 
 /** Why a frame of a sounding source was not judged. */
-export type UnjudgedReason = 'unvoiced' | 'level' | 'overlap' | 'range';
+export type UnjudgedReason = 'unvoiced' | 'level' | 'overlap' | 'range' | 'path-step';
 
 /** A run of frames with one reason, in seconds of the audio. */
 export interface UnjudgedSpan {
@@ -90,6 +90,12 @@ export interface JudgedSource {
 }
 
 const OVERLAP_CENTS = 350;
+/** A jump of the expected pitch within 1 ms beyond its neighbours' change that counts as a step, cents. */
+const STEP_CENTS = 2;
+/** Frames this close to a step are not judged: one frame interval of a 60 Hz game, s. */
+const STEP_GUARD_SECONDS = 1 / 60;
+/** A source counts as sounding this long after its sound first arrives (a voice's fade-in and first block), s. */
+const ONSET_SECONDS = 0.01;
 const cents = (a: number, b: number): number => 1200 * Math.log2(a / b);
 
 /** Judges one source; see the file comment. */
@@ -113,6 +119,24 @@ export function judgeSource(input: JudgeInput): JudgedSource {
     const i = Math.floor(x);
     if (i < 0 || i + 1 >= g.length) return NaN;
     return g[i] + (x - i) * (g[i + 1] - g[i]);
+  };
+  // Steps of the expected pitch itself (a recorded path's velocity changing at a key, or a jump): more than
+  // STEP_CENTS within one grid interval beyond what its neighbours change. No renderer that is fed the path at a
+  // game's frame rate can follow such a step within a frame interval, so frames near one are listed, not judged.
+  const stepCount = new Int32Array(g.length + 1);
+  for (let i = 0; i < g.length; i++) {
+    let step = 0;
+    if (i >= 2 && i + 2 < g.length && g[i - 2] > 0 && g[i + 2] > 0 && g[i] > 0 && g[i + 1] > 0 && g[i - 1] > 0) {
+      const d = cents(g[i + 1], g[i]);
+      const around = 0.5 * (cents(g[i], g[i - 1]) + cents(g[i + 2], g[i + 1]));
+      step = Math.abs(d - around) > STEP_CENTS ? 1 : 0;
+    }
+    stepCount[i + 1] = stepCount[i] + step;
+  }
+  const stepsIn = (t0: number, t1: number): boolean => {
+    const a = Math.max(0, Math.floor(t0 / grid));
+    const b = Math.min(g.length, Math.ceil(t1 / grid));
+    return b > a && stepCount[b] - stepCount[a] > 0;
   };
   const reference = new Float32Array(n);
   const amp = input.partials.reduce((a, b) => a + b, 0) || 1;
@@ -162,12 +186,13 @@ export function judgeSource(input: JudgeInput): JudgedSource {
     // The whole span the frame reads must be heard (no start, stop or silence inside it).
     let sounding = true;
     for (let j = o; j <= o + span && sounding; j += Math.max(1, Math.floor(sr * grid))) if (!(expAt(j / sr) > 0)) sounding = false;
-    if (!sounding || !(expAt((o + span) / sr) > 0)) {
+    if (!sounding || !(expAt((o + span) / sr) > 0) || !(expAt(o / sr - ONSET_SECONDS) > 0)) {
       reasons.push('silent');
       continue;
     }
     let why: UnjudgedReason | 'judged' = 'judged';
     if (f < minHz * 1.05 || f > maxHz / 1.05) why = 'range';
+    else if (stepsIn(o / sr - STEP_GUARD_SECONDS, (o + span) / sr + STEP_GUARD_SECONDS)) why = 'path-step';
     else if (input.others.some((s) => overlaps(f, s.expectedHz(t), s.harmonics))) why = 'overlap';
     else if (levels[i] < floor) why = 'level';
     else if (!(heardTrack.frequencies[i] > 0)) why = 'unvoiced';
