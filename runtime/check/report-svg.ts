@@ -14,6 +14,8 @@ export interface ReportSource {
   expectedHz: ArrayLike<number>;
   /** Heard (tracked) frequency per frame in Hz (NaN = no pitch found). */
   heardHz: ArrayLike<number>;
+  /** Signed error per frame in cents on judged frames, NaN elsewhere (optional; drawn in a strip under the pitch). */
+  errorCents?: ArrayLike<number>;
   /** Unjudged spans of the sounding source, with their reasons. */
   unjudged: readonly UnjudgedSpan[];
   figures: SourceFigures;
@@ -67,6 +69,7 @@ const colours = Object.freeze({
 });
 const margin = Object.freeze({ left: 70, right: 24, top: 62, bottom: 30 });
 const PANEL_HEIGHT = 260;
+const ERROR_HEIGHT = 120;
 const STRIP_HEIGHT = 130;
 const HEADER_HEIGHT = 56;
 
@@ -197,19 +200,40 @@ function sourcePanel(s: ReportSource, f: Frame, limits: CheckLimits, out: string
   if (s.closestApproach !== null && s.closestApproach >= f.t0 && s.closestApproach <= f.t1) {
     const cx = fmt(x(s.closestApproach));
     out.push(`<g class="closest-approach"><line x1="${cx}" y1="${fmt(top)}" x2="${cx}" y2="${fmt(bottom)}" stroke="${colours.closest}" stroke-width="1.5" stroke-dasharray="2 2"/>`);
-    out.push(`<text x="${cx}" y="${fmt(top - 3)}" text-anchor="middle" fill="${colours.closest}">closest approach ${figure(s.closestApproach)} s</text></g>`);
+    out.push(`<text x="${cx}" y="${fmt(top + 12)}" dx="4" fill="${colours.closest}">closest approach ${figure(s.closestApproach)} s</text></g>`);
   }
   const verdict = s.passed ? 'PASS' : 'FAIL';
   const badgeX = f.width - margin.right - 64;
   out.push(`<g class="badge" data-verdict="${verdict.toLowerCase()}"><rect x="${badgeX}" y="${f.top + 4}" width="64" height="22" rx="4" fill="${s.passed ? colours.pass : colours.fail}"/>`);
   out.push(`<text x="${badgeX + 32}" y="${f.top + 20}" text-anchor="middle" fill="#ffffff" font-weight="bold">${verdict}</text></g>`);
   const st = s.figures;
-  const ca = Number.isNaN(st.closestApproachShare) ? '' : ` · ${figure(st.closestApproachShare * 100, 0)} % judged near closest approach`;
-  const line = `median ${figure(st.medianCents)} ¢ · p95 ${figure(st.p95Cents)} ¢ (limit ${figure(limits.p95Cents, 1)}) · max ${figure(st.maxCents)} ¢ at ${figure(st.maxAt)} s (limit ${figure(limits.maxCents, 1)}) · ${figure(st.judgedShare * 100, 0)} % of ${st.soundingFrames} sounding frames judged${ca}`;
+  const ca = Number.isNaN(st.closestApproachShare) ? '' : `, ${figure(st.closestApproachShare * 100, 0)} % near closest approach`;
+  const line = `median ${figure(st.medianCents)} ¢ · p95 ${figure(st.p95Cents)} ¢ · max ${figure(st.maxCents)} ¢ at ${figure(st.maxAt)} s · ${figure(st.judgedShare * 100, 0)} % of ${st.soundingFrames} frames judged${ca}`;
   out.push(`<text x="${margin.left}" y="${f.top + 14}" font-weight="bold">${escapeXml(s.name + (s.model ? ` — ${s.model} Doppler expected` : ''))}</text>`);
   out.push(`<text x="${margin.left}" y="${f.top + 29}" fill="#555555">${escapeXml(line)}</text>`);
   if (s.failures.length > 0) out.push(`<text x="${margin.left}" y="${f.top + 43}" fill="${colours.fail}">${escapeXml(s.failures[0])}</text>`);
+  if (s.errorCents) errorStrip(s, { ...f, top: f.top + f.height - 8 }, limits, out);
   out.push('</g>');
+}
+
+/** Error in cents on the judged frames, with the ±p95 and ±max limits as lines. */
+function errorStrip(s: ReportSource, f: Frame, limits: CheckLimits, out: string[]): void {
+  const errs = s.errorCents!;
+  let worst = limits.p95Cents * 2;
+  for (let i = 0; i < errs.length; i++) if (Number.isFinite(errs[i])) worst = Math.max(worst, Math.abs(errs[i]));
+  const span = Math.min(worst * 1.1, limits.maxCents * 3);
+  const strip = { ...f, top: f.top - margin.top, height: margin.top + ERROR_HEIGHT - 40 + margin.bottom - 10 };
+  const y = valueAxis(strip, -span, span, 'error (¢)', out);
+  const x = timeAxis(strip, out);
+  const clip = (v: number) => y(Math.max(-span, Math.min(span, v)));
+  const x0 = margin.left;
+  const x1 = f.width - margin.right;
+  for (const [v, colour] of [[limits.p95Cents, colours.axis], [limits.maxCents, colours.fail]] as const) {
+    if (v > span) continue;
+    for (const sign of [1, -1]) out.push(`<line class="limit" x1="${x0}" x2="${x1}" y1="${fmt(y(sign * v))}" y2="${fmt(y(sign * v))}" stroke="${colour}" stroke-dasharray="4 3"/>`);
+  }
+  out.push(`<path data-series="error" d="${pathData(s.times, errs, x, clip)}" fill="none" stroke="${colours.heard}" stroke-width="1.2"/>`);
+  if (s.closestApproach !== null) out.push(`<line x1="${fmt(x(s.closestApproach))}" x2="${fmt(x(s.closestApproach))}" y1="${fmt(y(span))}" y2="${fmt(y(-span))}" stroke="${colours.closest}" stroke-width="1.5" stroke-dasharray="2 2"/>`);
 }
 
 /** Renders the report as one standalone SVG document (UTF-8 text). */
@@ -225,7 +249,8 @@ export function renderReportSvg(report: CheckReport, options: ReportSvgOptions =
     }
   }
   if (!(t1 > t0)) [t0, t1] = [0, 1];
-  const height = HEADER_HEIGHT + report.sources.length * PANEL_HEIGHT + (report.timeScale ? STRIP_HEIGHT : 0) + 10;
+  const panel = PANEL_HEIGHT + (report.sources.some((s) => s.errorCents) ? ERROR_HEIGHT : 0);
+  const height = HEADER_HEIGHT + report.sources.length * panel + (report.timeScale ? STRIP_HEIGHT : 0) + 10;
   const out: string[] = [];
   out.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 ${width} ${height}" font-family="system-ui, sans-serif" font-size="12" fill="${colours.ink}">`);
   out.push(`<title>${escapeXml(report.title)}</title>`);
@@ -234,10 +259,10 @@ export function renderReportSvg(report: CheckReport, options: ReportSvgOptions =
   const judged = report.mode === 'recorded-audio' ? 'the recorded audio the browser played' : 'an offline re-render of the script';
   const summary = `${report.sources.length - failed} of ${report.sources.length} sources pass · judged ${judged}`;
   out.push(`<text x="${margin.left}" y="24" font-size="16" font-weight="bold">${escapeXml(report.title)}</text>`);
-  out.push(`<text x="${margin.left}" y="44" fill="#555555">${escapeXml(summary)} — black: expected, grey: ±p95 limit, dashed blue: heard, shading: not judged</text>`);
-  report.sources.forEach((s, i) => sourcePanel(s, { top: HEADER_HEIGHT + i * PANEL_HEIGHT, height: PANEL_HEIGHT, width, t0, t1 }, report.limits, out));
+  out.push(`<text x="${margin.left}" y="44" fill="#555555">${escapeXml(summary)} — black: expected, grey: ±p95 limit (${figure(report.limits.p95Cents, 1)} ¢), red dashes: ±max limit (${figure(report.limits.maxCents, 1)} ¢), blue: heard, shading: not judged</text>`);
+  report.sources.forEach((s, i) => sourcePanel(s, { top: HEADER_HEIGHT + i * panel, height: PANEL_HEIGHT, width, t0, t1 }, report.limits, out));
   if (report.timeScale) {
-    const f = { top: HEADER_HEIGHT + report.sources.length * PANEL_HEIGHT, height: STRIP_HEIGHT, width, t0, t1 };
+    const f = { top: HEADER_HEIGHT + report.sources.length * panel, height: STRIP_HEIGHT, width, t0, t1 };
     const [, top] = range([report.timeScale.values], 0);
     out.push('<g class="time-scale">');
     const y = valueAxis({ ...f, top: f.top - 20 }, 0, Math.max(1, top), 'time scale', out);
