@@ -1,9 +1,9 @@
 // Separates one source from a mix: a band-pass that follows the expected fundamental (RBJ audio-EQ cookbook band-pass,
-// constant 0 dB peak gain, docs/references.md §4), coefficients redesigned every 32 samples, run forward then
-// backward so it adds no delay (zero-phase filtering, common practice).
+// constant 0 dB peak gain, docs/references.md §4), two sections in series, coefficients redesigned every 32 samples,
+// run forward then backward so it adds no delay (zero-phase filtering, common practice).
 
 /** Filters `signal` (at `sampleRate`) in place around centreHz(i) (Hz at sample i; NaN keeps the last centre), quality q. */
-export function followBand(signal: Float32Array, sampleRate: number, centreHz: (i: number) => number, q = 3): Float32Array {
+export function followBand(signal: Float32Array, sampleRate: number, centreHz: (i: number) => number, q = 6): Float32Array {
   const n = signal.length;
   const coeff = new Float64Array(5);
   const design = (f: number): void => {
@@ -39,6 +39,8 @@ export function followBand(signal: Float32Array, sampleRate: number, centreHz: (
     }
   };
   pass(true);
+  pass(true);
+  pass(false);
   pass(false);
   return signal;
 }

@@ -90,7 +90,7 @@ export interface JudgedSource {
 }
 
 const OVERLAP_CENTS = 350;
-/** A jump of the expected pitch within 1 ms beyond its neighbours' change that counts as a step, cents. */
+/** Smallest jump of the expected pitch within 1 ms, beyond its neighbours' change, that counts as a step (or the p95 limit if larger), cents. */
 const STEP_CENTS = 2;
 /** Frames this close to a step are not judged: one frame interval of a 60 Hz game, s. */
 const STEP_GUARD_SECONDS = 1 / 60;
@@ -124,12 +124,13 @@ export function judgeSource(input: JudgeInput): JudgedSource {
   // STEP_CENTS within one grid interval beyond what its neighbours change. No renderer that is fed the path at a
   // game's frame rate can follow such a step within a frame interval, so frames near one are listed, not judged.
   const stepCount = new Int32Array(g.length + 1);
+  const stepCents = Math.max(STEP_CENTS, input.limits.p95Cents);
   for (let i = 0; i < g.length; i++) {
     let step = 0;
     if (i >= 2 && i + 2 < g.length && g[i - 2] > 0 && g[i + 2] > 0 && g[i] > 0 && g[i + 1] > 0 && g[i - 1] > 0) {
       const d = cents(g[i + 1], g[i]);
       const around = 0.5 * (cents(g[i], g[i - 1]) + cents(g[i + 2], g[i + 1]));
-      step = Math.abs(d - around) > STEP_CENTS ? 1 : 0;
+      step = Math.abs(d - around) > stepCents ? 1 : 0;
     }
     stepCount[i + 1] = stepCount[i] + step;
   }
