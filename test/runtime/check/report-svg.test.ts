@@ -131,7 +131,7 @@ describe('report helpers', () => {
       await writeReport(join(dir, 'r.png'), sampleReport());
       expect(readFileSync(join(dir, 'r.svg'), 'utf8').startsWith('<svg')).toBe(true);
       expect(readFileSync(join(dir, 'r.html'), 'utf8').startsWith('<!doctype html>')).toBe(true);
-      // PNG signature (ISO/IEC 15948 §5.2: 137 80 78 71 13 10 26 10), then the IHDR width and height in pixels.
+      // PNG signature and the IHDR width in pixels (ISO/IEC 15948 §5.2; docs/references.md §14c).
       const png = readFileSync(join(dir, 'r.png'));
       expect(Array.from(png.subarray(0, 8))).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
       expect(png.readUInt32BE(16)).toBe(960);
