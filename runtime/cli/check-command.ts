@@ -64,6 +64,9 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
     throw e;
   }
   const audio = audioPath ? readWavFile(audioPath) : null;
+  if (audio && audio.channels[0].length < 0.5 * loaded.script.duration * audio.sampleRate) {
+    throw new CliError(`${audioPath}: holds ${(audio.channels[0].length / audio.sampleRate).toFixed(2)} s of audio for a ${loaded.script.duration.toFixed(2)} s script; record the audio with the script`, EXIT.input);
+  }
   const tonal = loaded.script.voices.filter((v) => loaded.sounds[v.sound].frequency !== null).length;
   if (tonal === 0) throw new CliError(`${scenePath}: no voice plays a tone or hum sound, so there is no pitch to check (noise and WAV sounds are not checked)`, EXIT.input);
   const bar = p.options.has('quiet') ? null : progressBar(io, 'checking');

@@ -62,11 +62,11 @@ export class AudioCapture {
     this.pageAtContextZero = pageNow - this.context.currentTime;
     const node = new AudioWorkletNode(this.context, CAPTURE_PROCESSOR_NAME, { numberOfInputs: 1, numberOfOutputs: 1, outputChannelCount: [1], channelCount: 2, channelCountMode: 'explicit' });
     node.port.onmessage = (event: MessageEvent<CaptureReport>) => this.receive(event.data);
+    this.node = node;
     for (let i = 0; i < this.inFlight; i++) this.lend(new Float32Array(CAPTURE_CHUNK_FRAMES), new Float32Array(CAPTURE_CHUNK_FRAMES));
     this.source.connect(node);
     // The node outputs silence; connecting it keeps the audio thread pulling it.
     node.connect(this.context.destination);
-    this.node = node;
   }
 
   private lend(left: Float32Array, right: Float32Array): void {
