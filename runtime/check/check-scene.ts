@@ -83,6 +83,12 @@ function tonalVoices(scene: CheckableScene): Tonal[] {
   return out;
 }
 
+/** The gain of a voice's sound spec (tones and hums), 1 otherwise. */
+function soundGain(scene: CheckableScene, voice: number): number {
+  const spec = scene.script.sounds[scene.script.voices[voice].sound];
+  return spec && 'gain' in spec ? spec.gain : 1;
+}
+
 function expectedHz(e: ExpectedVoice): (t: number) => number {
   return (t) => e.at(t).hz;
 }
@@ -137,7 +143,7 @@ export function checkScene(scene: CheckableScene, options: CheckOptions = {}): C
 /**
  * Judges recorded audio (the mix the browser played, time 0 = the script's time 0) against the script (mode
  * 'recorded-audio'): each tonal voice through a band that follows its expected pitch; frames where another voice's
- * harmonics come within 350 cents of it are left unjudged as overlap.
+ * harmonic can disturb that band (judge-source.ts) are left unjudged as overlap.
  */
 export function checkAudio(scene: CheckableScene, audio: { sampleRate: number; channels: readonly Float32Array[] }, options: CheckOptions = {}): CheckResult {
   const limits = { ...checkLimitDefaults, ...options.limits };
@@ -145,13 +151,14 @@ export function checkAudio(scene: CheckableScene, audio: { sampleRate: number; c
   const mix = mono(audio.channels);
   const sources: CheckedSource[] = tonal.map((v, k) => {
     options.onProgress?.(k / tonal.length);
-    const others = tonal.filter((o) => o !== v).map((o) => ({ expectedHz: expectedHz(o.expected), harmonics: o.partials.length }));
+    const others = tonal.filter((o) => o !== v).map((o) => ({ expectedHz: expectedHz(o.expected), partials: o.partials, levelAt: (t: number) => o.expected.gainAt(t) * soundGain(scene, o.index) }));
     const judged = judgeSource({
       name: v.name,
       audio: mix,
       sampleRate: audio.sampleRate,
       expectedHz: expectedHz(v.expected),
       partials: v.partials,
+      levelAt: (t: number) => v.expected.gainAt(t) * soundGain(scene, v.index),
       others,
       closestApproach: v.expected.closestApproach(scene.script.duration)?.time ?? null,
       limits,

@@ -259,7 +259,7 @@ export function renderReportSvg(report: CheckReport, options: ReportSvgOptions =
   const judged = report.mode === 'recorded-audio' ? 'the recorded audio the browser played' : 'an offline re-render of the script';
   const summary = `${report.sources.length - failed} of ${report.sources.length} sources pass · judged ${judged}`;
   out.push(`<text x="${margin.left}" y="24" font-size="16" font-weight="bold">${escapeXml(report.title)}</text>`);
-  out.push(`<text x="${margin.left}" y="44" fill="#555555">${escapeXml(summary)} — black: expected, grey: ±p95 limit (${figure(report.limits.p95Cents, 1)} ¢), red dashes: ±max limit (${figure(report.limits.maxCents, 1)} ¢), blue: heard, shading: not judged</text>`);
+  out.push(`<text x="${margin.left}" y="44" fill="#555555">${escapeXml(summary)} · black expected · blue heard · grey ±${figure(report.limits.p95Cents, 1)} ¢ (p95) · red ±${figure(report.limits.maxCents, 1)} ¢ (max) · shaded: not judged</text>`);
   report.sources.forEach((s, i) => sourcePanel(s, { top: HEADER_HEIGHT + i * panel, height: PANEL_HEIGHT, width, t0, t1 }, report.limits, out));
   if (report.timeScale) {
     const f = { top: HEADER_HEIGHT + report.sources.length * panel, height: STRIP_HEIGHT, width, t0, t1 };

@@ -66,6 +66,9 @@ export class ExpectedVoice {
   private readonly factor: number;
   private readonly maxShift: number;
   private readonly gameClock: boolean;
+  private readonly level: CheckCurve;
+  private readonly exempt: boolean;
+  private readonly distance: Tuning['distance'];
   private readonly L: Vec = { x: 0, y: 0, z: 0 };
   private readonly vL: Vec = { x: 0, y: 0, z: 0 };
   private readonly S: Vec = { x: 0, y: 0, z: 0 };
@@ -80,6 +83,9 @@ export class ExpectedVoice {
   ) {
     const group = tuning.groups[voice.group ?? DEFAULT_GROUP] ?? tuning.groups[DEFAULT_GROUP];
     this.pitch = new CheckCurve(group.pitch);
+    this.level = new CheckCurve(group.level);
+    this.exempt = group.policy === 'exempt';
+    this.distance = tuning.distance;
     this.followsTime = group.policy === 'follow-time';
     this.emittedHz = fundamentalHz * voice.ratio;
     this.clock = new TimeScaleTrack(script.timeScale, script.duration);
@@ -140,6 +146,30 @@ export class ExpectedVoice {
     const den = this.c - vss;
     if (den <= 0) return num <= 0 ? 0 : Infinity;
     return num > 0 ? cents(num / den) : -Infinity;
+  }
+
+  /**
+   * Rough amplitude of the voice at the listener at time t (linear, before panning): its gain, the group's level
+   * curve at the time scale (except for exempt groups), and the Web Audio distance model of the tuning
+   * (docs/references.md §5). Used only to tell which other voices can disturb a voice's band in a mix.
+   */
+  gainAt(t: number): number {
+    const groupDb = this.exempt ? 0 : this.level.valueAt(this.clock.valueAt(t));
+    let g = this.voice.gain * 10 ** (groupDb / 20);
+    if (this.source !== null) {
+      this.listener.at(t, this.L, this.vL);
+      this.source.at(t, this.S, this.vS);
+      const d = Math.hypot(this.L.x - this.S.x, this.L.y - this.S.y, this.L.z - this.S.z);
+      const { model, refDistance: ref, maxDistance: max, rolloffFactor: f } = this.distance;
+      if (model === 'linear') {
+        const lo = Math.min(ref, max);
+        const hi = Math.max(ref, max);
+        g *= hi === lo ? 1 - f : 1 - (f * (Math.min(Math.max(d, lo), hi) - lo)) / (hi - lo);
+      } else if (ref <= 0) g = 0;
+      else if (model === 'inverse') g *= ref / (ref + f * (Math.max(d, ref) - ref));
+      else g *= (Math.max(d, ref) / ref) ** -f;
+    }
+    return Math.max(0, g);
   }
 
   /**

@@ -43,8 +43,10 @@ export interface JudgeInput {
   expectedHz: (t: number) => number;
   /** Relative amplitudes of the source's harmonics (a tone: [1]). */
   partials: readonly number[];
-  /** Other sources in the same audio (a mix): their expected fundamentals and harmonic counts; empty for a stem. */
-  others: readonly { expectedHz: (t: number) => number; harmonics: number }[];
+  /** Amplitude of this source's fundamental at the listener at time t (linear; only compared with the others'). */
+  levelAt?: (t: number) => number;
+  /** Other sources in the same audio (a mix): expected fundamentals, partial amplitudes and levels; empty for a stem. */
+  others: readonly { expectedHz: (t: number) => number; partials: readonly number[]; levelAt?: (t: number) => number }[];
   /** Reception time of closest approach, s, or null for a source without one. */
   closestApproach: number | null;
   limits: CheckLimits;
@@ -89,7 +91,14 @@ export interface JudgedSource {
   failures: string[];
 }
 
-const OVERLAP_CENTS = 350;
+/** Beyond this distance from a fundamental, another voice's harmonic never counts as overlap, cents. */
+const OVERLAP_CENTS = 700;
+/** Within this distance it always does, cents. */
+const OVERLAP_NEAR_CENTS = 120;
+/** Between the two: overlap when it is less than this far below the fundamental after the band filter, dB. */
+const OVERLAP_DB = 30;
+/** Quality of the band follower's sections (band-follower.ts default). */
+const BAND_Q = 6;
 /** Smallest jump of the expected pitch within 1 ms, beyond its neighbours' change, that counts as a step (or the p95 limit if larger), cents. */
 const STEP_CENTS = 2;
 /** Frames this close to a step are not judged: one frame interval of a 60 Hz game, s. */
@@ -194,7 +203,7 @@ export function judgeSource(input: JudgeInput): JudgedSource {
     let why: UnjudgedReason | 'judged' = 'judged';
     if (f < minHz * 1.05 || f > maxHz / 1.05) why = 'range';
     else if (stepsIn(o / sr - STEP_GUARD_SECONDS, (o + span) / sr + STEP_GUARD_SECONDS)) why = 'path-step';
-    else if (input.others.some((s) => overlaps(f, s.expectedHz(t), s.harmonics))) why = 'overlap';
+    else if (input.others.some((s) => overlaps(f, input.levelAt?.(t) ?? 1, input.partials, s.expectedHz(t), s.partials, s.levelAt?.(t) ?? 1))) why = 'overlap';
     else if (levels[i] < floor) why = 'level';
     else if (!(heardTrack.frequencies[i] > 0)) why = 'unvoiced';
     else if (!(refTrack.frequencies[i] > 0)) why = 'range';
@@ -204,10 +213,25 @@ export function judgeSource(input: JudgeInput): JudgedSource {
   return verdict(input, times, expected, heardTrack.frequencies.slice(0, frames), errors, reasons, hop);
 }
 
-function overlaps(f: number, other: number, harmonics: number): boolean {
+/**
+ * Whether another voice's harmonic can disturb this voice's fundamental f: within OVERLAP_NEAR_CENTS always; otherwise
+ * when, after the band-follower's attenuation (four RBJ band-pass passes, Q = 6), it comes within OVERLAP_DB of the
+ * fundamental. Levels: the voices' amplitudes at the listener times their partials' shares.
+ */
+function overlaps(f: number, level: number, partials: readonly number[], other: number, otherPartials: readonly number[], otherLevel: number): boolean {
   if (!(other > 0)) return false;
-  for (let k = 1; k <= harmonics; k++) if (Math.abs(cents(other * k, f)) < OVERLAP_CENTS) return true;
-  // This source's own harmonics landing on the other's fundamental do not disturb this fundamental's band.
+  const own = (level * partials[0]) / partials.reduce((a, b) => a + b, 0);
+  const sum = otherPartials.reduce((a, b) => a + b, 0) || 1;
+  for (let k = 1; k <= otherPartials.length; k++) {
+    const c = Math.abs(cents(other * k, f));
+    if (c > OVERLAP_CENTS) continue;
+    if (c < OVERLAP_NEAR_CENTS) return true;
+    const r = 2 ** (c / 1200);
+    const x = BAND_Q * (r - 1 / r);
+    const attenuationDb = 4 * 10 * Math.log10(1 + x * x);
+    const theirs = (otherLevel * otherPartials[k - 1]) / sum;
+    if (theirs > 0 && 20 * Math.log10(theirs / Math.max(own, 1e-12)) - attenuationDb > -OVERLAP_DB) return true;
+  }
   return false;
 }
 
