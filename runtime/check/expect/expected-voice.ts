@@ -21,16 +21,15 @@ export const GAME_CLOCK_FLOOR = 0.05;
 const MODELS: readonly string[] = ['propagation', 'instant', 'off'];
 
 /**
- * The Doppler model a tuning asks for in `groupName` (unknown groups use the default group): a per-group
- * 'propagation' | 'instant' | 'off' switch when the tuning has one (`doppler` as a string, or `dopplerModel`), else a
- * tuning-wide `doppler.model`, else 'instant' for `doppler: true` (the tuning format before the switch) and 'off' for false.
+ * The Doppler model a tuning asks for in `groupName` (unknown groups use the default group): `doppler: false` or a
+ * Doppler factor of 0 is 'off'; otherwise the group's `motion` switch ('propagation' | 'instant' | 'off') when the
+ * tuning has one (the propagation engine's tuning format), else a string `doppler` or `dopplerModel`, else a tuning-wide
+ * `doppler.model`, else 'instant' — the only model of the engine before the switch existed.
  */
 export function dopplerModelOf(tuning: Tuning, groupName: string | null | undefined): DopplerModel {
   const group = (tuning.groups[groupName ?? DEFAULT_GROUP] ?? tuning.groups[DEFAULT_GROUP]) as unknown as Record<string, unknown> | undefined;
-  if (!group || !(tuning.doppler.factor > 0)) return 'off';
-  const own = typeof group.doppler === 'string' ? group.doppler : group.dopplerModel;
-  if (typeof own === 'string' && MODELS.includes(own)) return own as DopplerModel;
-  if (group.doppler === false) return 'off';
+  if (!group || !(tuning.doppler.factor > 0) || group.doppler === false) return 'off';
+  for (const own of [group.motion, group.doppler, group.dopplerModel]) if (typeof own === 'string' && MODELS.includes(own)) return own as DopplerModel;
   const global = (tuning.doppler as unknown as Record<string, unknown>).model;
   return typeof global === 'string' && MODELS.includes(global) ? (global as DopplerModel) : 'instant';
 }

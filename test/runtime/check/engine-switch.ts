@@ -15,8 +15,11 @@ export function engineTuning(t: Tuning): Tuning {
   return { ...t, doppler: { ...t.doppler, smoothingSeconds: 0 }, smoothing: { ...t.smoothing, ratioSeconds: 0 } };
 }
 
-/** `t` with group `group`'s Doppler model switch set (the per-group switch of the propagation tuning). */
+/**
+ * `t` with group `group`'s motion switch set (`motion: 'propagation' | 'instant' | 'off'`, the per-group switch of the
+ * propagation engine's tuning). Before that engine lands the field is unknown to the tuning types and the engine
+ * ignores it (it renders same-instant Doppler); the checker reads it either way.
+ */
 export function withDopplerModel(t: Tuning, group: string, model: 'propagation' | 'instant' | 'off'): Tuning {
-  // Before the switch exists in the tuning types the field is a boolean; the checker reads a string there too.
-  return { ...t, groups: { ...t.groups, [group]: { ...t.groups[group], doppler: model as unknown as boolean } } };
+  return { ...t, groups: { ...t.groups, [group]: { ...t.groups[group], motion: model } as Tuning['groups'][string] } };
 }
