@@ -132,6 +132,7 @@ export function checkScene(scene: CheckableScene, options: CheckOptions = {}): C
       expectedHz: expectedHz(v.expected),
       partials: v.partials,
       others: [],
+      jumps: v.expected.jumpWindows(1 / 60),
       closestApproach: v.expected.closestApproach(scene.script.duration)?.time ?? null,
       limits,
     });
@@ -160,6 +161,7 @@ export function checkAudio(scene: CheckableScene, audio: { sampleRate: number; c
       partials: v.partials,
       levelAt: (t: number) => v.expected.gainAt(t) * soundGain(scene, v.index),
       others,
+      jumps: v.expected.jumpWindows(1 / 60),
       closestApproach: v.expected.closestApproach(scene.script.duration)?.time ?? null,
       limits,
     });

@@ -4,7 +4,7 @@
 // and the tuning's maximum shift. Nothing here is taken from the engine; smoothing or lag is never expected.
 import type { Tuning } from '../../../src/tuning';
 import { DEFAULT_GROUP } from '../../../src/tuning';
-import type { SceneScript, VoiceSpec } from '../../offline/scene-types';
+import type { MotionSpec, SceneScript, VoiceSpec } from '../../offline/scene-types';
 import { CheckCurve } from './check-curve';
 import { CheckPath, type Vec } from './check-path';
 import { EmissionSolver } from './emission-time';
@@ -61,6 +61,8 @@ export class ExpectedVoice {
   private readonly listener: CheckPath;
   private readonly source: CheckPath | null;
   private readonly solver: EmissionSolver | null;
+  private readonly sourceMotion: MotionSpec | null;
+  private readonly listenerMotion: MotionSpec;
   private readonly c: number;
   private readonly factor: number;
   private readonly maxShift: number;
@@ -90,6 +92,8 @@ export class ExpectedVoice {
     this.clock = new TimeScaleTrack(script.timeScale, script.duration);
     this.listener = new CheckPath(script.listener.motion);
     this.source = voice.source === null ? null : new CheckPath(script.sources[voice.source].motion);
+    this.sourceMotion = voice.source === null ? null : script.sources[voice.source].motion;
+    this.listenerMotion = script.listener.motion;
     this.model = this.source === null ? 'off' : dopplerModelOf(tuning, voice.group);
     this.factor = tuning.doppler.factor;
     // A Doppler factor DF scales the effect as a speed of sound c/DF would (OpenAL 1.1 §3.5.2 algebra).
@@ -172,6 +176,27 @@ export class ExpectedVoice {
   }
 
   /**
+   * Reception-time windows (s) around the jumps (cut keys) of the source's and the listener's paths: from the jump to
+   * the arrival of sound from both sides of it (distance ÷ c after the jump in 'propagation'), widened by `guard` s.
+   * What a renderer plays across a teleport is not defined by physics, so these frames are listed, not judged.
+   */
+  jumpWindows(guard: number): { from: number; to: number }[] {
+    if (this.source === null || this.model === 'off') return [];
+    const cuts = [...cutTimes(this.sourceMotion), ...cutTimes(this.listenerMotion)];
+    return cuts.map((T) => {
+      let reach = 0;
+      if (this.model === 'propagation') {
+        for (const t of [T - 1e-6, T + 1e-6]) {
+          this.listener.at(t, this.L, this.vL);
+          this.source!.at(t, this.S, this.vS);
+          reach = Math.max(reach, Math.hypot(this.L.x - this.S.x, this.L.y - this.S.y, this.L.z - this.S.z) / (this.c * Math.max(this.clock.valueAt(T), GAME_CLOCK_FLOOR)));
+        }
+      }
+      return { from: T - guard, to: T + reach + guard };
+    });
+  }
+
+  /**
    * Closest approach of the source to the listener as heard: reception time (s) of the sound emitted at the
    * moment of least distance (searched on a 5 ms grid, then refined), and that distance (m); null for no source.
    */
@@ -201,4 +226,9 @@ export class ExpectedVoice {
     const delay = this.model === 'propagation' ? d / this.c : 0;
     return { time: t + delay, distance: d };
   }
+}
+
+/** Times (s) of the cut keys (jumps) of a keyframed path. */
+function cutTimes(m: MotionSpec | null): number[] {
+  return m && m.type === 'keyframes' ? m.keys.filter((k) => k.cut === true).map((k) => k.time) : [];
 }

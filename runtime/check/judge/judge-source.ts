@@ -48,6 +48,8 @@ export interface JudgeInput {
   levelAt?: (t: number) => number;
   /** Other sources in the same audio (a mix): expected fundamentals, partial amplitudes and levels; empty for a stem. */
   others: readonly { expectedHz: (t: number) => number; partials: readonly number[]; levelAt?: (t: number) => number }[];
+  /** Windows (s) not to judge because the path jumps there (listed as 'path-step'). */
+  jumps?: readonly { from: number; to: number }[];
   /** Reception time of closest approach, s, or null for a source without one. */
   closestApproach: number | null;
   limits: CheckLimits;
@@ -204,6 +206,7 @@ export function judgeSource(input: JudgeInput): JudgedSource {
     let why: UnjudgedReason | 'judged' = 'judged';
     if (f < minHz * 1.05 || f > maxHz / 1.05) why = 'range';
     else if (stepsIn(o / sr - STEP_GUARD_SECONDS, (o + span) / sr + STEP_GUARD_SECONDS)) why = 'path-step';
+    else if (input.jumps?.some((j) => j.from <= (o + span) / sr && j.to >= o / sr)) why = 'path-step';
     else if (input.others.some((s) => overlaps(f, input.levelAt?.(t) ?? 1, input.partials, s.expectedHz(t), s.partials, s.levelAt?.(t) ?? 1))) why = 'overlap';
     else if (levels[i] < floor) why = 'level';
     else if (!(heardTrack.frequencies[i] > 0)) why = 'unvoiced';
