@@ -1,8 +1,8 @@
 // File helpers of the command-line tool: inputs and outputs compared by device and inode (not only by name), WAV
 // files read block by block, and outputs written to a temporary file in their folder then renamed into place.
-import { closeSync, fstatSync, openSync, readSync, realpathSync, renameSync, statSync, unlinkSync, writeSync, constants } from 'node:fs';
+import { closeSync, fstatSync, readFileSync, openSync, readSync, realpathSync, renameSync, statSync, unlinkSync, writeSync, constants } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
-import { parseWavLayout, decodeFrames, WavError, type WavLayout, type SampleCounts } from '../offline';
+import { parseWavLayout, decodeFrames, readWav, WavError, type WavAudio, type WavLayout, type SampleCounts } from '../offline';
 import { CliError, EXIT } from './cli-io';
 
 /** Device and inode of an existing file (links followed), or null when nothing is there. */
@@ -190,4 +190,20 @@ function writeError(path: string, e: unknown): CliError {
 /** A level in dBFS with one decimal ('−inf' for silence). */
 export function formatDb(db: number): string {
   return Number.isFinite(db) ? `${db.toFixed(1)} dBFS` : '-inf dBFS';
+}
+
+/** Reads a whole WAV file (a bounded recording, for `check --audio`); unreadable or malformed files are input errors. */
+export function readWavFile(path: string): WavAudio {
+  let bytes: Uint8Array;
+  try {
+    bytes = readFileSync(path);
+  } catch (e) {
+    throw readError(path, e);
+  }
+  try {
+    return readWav(bytes);
+  } catch (e) {
+    if (e instanceof WavError) throw new CliError(`${path}: ${e.message}`, EXIT.input);
+    throw e;
+  }
 }
