@@ -18,3 +18,6 @@ export { resample, qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, Kerne
 export { wasmSimdSupported, activeKernel } from './dsp';
 export type { KernelName, KernelPreference } from './dsp';
 export type { ResampleOptions, StreamReaderOptions, StreamSourceOptions, KernelTableOptions, TierDesign, BiquadLowpassOptions, OnePoleSmootherOptions } from './dsp';
+// Time-scale modification (WSOLA grains read by the band-limited resampler).
+export { StretchReader, stretchReaderDefaults } from './stretch';
+export type { StretchReaderOptions } from './stretch';
