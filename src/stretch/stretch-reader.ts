@@ -35,7 +35,7 @@ export class StretchReader {
   readonly toleranceFrames: number;
   private readonly readers: [StreamReader, StreamReader];
   private readonly grains: [Float32Array[], Float32Array[]];
-  private readonly window: Float32Array;
+  private readonly hann: Float32Array;
   private readonly search: SimilaritySearch;
   private sources: Float32Array[] = [];
   private channelsInUse = 0;
@@ -62,8 +62,8 @@ export class StretchReader {
     const bufs = (): Float32Array[] => Array.from({ length: channels }, () => new Float32Array(this.hopFrames));
     this.grains = [bufs(), bufs()];
     const n = 2 * this.hopFrames;
-    this.window = new Float32Array(n);
-    for (let j = 0; j < n; j++) this.window[j] = 0.5 - 0.5 * Math.cos((2 * Math.PI * j) / n);
+    this.hann = new Float32Array(n);
+    for (let j = 0; j < n; j++) this.hann[j] = 0.5 - 0.5 * Math.cos((2 * Math.PI * j) / n);
     this.search = new SimilaritySearch(this.hopFrames, Math.max(1, this.toleranceFrames));
   }
 
@@ -130,7 +130,7 @@ export class StretchReader {
     const ps = this.pitch(pitchStart);
     const dp = this.pitch(pitchEnd) - ps;
     const hop = this.hopFrames;
-    const w = this.window;
+    const w = this.hann;
     const chans = Math.min(out.length, this.channelsInUse);
     let done = 0;
     while (done < frames) {
