@@ -11,6 +11,7 @@ import { MasterBus } from './master-bus';
 import { KernelResidency } from './kernel-residency';
 import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
+import { StretchBank } from './stretch-stage';
 import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
 
 /** Frozen defaults of the engine's options and fades. */
@@ -19,6 +20,8 @@ export const engineDefaults = Object.freeze({
   maxSounds: 256,
   maxBlockFrames: 128,
   maxSources: 256,
+  /** Voices of 'stretch' groups that can play at once (more play tape-style, counted in clamps). */
+  maxStretchVoices: 32,
   /** Default fade-in of a voice, s. */
   fadeInSeconds: 0.003,
   /** Default fade-out of `stop`, s. */
@@ -44,6 +47,7 @@ export class Engine {
   private readonly mapper: TargetMapper;
   private readonly bus: MasterBus;
   private readonly scratch: VoiceScratch;
+  private readonly stretches: StretchBank;
   /** Module-memory bookkeeping when the voices run on the WebAssembly kernel, else null (TypeScript kernel). */
   private readonly resident: KernelResidency | null;
   private readonly input: VoiceInput;
@@ -73,6 +77,8 @@ export class Engine {
       v.index = i;
       this.voices.push(v);
     }
+    const stretchCount = checkRange('maxStretchVoices', options.maxStretchVoices ?? engineDefaults.maxStretchVoices, 0, 1024);
+    this.stretches = new StretchBank(stretchCount, table, sr, t.smoothing.ratioSeconds, options.kernel ?? 'auto');
     this.pool = new VoicePool({ voices: this.voices, capacity: this.capacity, bank: this.bank });
     const buf = () => new Float32Array(this.maxBlock);
     const stereo = [buf(), buf()];
@@ -172,7 +178,14 @@ export class Engine {
     v.releaseStep = v.fadeStep(engineDefaults.stopFadeSeconds);
     copyTargets(this.probe, v.targets);
     const offset = clampNumber((options.offsetSeconds ?? 0) * rate, 0, this.bank.frames[slot], 0);
-    v.reader.setSource(this.bank.channels[slot]!, { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset });
+    const from = { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset };
+    v.reader.setSource(this.bank.channels[slot]!, from);
+    v.stretch = null;
+    if (compiled.stretches) {
+      v.stretch = this.stretches.claim(v.index, this.voices);
+      if (v.stretch === null) this.engineClamps++; // every stage busy: this voice plays tape-style
+      else v.stretch.start(this.bank.channels[slot]!, from);
+    }
     this.bank.release(slot, 1);
     return this.pool.handleOf(v);
   }
@@ -199,6 +212,7 @@ export class Engine {
     this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
     const table = KernelTable.forTier(t.resampler.tier);
     const sm = this.smoothing(t);
+    this.stretches.configure(table, t.smoothing.ratioSeconds);
     for (const v of this.voices) {
       v.reader.setTable(table);
       v.setSmoothing(sm);
