@@ -2,8 +2,8 @@
 // ±tolerance whose segment best matches the natural continuation, by normalised cross-correlation, coarse on a
 // box-decimated copy, then refined at full rate around the coarse winner.
 
-/** Decimation factor of the coarse pass (samples per coarse step). */
-export const SEARCH_DECIMATION = 4;
+/** Effective sample rate of the coarse pass, Hz: its decimation is round(sampleRate ÷ this), at least 1. */
+export const SEARCH_COARSE_RATE = 6000;
 
 /** Preallocated buffers and the search itself; never allocates after construction. */
 export class SimilaritySearch {
@@ -15,17 +15,21 @@ export class SimilaritySearch {
   readonly target: Float32Array;
   /** The candidate region (filled by the caller, 2·tolerance + compare samples, starting at offset −tolerance). */
   readonly region: Float32Array;
+  /** Samples per coarse step (box-sum length). */
+  readonly decimation: number;
   private readonly targetCoarse: Float32Array;
   private readonly regionCoarse: Float32Array;
 
-  /** Buffers for segments of up to `maxCompare` samples and offsets up to ±`maxTolerance` samples (both ≥ 1). */
-  constructor(maxCompare: number, maxTolerance: number) {
+  /** Buffers for segments of up to `maxCompare` samples and offsets up to ±`maxTolerance` samples (both ≥ 1) at `sampleRate` Hz. */
+  constructor(maxCompare: number, maxTolerance: number, sampleRate: number) {
     this.maxCompare = Math.max(1, Math.floor(maxCompare));
     this.maxTolerance = Math.max(1, Math.floor(maxTolerance));
+    this.decimation = Math.max(1, Math.round(sampleRate / SEARCH_COARSE_RATE));
+    const D = this.decimation;
     this.target = new Float32Array(this.maxCompare);
-    this.region = new Float32Array(2 * this.maxTolerance + this.maxCompare + SEARCH_DECIMATION);
-    this.targetCoarse = new Float32Array(Math.ceil(this.maxCompare / SEARCH_DECIMATION) + 1);
-    this.regionCoarse = new Float32Array(Math.ceil(this.region.length / SEARCH_DECIMATION) + 1);
+    this.region = new Float32Array(2 * this.maxTolerance + this.maxCompare + D);
+    this.targetCoarse = new Float32Array(Math.ceil(this.maxCompare / D) + 1);
+    this.regionCoarse = new Float32Array(Math.ceil(this.region.length / D) + 1);
   }
 
   /**
@@ -36,7 +40,7 @@ export class SimilaritySearch {
     const n = compare < this.maxCompare ? compare : this.maxCompare;
     const tol = tolerance < this.maxTolerance ? tolerance : this.maxTolerance;
     if (tol <= 0 || n <= 0) return 0;
-    const D = SEARCH_DECIMATION;
+    const D = this.decimation;
     const t = this.target;
     const r = this.region;
     // Coarse pass: box sums of D samples, lags in steps of D.
@@ -44,17 +48,11 @@ export class SimilaritySearch {
     const lc = Math.floor(tol / D);
     const tc = this.targetCoarse;
     const rc = this.regionCoarse;
-    for (let m = 0; m < nc; m++) {
-      const b = m * D;
-      tc[m] = t[b] + t[b + 1] + t[b + 2] + t[b + 3];
-    }
+    boxSums(t, 0, D, nc, tc);
     // Region index of lag 0 is `tol`; coarse region starts at tol − lc·D so that coarse lag 0 is full-rate lag 0.
     const base = tol - lc * D;
     const rcLen = 2 * lc + nc;
-    for (let m = 0; m < rcLen; m++) {
-      const b = base + m * D;
-      rc[m] = r[b] + r[b + 1] + r[b + 2] + r[b + 3];
-    }
+    boxSums(r, base, D, rcLen, rc);
     let bestCoarse = 0;
     let bestScore = scoreAt(tc, rc, lc, nc);
     for (let k = 1; k <= lc; k++) {
@@ -69,10 +67,11 @@ export class SimilaritySearch {
         bestCoarse = -k;
       }
     }
-    // Fine pass: ±(D − 1) around the coarse winner at full rate, staying within ±tol; offset 0 first when in range.
+    // Fine pass: ±⌈D/2⌉ around the coarse winner at full rate, staying within ±tol; offset 0 first when in range.
     const centre = bestCoarse * D;
-    let lo = centre - (D - 1);
-    let hi = centre + (D - 1);
+    const reach = (D + 1) >> 1;
+    let lo = centre - reach;
+    let hi = centre + reach;
     if (lo < -tol) lo = -tol;
     if (hi > tol) hi = tol;
     let bestOffset = lo <= 0 && hi >= 0 ? 0 : centre;
@@ -86,6 +85,16 @@ export class SimilaritySearch {
       }
     }
     return bestOffset;
+  }
+}
+
+/** out[m] = Σ x[from + m·D + d] for d < D, m < count. */
+function boxSums(x: Float32Array, from: number, D: number, count: number, out: Float32Array): void {
+  for (let m = 0; m < count; m++) {
+    const b = from + m * D;
+    let s = 0;
+    for (let d = 0; d < D; d++) s += x[b + d];
+    out[m] = s;
   }
 }
 

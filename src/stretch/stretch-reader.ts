@@ -64,7 +64,7 @@ export class StretchReader {
     const n = 2 * this.hopFrames;
     this.hann = new Float32Array(n);
     for (let j = 0; j < n; j++) this.hann[j] = 0.5 - 0.5 * Math.cos((2 * Math.PI * j) / n);
-    this.search = new SimilaritySearch(this.hopFrames, Math.max(1, this.toleranceFrames));
+    this.search = new SimilaritySearch(this.hopFrames, Math.max(1, this.toleranceFrames), sr);
   }
 
   /** Switches the grain readers' kernel table. */
@@ -191,10 +191,11 @@ export class StretchReader {
     if (tol > 0 && this.sources.length > 0) {
       const compare = Math.min(this.search.maxCompare, Math.max(8, Math.round(hop * pitch)));
       this.fill(this.search.target, Math.round(cont), compare);
-      this.fill(this.search.region, Math.round(nominal) - tol, 2 * tol + compare + 4);
+      this.fill(this.search.region, Math.round(nominal) - tol, 2 * tol + compare + this.search.decimation);
       offset = this.search.best(compare, tol);
     }
-    this.readers[next].position = nominal + offset;
+    // At pitch ratio 1 the grain starts on a whole frame: its samples are copied, not interpolated (±0.5 frame).
+    this.readers[next].position = pitch === 1 ? Math.round(nominal) + offset : nominal + offset;
   }
 
   /** Copies `count` source frames from `start` (channels mixed, loop-wrapped or silent beyond the ends) into `dst`. */

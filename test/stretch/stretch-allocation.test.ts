@@ -23,7 +23,7 @@ describe('StretchReader block path', () => {
         else r.read(out, 0, 128, s, s * 1.1, p, p * 1.01);
       }
     };
-    blocks(1000);
+    blocks(3000); // warm-up long enough for the optimising compiler to settle on a loaded machine
     gc();
     const before = process.memoryUsage().heapUsed;
     blocks(4000);
