@@ -34,6 +34,9 @@ export function pitchErrorAgainstSource(x: Float32Array, y: Float32Array, sample
   return pitchErrorStats(expected, measured);
 }
 
+/** Dynamic range of the log-spectral distance, dB: band levels further below a frame's loudest band are floored. */
+export const FLOOR_DB = 60;
+
 /** Mel scale (O'Shaughnessy's formula, common practice): 2595·log10(1 + f/700). */
 function mel(f: number): number {
   return 2595 * Math.log10(1 + f / 700);
@@ -42,8 +45,8 @@ function mel(f: number): number {
 /**
  * Log-spectral distance on mel bands, dB: frames of ~43 ms (power of two), Hann window, hop a quarter frame,
  * 40 triangular mel bands from 60 Hz to min(8 kHz, Nyquist); output frame at time t against the input frame at
- * t·scale; per frame the RMS over bands of the difference of 10·log10 band powers (floor 1e-10); the mean over frames
- * whose input frame is within 40 dB of the loudest.
+ * t·scale; band powers in dB floored at 60 dB below the frame's loudest band (what lies further down is not compared);
+ * per frame the RMS over bands of the difference; the mean over frames whose input frame is within 40 dB of the loudest.
  */
 export function melLogSpectralDistance(x: Float32Array, y: Float32Array, sampleRate: number, scale: number): number {
   let n = 1024;
@@ -75,7 +78,12 @@ export function melLogSpectralDistance(x: Float32Array, y: Float32Array, sampleR
         out[b] += p * (f < c ? (f - l) / (c - l) : (r - f) / (r - c));
       }
     }
-    for (let b = 0; b < bands; b++) out[b] = 10 * Math.log10(out[b] + 1e-10);
+    let top = -Infinity;
+    for (let b = 0; b < bands; b++) {
+      out[b] = 10 * Math.log10(out[b] + 1e-10);
+      if (out[b] > top) top = out[b];
+    }
+    for (let b = 0; b < bands; b++) if (out[b] < top - FLOOR_DB) out[b] = top - FLOOR_DB;
     return total;
   };
   const ex = new Float64Array(bands);
