@@ -256,7 +256,7 @@ export class Engine {
       for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
     }
     const readerClamps = this.pool.count(st);
-    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.limiter.nonFinite + readerClamps;
+    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.limiter.nonFinite + readerClamps + this.stretches.clampCount;
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
     st.limiterDb = this.bus.limiter.reductionDb;

@@ -95,6 +95,13 @@ export class StretchBank {
     return null;
   }
 
+  /** Speeds and pitch ratios the stages clamped or replaced (added to stats.clamps). */
+  get clampCount(): number {
+    let n = 0;
+    for (let i = 0; i < this.stages.length; i++) n += this.stages[i].reader.clampCount;
+    return n;
+  }
+
   /** Switches every stage's kernel table and smoothing time constant (setTuning). */
   configure(table: KernelTable, ratioSeconds: Seconds): void {
     for (const s of this.stages) {

@@ -1,4 +1,4 @@
-// Checks of the WSOLA stretcher (src/stretch) on harmonic tones, espeak-ng speech and a click train, against
+// Checks of the WSOLA stretcher (src/stretch; docs/references.md §12) on harmonic tones, espeak-ng speech (§18) and a click train, against
 // closed forms written here and against the Rubber Band library's command-line tool (outside reference).
 import { describe, expect, it } from 'vitest';
 import { stretchOffline, espeakSpeech, harmonicBurst, audibleSpan, rubberBandStretch, hasTool } from './stretch-harness';
@@ -87,6 +87,7 @@ describe.runIf(speechAvailable)('StretchReader on espeak-ng speech', () => {
 });
 
 describe.runIf(rubberBandAvailable)('StretchReader against the Rubber Band library (rubberband-cli, default options)', () => {
+  // Outside reference: the Rubber Band library's command-line tool, docs/references.md §18; the distance is §12 on mel bands (§18).
   // Margin: ours may be at most 1 dB worse than the outside reference in mean mel log-spectral distance to the input.
   const MARGIN_DB = 1;
   const materials = [
