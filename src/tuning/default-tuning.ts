@@ -121,6 +121,21 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
       doppler: false,
       priority: 200,
     }),
+    radio: group({
+      // Slows with the time scale but keeps its pitch (docs/time-stretch.md): dialogue stays intelligible.
+      policy: 'stretch',
+      pitch: identityPitch,
+      stretchPitch: curve('linear', [[0, 0]]),
+      stretchFreeze: 'silence',
+      tone: curve('monotone', [
+        [0, 4000],
+        [0.35, 9000],
+        [1, 20000],
+      ]),
+      level: flatLevel,
+      doppler: true,
+      priority: 150,
+    }),
     music: group({
       policy: 'tone-only',
       pitch: unitPitch,
