@@ -80,6 +80,28 @@ export function rubberBandStretch(x: Float32Array, sampleRate: number, scale: nu
   }
 }
 
+/** Pitch track by aubio's YIN (Debian `aubio-tools`, `aubiopitch`): frame start times (s) and Hz (0 = none); 1024-frame windows, hop 128. */
+export function aubioPitch(x: Float32Array, sampleRate: number): { times: number[]; hz: number[] } {
+  const dir = mkdtempSync(join(tmpdir(), 'ralenti-aubio-'));
+  try {
+    const file = join(dir, 'in.wav');
+    writeFileSync(file, writeWav({ sampleRate, channels: [x], encoding: 'pcm16' }));
+    const text = execFileSync('aubiopitch', ['-i', file, '-p', 'yin', '-H', '128', '-B', '1024', '-s', '-50'], { encoding: 'utf8', stdio: ['ignore', 'pipe', 'ignore'] });
+    const times: number[] = [];
+    const hz: number[] = [];
+    for (const line of text.trim().split('\n')) {
+      const [t, f] = line.trim().split(/\s+/).map(Number);
+      if (Number.isFinite(t) && Number.isFinite(f)) {
+        times.push(t);
+        hz.push(f);
+      }
+    }
+    return { times, hz };
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
 /** A harmonic tone with a gentle vibrato-free 1 s body and 50 ms raised-cosine edges, padded with 0.1 s silence. */
 export function harmonicBurst(f0: number, sampleRate: number, seconds: number): Float32Array {
   const pad = Math.round(0.1 * sampleRate);

@@ -1,7 +1,8 @@
 // Checks of the WSOLA stretcher (src/stretch; docs/references.md §12) on harmonic tones, espeak-ng speech (§18) and a click train, against
 // closed forms written here and against the Rubber Band library's command-line tool (outside reference).
 import { describe, expect, it } from 'vitest';
-import { stretchOffline, espeakSpeech, harmonicBurst, audibleSpan, rubberBandStretch, hasTool } from './stretch-harness';
+import { stretchOffline, espeakSpeech, harmonicBurst, audibleSpan, rubberBandStretch, hasTool, aubioPitch } from './stretch-harness';
+import { pitchErrorStats } from '../../src/analysis';
 import { pitchErrorAgainstSource, melLogSpectralDistance, clickTrain, smearingMs } from './stretch-metrics';
 
 const TONE_F0 = 180;
@@ -83,6 +84,34 @@ describe.runIf(speechAvailable)('StretchReader on espeak-ng speech', () => {
       const [b0, b1] = audibleSpan(r.output, sampleRate);
       expect(Math.abs((b1 - b0) / (a1 - a0) / (1 / s) - 1)).toBeLessThanOrEqual(0.005);
     }
+  });
+});
+
+describe.runIf(hasTool('aubiopitch'))('StretchReader cross-checked with an outside pitch tracker (aubio YIN)', () => {
+  it.each([0.5, 0.25])('keeps every voiced frame of the harmonic tone within ±5 cents at time scale %s as aubio tracks it', (s) => {
+    const r = stretchOffline(tone, SR, () => s);
+    const a = aubioPitch(tone, SR);
+    const b = aubioPitch(r.output, SR);
+    const half = 512 / SR;
+    const at = (t: number) => a.hz[Math.max(0, Math.min(a.hz.length - 1, Math.round(t / (128 / SR))))];
+    const expected: number[] = [];
+    const measured: number[] = [];
+    for (let i = 0; i < b.times.length; i++) {
+      const k = Math.round((b.times[i] + half) * SR);
+      if (!(b.hz[i] > 0) || k >= r.positions.length) continue;
+      const f = at(r.positions[k] / SR - half);
+      // Steady frames only: the source's own track within 10 cents 20 ms either side (leaves out the edges).
+      const before = at(r.positions[k] / SR - half - 0.02);
+      const after = at(r.positions[k] / SR - half + 0.02);
+      if (!(f > 0 && before > 0 && after > 0)) continue;
+      if (Math.abs(1200 * Math.log2(before / f)) > 10 || Math.abs(1200 * Math.log2(after / f)) > 10) continue;
+      expected.push(f);
+      measured.push(b.hz[i]);
+    }
+    const err = pitchErrorStats(expected, measured);
+    // aubio, an outside implementation (docs/references.md §18); ±5 cents end to end: §10.
+    expect(err.count).toBeGreaterThan(300);
+    expect(err.maxCents).toBeLessThanOrEqual(5);
   });
 });
 
