@@ -35,7 +35,7 @@ function deepFreeze<T>(value: T): T {
 /** The built-in tuning (schema version 1), deeply frozen. */
 export const defaultTuning: Tuning = deepFreeze<Tuning>({
   version: TUNING_VERSION,
-  air: { temperatureCelsius: 20, speedOfSound: null },
+  air: { temperatureCelsius: 20, speedOfSound: null, relativeHumidity: 50, pressureKilopascals: 101.325 },
   doppler: {
     factor: 1,
     maxShiftCents: 1200,
@@ -46,7 +46,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
   },
   distance: { model: 'inverse', refDistance: 1, maxDistance: 10000, rolloffFactor: 1 },
   timeFlow: { slowMotionScale: 0.35, rampInSeconds: 0.25, rampOutSeconds: 0.4, easing: 'smooth' },
-  smoothing: { ratioSeconds: 0.03, cutoffSeconds: 0.02, gainSeconds: 0.01 },
+  smoothing: { ratioSeconds: 0, cutoffSeconds: 0.02, gainSeconds: 0.01 },
   resampler: { tier: 'standard' },
   master: { limiter: true, ceilingDb: -1, gainDb: 0 },
   groups: {
@@ -66,6 +66,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 100,
     }),
     vehicles: group({
@@ -84,6 +85,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 120,
     }),
     ambience: group({
@@ -109,6 +111,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 60,
     }),
     interface: group({
@@ -117,6 +120,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
       tone: openTone,
       level: flatLevel,
       doppler: false,
+      motion: 'propagation',
       priority: 200,
     }),
     music: group({
@@ -134,6 +138,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: false,
+      motion: 'propagation',
       priority: 180,
     }),
   },
