@@ -28,6 +28,8 @@ export interface EmissionSolution {
   doppler: number;
   /** Propagation distance |L(t) − S(τ)|, m. */
   distance: number;
+  /** Mean of the Doppler factor over the block that ended here: ΔG(τ)/ΔG(t) (NaN when the block has no valid start). */
+  meanDoppler: number;
   /** Source position at τ. */
   readonly position: Vec3Like;
   /** When the first point with a positive residual was found by the scan: its residual, m, and dResidual/dt, m/s. */
@@ -39,7 +41,7 @@ export interface EmissionSolution {
 
 /** Creates an empty solution object (allocate once per source slot). */
 export function createEmissionSolution(): EmissionSolution {
-  return { state: EMISSION_NONE, tau: NaN, doppler: 1, distance: 0, position: { x: 0, y: 0, z: 0 }, scanResidual: 0, scanRate: 0, evaluations: 0 };
+  return { state: EMISSION_NONE, tau: NaN, doppler: 1, distance: 0, meanDoppler: NaN, position: { x: 0, y: 0, z: 0 }, scanResidual: 0, scanRate: 0, evaluations: 0 };
 }
 
 /** Solves the emission-time equation for one source; allocation-free. */

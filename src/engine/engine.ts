@@ -7,7 +7,7 @@ import type { Vec3Like } from '../units';
 import { AirAbsorption, speedOfSound } from '../motion';
 import { PropagationStage } from './propagation-stage';
 import { EMISSION_NONE } from './emission-solver';
-import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
+import { defaultTuning, DEFAULT_GROUP, OPEN_CUTOFF_HZ, type Tuning } from '../tuning';
 import { KernelTable, WasmKernel } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
@@ -60,6 +60,8 @@ export class Engine {
   /** Emission-time state of a propagating voice's source, handed to the mapper (velocity 0: the Doppler is in the read). */
   private readonly emission: SourceState & { velocity: Vec3Like } = { id: 0, position: { x: 0, y: 0, z: 0 }, velocity: { x: 0, y: 0, z: 0 } };
   private readonly slotOf = (id: number): number => this.snapshots.find(id);
+  /** Highest cutoff the air stage asks for: just below the bypass threshold, so the low-pass stays engaged. */
+  private readonly airOpenHz = OPEN_CUTOFF_HZ * 0.999;
   private tuning: Tuning;
   private frameCount = 0;
   private sequence = 0;
@@ -350,8 +352,12 @@ export class Engine {
       const source = v.propagating ? this.propagate(v, slot, n) : slot >= 0 ? this.snapshots.sourceAt(slot) : null;
       this.mapSource(v.targets, v.group, v.ratio * v.rateFactor, v.gain, source, s);
       if (v.propagating && source !== null) {
+        // Air absorption joins the dilation tone in the same low-pass, which then stays engaged (no bypass switching
+        // as the distance crosses the open cutoff: engaging restarts the filter, a audible glitch).
         const cut = this.air.cutoffHz(v.targets.distance);
-        if (cut < v.targets.cutoffHz) v.targets.cutoffHz = cut;
+        const open = this.airOpenHz;
+        if (cut < v.targets.cutoffHz) v.targets.cutoffHz = cut < open ? cut : open;
+        else if (v.targets.cutoffHz > open) v.targets.cutoffHz = open;
       }
       if (!v.render(mixL, mixR, 0, n, this.scratch)) this.pool.free(v);
     }
@@ -365,6 +371,7 @@ export class Engine {
    */
   private propagate(v: Voice, slot: number, n: number): (SourceState & { velocity: Vec3Like }) | null {
     v.dopplerStart = v.dopplerEnd;
+    v.dopplerMean = NaN;
     if (slot < 0) {
       if (!v.arrived && this.time - v.startTime >= engineDefaults.sourceWaitSeconds) v.arrived = true;
       v.dopplerEnd = 1;
@@ -374,6 +381,7 @@ export class Engine {
     const pre = this.stage.before[slot];
     if (v.fresh) v.dopplerStart = pre.state !== EMISSION_NONE ? pre.doppler : sol.doppler;
     if (sol.state !== EMISSION_NONE) v.dopplerEnd = sol.doppler;
+    v.dopplerMean = sol.meanDoppler;
     if (!v.arrived && sol.state !== EMISSION_NONE && sol.tau >= v.startTime) {
       v.arrived = true;
       const span = sol.tau - pre.tau;

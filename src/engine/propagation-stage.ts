@@ -124,6 +124,7 @@ export class PropagationStage {
   /** Advances the game clock over the block [start, end] at time scale `scale` and solves every live source at `end`. */
   advance(start: Seconds, end: Seconds, scale: number): void {
     this.blockStart = start;
+    const gStart = this.clock.game;
     this.clock.advance(end, scale);
     const tracks = this.tracks;
     tracks.evaluate(this.listenerSlot, end, this.lp, this.lv);
@@ -147,8 +148,11 @@ export class PropagationStage {
       if (!same) {
         // A new or teleported track: the block starts from this solution (no glide from elsewhere).
         copySolution(prev, cur);
+        cur.meanDoppler = NaN;
         continue;
       }
+      const gBlock = this.clock.game - gStart;
+      cur.meanDoppler = prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9 ? (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock : NaN;
       if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && tracks.maxSpeed[slot] >= c * sLow) {
         let te = end - cur.scanResidual / cur.scanRate;
         if (!(te >= start)) te = start;
@@ -177,15 +181,31 @@ export class PropagationStage {
 
   /**
    * Writes one voice's per-sample read ratios for a block of `frames`: the time ratio ramped linearly from r0 to r1
-   * times the Doppler factor ramped from d0 to d1 (values at the block's start and end), clamped to the resampler's
-   * range (counted). Returns their sum (source frames advanced).
+   * times the Doppler factor going from d0 to d1 (values at the block's start and end) with mean `mean`, clamped to
+   * the resampler's range (counted). Returns their sum (source frames advanced).
    */
-  fillRatios(out: Float32Array, frames: number, r0: number, r1: number, d0: number, d1: number): number {
+  fillRatios(out: Float32Array, frames: number, r0: number, r1: number, d0: number, d1: number, mean: number): number {
     const dr = (r1 - r0) / frames;
     const dd = (d1 - d0) / frames;
+    const lo = d0 < d1 ? d0 : d1;
+    const hi = d0 < d1 ? d1 : d0;
+    // The Doppler factor over the block: the derivative of the cubic Hermite U with U(0) = 0, U(1) = mean, U'(0) = d0,
+    // U'(1) = d1, averaged over each sample, so that the read advances by exactly the emission-time span; linear
+    // when the mean is unknown or implausible (a new track, a Mach cone).
+    const cubic = mean >= 0.5 * lo && mean <= 2 * hi;
+    let uPrev = 0;
     let sum = 0;
     for (let i = 0; i < frames; i++) {
-      let r = (r0 + dr * i) * (d0 + dd * i);
+      let d: number;
+      if (cubic) {
+        const x = (i + 1) / frames;
+        const x2 = x * x;
+        const x3 = x2 * x;
+        const u = (x3 - 2 * x2 + x) * d0 + (-2 * x3 + 3 * x2) * mean + (x3 - x2) * d1;
+        d = (u - uPrev) * frames;
+        uPrev = u;
+      } else d = d0 + dd * i;
+      let r = (r0 + dr * i) * d;
       if (!(r >= MIN_RATIO)) {
         r = MIN_RATIO;
         this.ratioClamps++;

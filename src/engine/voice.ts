@@ -99,6 +99,8 @@ export class Voice {
   /** Game-clock Doppler factor at the block's start and end (propagating voices). */
   dopplerStart = 1;
   dopplerEnd = 1;
+  /** Mean Doppler factor over the block (NaN: unknown, ramp linearly). */
+  dopplerMean = NaN;
   /** Frames of the arrival block before the sound arrives, or emission frames the arrival jumped over (a Mach cone). */
   arrivalFrames = 0;
   arrivalSkipFrames = 0;
@@ -259,7 +261,7 @@ export class Voice {
     let advance = 0;
     const ratios = scratch.ratios;
     if (this.propagating && scratch.stage !== null) {
-      advance = scratch.stage.fillRatios(ratios, frames, ratioStart, ratioEnd, this.dopplerStart, this.dopplerEnd);
+      advance = scratch.stage.fillRatios(ratios, frames, ratioStart, ratioEnd, this.dopplerStart, this.dopplerEnd, this.dopplerMean);
       this.arrive(ratios);
     }
     if (envStart === 0 && envEnd === 0) {
