@@ -28,6 +28,8 @@ export interface EmissionSolution {
   doppler: number;
   /** Propagation distance |L(t) − S(τ)|, m. */
   distance: number;
+  /** When a Mach cone arrived during the block that ended here: its estimated engine time, s (else NaN). */
+  coneTime: Seconds;
   /** Mean of the Doppler factor over the block that ended here: ΔG(τ)/ΔG(t) (NaN when the block has no valid start). */
   meanDoppler: number;
   /** Source position at τ. */
@@ -41,7 +43,7 @@ export interface EmissionSolution {
 
 /** Creates an empty solution object (allocate once per source slot). */
 export function createEmissionSolution(): EmissionSolution {
-  return { state: EMISSION_NONE, tau: NaN, doppler: 1, distance: 0, meanDoppler: NaN, position: { x: 0, y: 0, z: 0 }, scanResidual: 0, scanRate: 0, evaluations: 0 };
+  return { state: EMISSION_NONE, tau: NaN, doppler: 1, distance: 0, meanDoppler: NaN, coneTime: NaN, position: { x: 0, y: 0, z: 0 }, scanResidual: 0, scanRate: 0, evaluations: 0 };
 }
 
 /** Solves the emission-time equation for one source; allocation-free. */

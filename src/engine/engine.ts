@@ -389,7 +389,12 @@ export class Engine {
       if (pre.state !== EMISSION_NONE && pre.tau < v.startTime && span > 0 && span < 8 * block) {
         const k = Math.floor((n * (v.startTime - pre.tau)) / span);
         v.arrivalFrames = k < 0 ? 0 : k >= n ? n - 1 : k;
-      } else if (sol.tau - v.startTime > block) v.arrivalSkipFrames = (sol.tau - v.startTime) * this.sampleRate;
+      } else {
+        if (sol.tau - v.startTime > block) v.arrivalSkipFrames = (sol.tau - v.startTime) * this.sampleRate;
+        // A Mach cone: silent until its estimated arrival inside the block.
+        const k = Math.floor((sol.coneTime - (this.time)) * this.sampleRate);
+        v.arrivalFrames = k > 0 ? (k < n ? k : n - 1) : 0;
+      }
     }
     const e = this.emission;
     e.id = v.sourceId;

@@ -145,6 +145,7 @@ export class PropagationStage {
       const sLow = same && prev.state !== EMISSION_NONE ? Math.min(sNow, this.clock.slopeAt(prev.tau)) : sNow;
       const subsonic = same && prev.state !== EMISSION_NONE && tracks.maxSpeed[slot] < 0.9 * c * sLow;
       solver.solve(tracks, this.clock, slot, same && prev.state !== EMISSION_NONE ? prev.tau : NaN, subsonic, cur);
+      cur.coneTime = NaN;
       if (!same) {
         // A new or teleported track: the block starts from this solution (no glide from elsewhere).
         copySolution(prev, cur);
@@ -156,9 +157,11 @@ export class PropagationStage {
       if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && tracks.maxSpeed[slot] >= c * sLow) {
         let te = end - cur.scanResidual / cur.scanRate;
         if (!(te >= start)) te = start;
+        cur.coneTime = te;
         this.emit(te, this.ids[slot]);
       } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && tracks.maxSpeed[slot] >= c * sLow) {
         // The latest root jumped forward: a (second) cone arrived.
+        cur.coneTime = start;
         this.emit(start, this.ids[slot]);
       }
     }

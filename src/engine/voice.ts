@@ -260,6 +260,7 @@ export class Voice {
 
     let advance = 0;
     const ratios = scratch.ratios;
+    const silentFrames = this.arrivalFrames;
     if (this.propagating && scratch.stage !== null) {
       advance = scratch.stage.fillRatios(ratios, frames, ratioStart, ratioEnd, this.dopplerStart, this.dopplerEnd, this.dopplerMean);
       this.arrive(ratios);
@@ -284,8 +285,11 @@ export class Voice {
       return this.alive(envEnd);
     }
     const bufs = this.channels === 1 ? scratch.mono : scratch.stereo;
-    if (this.propagating) this.reader.readRatios(bufs, 0, frames, ratios, 0);
-    else this.reader.read(bufs, 0, frames, ratioStart, ratioEnd);
+    if (this.propagating) {
+      this.reader.readRatios(bufs, 0, frames, ratios, 0);
+      // Before the arrival sample nothing has reached the listener yet.
+      for (let c = 0; c < bufs.length; c++) bufs[c].fill(0, 0, silentFrames);
+    } else this.reader.read(bufs, 0, frames, ratioStart, ratioEnd);
     this.tone(bufs, scratch.dry, frames, cutoffTarget);
 
     const x0 = bufs[0];
