@@ -8,7 +8,7 @@ import { AirAbsorption, speedOfSound } from '../motion';
 import { PropagationStage } from './propagation-stage';
 import { EMISSION_NONE } from './emission-solver';
 import { defaultTuning, DEFAULT_GROUP, OPEN_CUTOFF_HZ, type Tuning } from '../tuning';
-import { KernelTable, WasmKernel } from '../dsp';
+import { KernelTable, WasmKernel, MAX_RATIO, MIN_RATIO } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
@@ -317,7 +317,9 @@ export class Engine {
       m.voice = this.pool.handleOf(v);
       m.sourceId = v.sourceId;
       m.group = v.group;
-      m.ratioCents = 1200 * Math.log2(v.currentRatio * (v.propagating ? v.dopplerEnd : 1));
+      // The ratio in use: a propagating voice's read includes the Doppler factor, clamped as fillRatios clamps it.
+      const r = v.propagating ? v.currentRatio * v.dopplerEnd : v.currentRatio;
+      m.ratioCents = 1200 * Math.log2(r < MIN_RATIO ? MIN_RATIO : r > MAX_RATIO ? MAX_RATIO : r);
       m.dopplerCents = v.propagating ? 1200 * Math.log2(v.dopplerEnd) : v.dopplerCents.value;
       m.radialSpeed = v.targets.radialSpeed;
       m.distance = v.targets.distance;
