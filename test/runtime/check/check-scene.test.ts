@@ -3,6 +3,9 @@ import { checkScene } from '../../../runtime/check';
 import { loadScene } from '../../../runtime/offline/render-scene';
 import { parseTuning, defaultTuning, serializeTuning } from '../../../src/tuning';
 
+/** The built-in groups with motion 'instant' (the model the checker's expectation follows). */
+const instantGroups = Object.fromEntries(Object.entries(defaultTuning.groups).map(([k, g]) => [k, { ...g, motion: 'instant' }]));
+
 const cents = (a: number, b: number) => 1200 * Math.log2(a / b);
 
 // A straight-line pass: a 440 Hz tone on a source running along x at v m/s, d m from a listener at rest at the origin,
@@ -21,7 +24,8 @@ function passScript(p: { v: number; d: number; c: number }) {
     duration: 6,
     sampleRate: 24000,
     // Doppler smoothing off, so that the render may follow the closed form closely near the closest approach too.
-    tuning: { version: 1, air: { temperatureCelsius: 20, speedOfSound: p.c }, doppler: { ...defaultTuning.doppler, smoothingSeconds: 0 } },
+    // The checker's expectation is the same-instant formula: render with that model until its emission-time expectation lands.
+    tuning: { version: 1, air: { temperatureCelsius: 20, speedOfSound: p.c }, doppler: { ...defaultTuning.doppler, smoothingSeconds: 0 }, groups: instantGroups },
     sounds: { tone: { type: 'tone', frequency: f0, seconds: 1 } },
     sources: { car: { motion: { type: 'line', from: [-p.v * t0, 0, -p.d], velocity: [p.v, 0, 0] } } },
     voices: [{ sound: 'tone', source: 'car', group: 'vehicles', loop: true, gain: 4 }],
@@ -79,6 +83,7 @@ describe('checkScene on a rendered straight-line pass', () => {
 
   it('fails a tonal voice whose sound never reaches the listener, with a note', () => {
     const tuning = JSON.parse(serializeTuning(defaultTuning));
+    tuning.groups = instantGroups;
     tuning.distance = { ...tuning.distance, model: 'linear', maxDistance: 50 };
     const result = checkScene(
       loadScene({
