@@ -74,6 +74,11 @@ export interface TuningCommand {
   type: 'tuning';
   tuning: Tuning;
 }
+/** Declare that a source jumps: its next snapshot restarts its track (no Doppler sweep across the jump). */
+export interface TeleportCommand {
+  type: 'teleport';
+  source: number;
+}
 /** Ask for a 'synced' report once every earlier command has been handled. */
 export interface SyncCommand {
   type: 'sync';
@@ -90,6 +95,7 @@ export type Command =
   | SnapshotCommand
   | TimeScaleCommand
   | TuningCommand
+  | TeleportCommand
   | SyncCommand;
 
 /** The processor is constructed and its engine is running. */
@@ -194,6 +200,8 @@ export function decodeCommand(data: unknown): Command | string {
       return isObject(data.tuning) ? (data as unknown as TuningCommand) : 'tuning.tuning: expected an object';
     case 'sync':
       return isHandle(data.id) ? (data as unknown as SyncCommand) : 'sync.id: expected a handle';
+    case 'teleport':
+      return typeof data.source === 'number' && Number.isFinite(data.source) ? (data as unknown as TeleportCommand) : 'teleport.source: expected a source id';
     default:
       return `command: unknown type "${String(data.type)}"`;
   }

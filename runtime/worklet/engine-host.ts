@@ -161,6 +161,9 @@ export class EngineHost {
       case 'sync':
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
         return;
+      case 'teleport':
+        e.teleport(c.source);
+        return;
     }
   }
 
