@@ -41,6 +41,8 @@ export interface Scene {
   timeScale?: number;
   /** Replaces a snapshot's source position (bad-input tests); return null to leave the source out. */
   mangle?: (t: number, p: { x: number; y: number; z: number }) => { x: number; y: number; z: number } | null;
+  /** Engine time the voice starts at, s (default 0). */
+  playAt?: number;
   /** Runs before each block with the engine (events, teleports …). */
   each?: (engine: Engine, time: number) => void;
 }
@@ -83,7 +85,7 @@ export function renderScene(scene: Scene): { out: Float32Array; left: Float32Arr
   for (let b = 0, o = 0; o < n; b++, o += block) {
     const t0 = o / sr;
     if (b % every === 0) engine.pushSnapshot(snap(t0 + interval));
-    if (!played) {
+    if (!played && t0 >= (scene.playAt ?? 0)) {
       engine.play(sound, { loop: true, sourceId: 7, fadeInSeconds: 0, ...scene.play });
       played = true;
     }
