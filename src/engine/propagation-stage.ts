@@ -56,6 +56,8 @@ export class PropagationStage {
   private offset = NaN;
   private readonly lp: Vec3Like = { x: 0, y: 0, z: 0 };
   private readonly lv: Vec3Like = { x: 0, y: 0, z: 0 };
+  private readonly sp: Vec3Like = { x: 0, y: 0, z: 0 };
+  private readonly sv: Vec3Like = { x: 0, y: 0, z: 0 };
   private blockStart: Seconds = 0;
 
   /** Preallocates the tracks of `maxSources` sources and the listener. */
@@ -154,12 +156,12 @@ export class PropagationStage {
       }
       const gBlock = this.clock.game - gStart;
       cur.meanDoppler = prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9 ? (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock : NaN;
-      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && tracks.maxSpeed[slot] >= c * sLow) {
+      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur.tau)) {
         let te = end - cur.scanResidual / cur.scanRate;
         if (!(te >= start)) te = start;
         cur.coneTime = te;
         this.emit(te, this.ids[slot]);
-      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && tracks.maxSpeed[slot] >= c * sLow) {
+      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && this.supersonicAt(slot, cur.tau)) {
         // The latest root jumped forward: a (second) cone arrived.
         cur.coneTime = start;
         this.emit(start, this.ids[slot]);
@@ -225,6 +227,13 @@ export class PropagationStage {
   /** Engine time of the start of the last solved block, s. */
   get lastBlockStart(): Seconds {
     return this.blockStart;
+  }
+
+  /** Whether source `slot` moved at least at the speed of sound (game clock) at engine time `tau`: a cone can only come from there. */
+  private supersonicAt(slot: number, tau: Seconds): boolean {
+    this.tracks.evaluate(slot, tau, this.sp, this.sv);
+    const v = this.sv;
+    return Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * this.clock.slopeAt(tau);
   }
 
   private emit(time: Seconds, sourceId: number): void {

@@ -82,3 +82,31 @@ describe('supersonic passes from positions only (default tuning)', () => {
     expect(first).toBeLessThan(0.5 * next);
   });
 });
+
+describe('time scale 0 and slow motion with propagation', () => {
+  it('freezes sound in flight and resumes it, with no shockwave from a subsonic source made "fast" by slow motion', () => {
+    // The world follows the game clock: smoothstep ramps (common practice) 1 → 0 at 0.5 s and 0 → 1 at 1.5 s, 0.3 s each.
+    const ease = (u: number) => (u <= 0 ? 0 : u >= 1 ? 1 : u * u * (3 - 2 * u));
+    const scale = (t: number) => (t < 1.5 ? 1 - ease((t - 0.5) / 0.3) : ease((t - 1.5) / 0.3));
+    const game = (t: number) => {
+      let g = 0;
+      const steps = Math.ceil(t / 1e-4);
+      for (let i = 0; i < steps; i++) g += scale((i + 0.5) * (t / steps)) * (t / steps);
+      return g;
+    };
+    const { out, engine } = renderScene({
+      worldClock: game,
+      source: line([-40, 0, -5], [60, 0, 0]), listener: line([0, 0, 0], [0, 0, 0]), seconds: 2.5, exactVelocities: false,
+      sound: tone(400, 12000, 1), soundRate: 12000,
+      each: (e, t) => {
+        if (Math.abs(t - 0.5) < 1e-3) e.setTimeScale({ target: 0, rampSeconds: 0.3, easing: 'smooth' });
+        if (Math.abs(t - 1.5) < 1e-3) e.setTimeScale({ target: 1, rampSeconds: 0.3, easing: 'smooth' });
+      },
+    });
+    expect(out.every(Number.isFinite)).toBe(true);
+    expect(engine.stats.shockwaves).toBe(0);
+    let tail = 0;
+    for (let i = out.length - SR / 4; i < out.length; i++) tail = Math.max(tail, Math.abs(out[i]));
+    expect(tail).toBeGreaterThan(1e-3);
+  });
+});

@@ -41,6 +41,8 @@ export interface Scene {
   timeScale?: number;
   /** Replaces a snapshot's source position (bad-input tests); return null to leave the source out. */
   mangle?: (t: number, p: { x: number; y: number; z: number }) => { x: number; y: number; z: number } | null;
+  /** Game time of the world at wall time t (default timeScale·t): where the paths are evaluated. */
+  worldClock?: (t: number) => number;
   /** Engine time the voice starts at, s (default 0). */
   playAt?: number;
   /** Runs before each block with the engine (events, teleports …). */
@@ -59,8 +61,9 @@ export function renderScene(scene: Scene): { out: Float32Array; left: Float32Arr
   const scale = scene.timeScale ?? 1;
   const snap = (t: number) => {
     // Stamped with wall time; the world has moved by the game time s·t.
-    const s = scene.source(scale * t);
-    const l = scene.listener(scale * t);
+    const g = scene.worldClock ? scene.worldClock(t) : scale * t;
+    const s = scene.source(g);
+    const l = scene.listener(g);
     let sp: { x: number; y: number; z: number } | null = { x: s.p[0], y: s.p[1], z: s.p[2] };
     if (scene.mangle) sp = scene.mangle(t, sp);
     return {
