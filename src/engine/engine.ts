@@ -18,6 +18,9 @@ import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
 import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
 
+/** Air-absorption cutoff below which a propagating voice's low-pass engages (and then stays engaged), Hz. */
+const AIR_ENGAGE_HZ = 16000;
+
 /** Frozen defaults of the engine's options and fades. */
 export const engineDefaults = Object.freeze({
   capacity: 64,
@@ -181,6 +184,7 @@ export class Engine {
     v.sourceSlot = src;
     v.sequence = this.sequence++;
     v.propagating = sourceId !== -1 && compiled.motion === 'propagation';
+    v.airEngaged = false;
     v.arrived = !v.propagating;
     v.startTime = this.time;
     v.arrivalFrames = 0;
@@ -354,12 +358,16 @@ export class Engine {
       const source = v.propagating ? this.propagate(v, slot, n) : slot >= 0 ? this.snapshots.sourceAt(slot) : null;
       this.mapSource(v.targets, v.group, v.ratio * v.rateFactor, v.gain, source, s);
       if (v.propagating && source !== null) {
-        // Air absorption joins the dilation tone in the same low-pass, which then stays engaged (no bypass switching
-        // as the distance crosses the open cutoff: engaging restarts the filter, a audible glitch).
+        // Air absorption joins the dilation tone in the same low-pass. Once the air asks for it (cutoff below
+        // AIR_ENGAGE_HZ) the low-pass stays engaged for the voice's life: no bypass switching each time the distance
+        // crosses the open cutoff (engaging restarts the filter, audible on a close pass); near voices skip it.
         const cut = this.air.cutoffHz(v.targets.distance);
-        const open = this.airOpenHz;
-        if (cut < v.targets.cutoffHz) v.targets.cutoffHz = cut < open ? cut : open;
-        else if (v.targets.cutoffHz > open) v.targets.cutoffHz = open;
+        if (cut < AIR_ENGAGE_HZ) v.airEngaged = true;
+        if (v.airEngaged) {
+          const open = this.airOpenHz;
+          if (cut < v.targets.cutoffHz) v.targets.cutoffHz = cut < open ? cut : open;
+          else if (v.targets.cutoffHz > open) v.targets.cutoffHz = open;
+        }
       }
       if (!v.render(mixL, mixR, 0, n, this.scratch)) this.pool.free(v);
     }

@@ -92,6 +92,8 @@ export class Voice {
   index = 0;
   /** Propagation model: the read follows the emission time (delay and emission-time Doppler). */
   propagating = false;
+  /** The air-absorption low-pass has engaged for this voice (it then stays engaged). */
+  airEngaged = false;
   /** Whether the sound has reached the listener (propagating voices are silent and hold until it does). */
   arrived = true;
   /** Engine time the voice started (its sound's emission began), s. */
