@@ -6,8 +6,8 @@ import type { SourceState } from '../dilation';
 import type { Vec3Like } from '../units';
 import { AirAbsorption, speedOfSound } from '../motion';
 import { PropagationStage } from './propagation-stage';
-import { EMISSION_NONE } from './emission-solver';
-import { defaultTuning, DEFAULT_GROUP, OPEN_CUTOFF_HZ, type Tuning } from '../tuning';
+import { airStage, propagateVoice } from './voice-propagation';
+import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
 import { KernelTable, WasmKernel, MAX_RATIO, MIN_RATIO } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
@@ -17,9 +17,6 @@ import { KernelResidency } from './kernel-residency';
 import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
 import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
-
-/** Air-absorption cutoff below which a propagating voice's low-pass engages (and then stays engaged), Hz. */
-const AIR_ENGAGE_HZ = 16000;
 
 /** Frozen defaults of the engine's options and fades. */
 export const engineDefaults = Object.freeze({
@@ -33,8 +30,6 @@ export const engineDefaults = Object.freeze({
   stopFadeSeconds: 0.01,
   /** Fade-out of a stolen voice, s. */
   stealFadeSeconds: 0.01,
-  /** A propagating voice on a source no snapshot has named yet waits this long for it, then plays non-positioned, s. */
-  sourceWaitSeconds: 0.25,
 });
 
 /** Renders voices of decoded sounds with time-scale and Doppler pitch, dilation tone, panning and a master limiter. */
@@ -63,8 +58,6 @@ export class Engine {
   /** Emission-time state of a propagating voice's source, handed to the mapper (velocity 0: the Doppler is in the read). */
   private readonly emission: SourceState & { velocity: Vec3Like } = { id: 0, position: { x: 0, y: 0, z: 0 }, velocity: { x: 0, y: 0, z: 0 } };
   private readonly slotOf = (id: number): number => this.snapshots.find(id);
-  /** Highest cutoff the air stage asks for: just below the bypass threshold, so the low-pass stays engaged. */
-  private readonly airOpenHz = OPEN_CUTOFF_HZ * 0.999;
   private tuning: Tuning;
   private frameCount = 0;
   private sequence = 0;
@@ -355,63 +348,13 @@ export class Engine {
       const v = voices[i];
       if (v.state === VOICE_FREE) continue;
       const slot = v.sourceId === -1 ? -1 : v.sourceSlot;
-      const source = v.propagating ? this.propagate(v, slot, n) : slot >= 0 ? this.snapshots.sourceAt(slot) : null;
+      const source = v.propagating ? propagateVoice(this.stage, v, slot, n, this.time, this.sampleRate, this.emission) : slot >= 0 ? this.snapshots.sourceAt(slot) : null;
       this.mapSource(v.targets, v.group, v.ratio * v.rateFactor, v.gain, source, s);
-      if (v.propagating && source !== null) {
-        // Air absorption joins the dilation tone in the same low-pass. Once the air asks for it (cutoff below
-        // AIR_ENGAGE_HZ) the low-pass stays engaged for the voice's life: no bypass switching each time the distance
-        // crosses the open cutoff (engaging restarts the filter, audible on a close pass); near voices skip it.
-        const cut = this.air.cutoffHz(v.targets.distance);
-        if (cut < AIR_ENGAGE_HZ) v.airEngaged = true;
-        if (v.airEngaged) {
-          const open = this.airOpenHz;
-          if (cut < v.targets.cutoffHz) v.targets.cutoffHz = cut < open ? cut : open;
-          else if (v.targets.cutoffHz > open) v.targets.cutoffHz = open;
-        }
-      }
+      if (v.propagating && source !== null) airStage(v, this.air);
       if (!v.render(mixL, mixR, 0, n, this.scratch)) this.pool.free(v);
     }
     this.bus.finish(outputs, offset, n, this.stats);
     this.frameCount += n;
-  }
-
-  /**
-   * A propagating voice's block: its Doppler factors at the block's ends, its arrival (the sound reaches the listener
-   * when the emission time passes the voice's start), and the source state at emission time for gains and panning.
-   */
-  private propagate(v: Voice, slot: number, n: number): (SourceState & { velocity: Vec3Like }) | null {
-    v.dopplerStart = v.dopplerEnd;
-    v.dopplerMean = NaN;
-    if (slot < 0) {
-      if (!v.arrived && this.time - v.startTime >= engineDefaults.sourceWaitSeconds) v.arrived = true;
-      v.dopplerEnd = 1;
-      return null;
-    }
-    const sol = this.stage.now[slot];
-    const pre = this.stage.before[slot];
-    if (v.fresh) v.dopplerStart = pre.state !== EMISSION_NONE ? pre.doppler : sol.doppler;
-    if (sol.state !== EMISSION_NONE) v.dopplerEnd = sol.doppler;
-    v.dopplerMean = sol.meanDoppler;
-    if (!v.arrived && sol.state !== EMISSION_NONE && sol.tau >= v.startTime) {
-      v.arrived = true;
-      const span = sol.tau - pre.tau;
-      const block = n / this.sampleRate;
-      if (pre.state !== EMISSION_NONE && pre.tau < v.startTime && span > 0 && span < 8 * block) {
-        const k = Math.floor((n * (v.startTime - pre.tau)) / span);
-        v.arrivalFrames = k < 0 ? 0 : k >= n ? n - 1 : k;
-      } else {
-        if (sol.tau - v.startTime > block) v.arrivalSkipFrames = (sol.tau - v.startTime) * this.sampleRate;
-        // A Mach cone: silent until its estimated arrival inside the block.
-        const k = Math.floor((sol.coneTime - (this.time)) * this.sampleRate);
-        v.arrivalFrames = k > 0 ? (k < n ? k : n - 1) : 0;
-      }
-    }
-    const e = this.emission;
-    e.id = v.sourceId;
-    e.position.x = sol.position.x;
-    e.position.y = sol.position.y;
-    e.position.z = sol.position.z;
-    return e;
   }
 
   private mapInto(out: Voice['targets'], group: string, baseRatio: number, gain: number, sourceSlot: number, timeScale = this.flow.valueAt(this.time)): void {
