@@ -19,7 +19,7 @@ function tone(hz: number, seconds: number): Float32Array[] {
 }
 
 /** `voices` stereo looping voices on voices/4 sources circling the listener (positions only, 60 Hz snapshots). */
-function scene(voices: number, motion: 'propagation' | 'instant', kernel: KernelName): (blocks: number) => number {
+function scene(voices: number, motion: 'propagation' | 'instant', kernel: KernelName, near = false): (blocks: number) => number {
   const json = JSON.parse(serializeTuning(defaultTuning));
   for (const g of Object.values(json.groups) as Record<string, unknown>[]) g.motion = motion;
   const engine = new Engine({ sampleRate: SR, capacity: voices, tuning: parseTuning(json), kernel });
@@ -40,9 +40,11 @@ function scene(voices: number, motion: 'propagation' | 'instant', kernel: Kernel
         const t = ((block + every) * BLOCK) / SR;
         snap.time = t;
         for (const s of list) {
-          const a = (30 / (10 + s.id)) * t + s.id;
-          s.position.x = (10 + s.id) * Math.cos(a);
-          s.position.z = (10 + s.id) * Math.sin(a);
+          // Far: radii 10…73 m (the air low-pass engages); near: 3…6 m (it does not).
+          const radius = near ? 3 + 0.05 * s.id : 10 + s.id;
+          const a = (30 / radius) * t + s.id;
+          s.position.x = radius * Math.cos(a);
+          s.position.z = radius * Math.sin(a);
         }
         engine.pushSnapshot(snap);
       }
@@ -56,10 +58,10 @@ function scene(voices: number, motion: 'propagation' | 'instant', kernel: Kernel
 export async function run(options: { json: boolean }): Promise<object> {
   const seconds = 0.5;
   const blocks = Math.round((seconds * SR) / BLOCK);
-  const rows: { voices: number; kernel: KernelName; propagationUsPerVoice: number[]; instantUsPerVoice: number[]; ratio: number; coreShare: number }[] = [];
-  for (const [voices, kernel] of [[64, 'typescript'], [64, 'wasm-simd'], [256, 'wasm-simd']] as [number, KernelName][]) {
-    const prop = scene(voices, 'propagation', kernel);
-    const inst = scene(voices, 'instant', kernel);
+  const rows: { voices: number; kernel: KernelName; near: boolean; propagationUsPerVoice: number[]; instantUsPerVoice: number[]; ratio: number; coreShare: number }[] = [];
+  for (const [voices, kernel, near] of [[64, 'typescript', false], [64, 'wasm-simd', false], [256, 'wasm-simd', false], [256, 'wasm-simd', true]] as [number, KernelName, boolean][]) {
+    const prop = scene(voices, 'propagation', kernel, near);
+    const inst = scene(voices, 'instant', kernel, near);
     prop(200);
     inst(200);
     const p: number[] = [];
@@ -73,7 +75,7 @@ export async function run(options: { json: boolean }): Promise<object> {
     const pm = Math.min(...p);
     const qm = Math.min(...q);
     rows.push({
-      voices, kernel,
+      voices, kernel, near,
       propagationUsPerVoice: [per(pm), per(Math.max(...p))],
       instantUsPerVoice: [per(qm), per(Math.max(...q))],
       ratio: pm / qm,
@@ -81,10 +83,10 @@ export async function run(options: { json: boolean }): Promise<object> {
     });
   }
   if (!options.json) {
-    console.log('voices kernel      propagation µs/voice/s (min…max)  instant µs/voice/s (min…max)  prop/instant  share of one core (propagation)');
+    console.log('voices kernel      sources propagation µs/voice/s (min…max)  instant µs/voice/s (min…max)  prop/instant  share of one core (propagation)');
     for (const r of rows)
       console.log(
-        `${String(r.voices).padStart(6)} ${r.kernel.padEnd(11)} ${r.propagationUsPerVoice.map((x) => x.toFixed(0)).join('…').padStart(30)} ${r.instantUsPerVoice.map((x) => x.toFixed(0)).join('…').padStart(29)} ${r.ratio.toFixed(2).padStart(13)} ${(100 * r.coreShare).toFixed(1).padStart(10)} %`,
+        `${String(r.voices).padStart(6)} ${r.kernel.padEnd(11)} ${(r.near ? 'near' : 'far').padEnd(7)} ${r.propagationUsPerVoice.map((x) => x.toFixed(0)).join('…').padStart(30)} ${r.instantUsPerVoice.map((x) => x.toFixed(0)).join('…').padStart(29)} ${r.ratio.toFixed(2).padStart(13)} ${(100 * r.coreShare).toFixed(1).padStart(10)} %`,
       );
   }
   return { rows };
