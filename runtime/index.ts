@@ -6,5 +6,8 @@ export type { Sound, SoundData, RalentiVoice, RalentiPlayOptions, RalentiListene
 export { RalentiSource } from './ralenti-source';
 export { RalentiOptionError } from './runtime-error';
 export { defaultWorkletUrl, workletBlobUrl } from './worklet-url';
+export { decodeAudioFile, DECODE_RATE_RANGE } from './decode-audio-file';
+export type { DecodeAudioFileOptions } from './decode-audio-file';
+export { audioFileSampleRate } from './audio-file-rate';
 export { PROCESSOR_NAME, type RenderLoad } from './protocol';
 export { TuningError, defaultTuning, parseTuning, serializeTuning } from '../src/tuning/index';
