@@ -19,7 +19,7 @@ function script(source: unknown, listener: unknown = { type: 'fixed', position: 
 }
 
 function tuning(c: number, model: 'propagation' | 'instant', factor = 1): Tuning {
-  return withDopplerModel({ ...defaultTuning, air: { temperatureCelsius: 20, speedOfSound: c }, doppler: { ...defaultTuning.doppler, factor } }, 'vehicles', model);
+  return withDopplerModel({ ...defaultTuning, air: { ...defaultTuning.air, temperatureCelsius: 20, speedOfSound: c }, doppler: { ...defaultTuning.doppler, factor } }, 'vehicles', model);
 }
 
 const ratioAt = (sc: SceneScript, t: Tuning, time: number) => new ExpectedVoice(sc, sc.voices[0], t, 100).at(time).hz / 100;
