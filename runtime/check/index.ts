@@ -13,3 +13,4 @@ export type { CheckableScene, CheckOptions, CheckResult, CheckedSource, SceneRen
 export { renderReportSvg, renderReportHtml, reportSvgDefaults, escapeXml, niceTicks, pathData } from './report-svg';
 export type { CheckReport, ReportSvgOptions } from './report-svg';
 export { writeReport } from './write-report';
+export { svgToPng } from './report-png';

@@ -1,10 +1,10 @@
 // `ralenti check <scene.json>`: judges heard pitch against the pitch expected from the script's motion and tuning
 // alone (runtime/check) — on the audio the browser played (--audio) or on an offline re-render — and writes a report.
-import { resolve } from 'node:path';
+import { dirname, extname, resolve } from 'node:path';
 import { loadSceneFile, ScriptError, type LoadedScene } from '../offline';
-import { checkAudio, checkScene, checkLimitDefaults, writeReport, type CheckResult } from '../check';
+import { checkAudio, checkScene, checkLimitDefaults, renderReportHtml, renderReportSvg, svgToPng, type CheckResult } from '../check';
 import { CliError, EXIT, numberOption, parseArgs, progressBar, type CliIo } from './cli-io';
-import { readWavFile, refuseOverwrite } from './cli-files';
+import { readWavFile, refuseOverwrite, SafeFileWriter } from './cli-files';
 import type { CliCommand } from './cli-command';
 
 const usage = `usage: ralenti check <scene.json> [--audio <recording.wav>] [--report <file.svg|.html|.png>] [options]
@@ -49,13 +49,13 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
   const max = numberOption(p, 'max-cents', 0.1, 2400, Math.max(checkLimitDefaults.maxCents, p95))!;
   const share = numberOption(p, 'closest-share', 0, 1, checkLimitDefaults.closestApproachShare)!;
   const rate = numberOption(p, 'rate', 8000, 192000);
+  if (rate !== undefined && !Number.isInteger(rate)) throw new CliError(`--rate must be a whole number of hertz, got ${p.options.get('rate')}`, EXIT.usage);
   const report = p.options.get('report');
   const audioPath = p.options.get('audio');
   if (report !== undefined && (typeof report !== 'string' || !/\.(svg|html?|png)$/i.test(report))) throw new CliError(`--report must name a .svg, .html or .png file, got ${JSON.stringify(report)}`, EXIT.usage);
   if (audioPath !== undefined && typeof audioPath !== 'string') throw new CliError('--audio needs a WAV file', EXIT.usage);
   const scenePath = p.positionals[0];
   if (typeof report === 'string') refuseOverwrite(report, audioPath ? [scenePath, audioPath] : [scenePath]);
-  if (typeof report === 'string' && resolve(report) === resolve(scenePath)) throw new CliError(`refusing to overwrite the input ${scenePath}`, EXIT.usage);
   let loaded: LoadedScene;
   try {
     loaded = loadSceneFile(scenePath, rate);
@@ -89,11 +89,22 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
   }
   if (checked.skipped > 0) io.out(`(${checked.skipped} voice(s) of noise or WAV sounds not checked)\n`);
   if (typeof report === 'string') {
+    // Never over an input under any name (the script, its WAV sounds, its tuning file, the recording); temporary file, then rename.
+    const base = dirname(resolve(scenePath));
+    const inputs = [scenePath, ...Object.values(loaded.script.sounds).flatMap((s) => (s.type === 'file' ? [resolve(base, s.path)] : []))];
+    if (loaded.script.tuning !== null && 'path' in loaded.script.tuning) inputs.push(resolve(base, loaded.script.tuning.path));
+    if (typeof audioPath === 'string') inputs.push(audioPath);
+    const doc = { title: scenePath, mode: checked.mode, limits: checked.limits, sources: checked.sources, timeScale: checked.timeScale };
+    let bytes: Uint8Array;
     try {
-      await writeReport(report, { title: scenePath, mode: checked.mode, limits: checked.limits, sources: checked.sources, timeScale: checked.timeScale });
+      const ext = extname(report).toLowerCase();
+      bytes = ext === '.png' ? await svgToPng(renderReportSvg(doc)) : new TextEncoder().encode(ext === '.svg' ? renderReportSvg(doc) : renderReportHtml(doc));
     } catch (e) {
-      throw new CliError(`cannot write ${report}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}`, EXIT.output);
+      throw new CliError(`internal error while drawing the report: ${(e as Error).stack ?? String(e)}`, EXIT.internal);
     }
+    const file = new SafeFileWriter(report, inputs);
+    file.writeAt(bytes, 0);
+    file.commit();
     io.out(`report written to ${report}\n`);
   }
   const failed = checked.sources.filter((r) => !r.passed).length;

@@ -3,7 +3,9 @@
 import { Engine } from '../../src/engine/index';
 import { parseTuning } from '../../src/tuning/index';
 import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
+import { WasmKernel } from '../../src/dsp/index';
 import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type RenderLoad, type Report } from '../protocol';
+import { TableInstaller } from './table-installer';
 
 /** A millisecond clock for timing process(), and its name (reported with the load). */
 export interface RenderClock {
@@ -62,6 +64,9 @@ export class EngineHost {
   /** Exponentially weighted sums of the same (time constant LOAD_AVERAGE_SECONDS); their ratio is the load. */
   private busyAvgMs = 0;
   private audioAvgMs = 0;
+  /** Longest single call (process or message) since the last stats report, ms. */
+  private peakMs = 0;
+  private readonly tables: TableInstaller;
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
@@ -69,7 +74,10 @@ export class EngineHost {
     this.clock = options.clock ?? null;
     this.sampleRate = options.sampleRate;
     this.timeOffset = options.startContextTime;
-    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning });
+    // Tables designed on the main thread: the tuning's tier is installed here, before any audio; others follow in slices.
+    this.tables = new TableInstaller(WasmKernel.shared());
+    const tables = Array.isArray(p.tables) ? this.tables.receive(p.tables, true) : undefined;
+    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, tables });
     this.scratch = [new Float32Array(128), new Float32Array(128)];
     for (let i = 0; i < p.capacity; i++) this.monitors.push(emptyMonitor());
     const interval = Math.min(10, Math.max(0.05, Number(p.statsIntervalSeconds) || 0.25));
@@ -89,6 +97,12 @@ export class EngineHost {
 
   /** Handles one message from the port; malformed or failing commands are reported, never thrown. */
   handle(data: unknown): void {
+    const started = this.clock ? this.clock.now() : 0;
+    this.handleTimed(data);
+    if (this.clock) this.addBusy(this.clock.now() - started); // message time is audio-thread time too
+  }
+
+  private handleTimed(data: unknown): void {
     const command = decodeCommand(data);
     if (typeof command === 'string') {
       this.fail('command', command);
@@ -158,6 +172,11 @@ export class EngineHost {
         // Validated again here: a malformed document must be refused whole, not half-applied to the engine.
         e.setTuning(parseTuning(c.tuning));
         return;
+      case 'tables': {
+        const ready = this.tables.receive(c.tables, false);
+        if (ready.length > 0) e.useTables(ready);
+        return;
+      }
       case 'sync':
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
         return;
@@ -173,6 +192,10 @@ export class EngineHost {
     const started = this.clock ? this.clock.now() : 0;
     const frames = output[0].length;
     try {
+      if (this.tables.installing > 0) {
+        const done = this.tables.step();
+        if (done !== null) this.engine.useTables([done]);
+      }
       if (this.faulted) {
         silence(output);
       } else if (output.length === 2) {
@@ -200,11 +223,16 @@ export class EngineHost {
     }
     if (this.clock) {
       // Timed after the stats so that their cost counts too (in the next report).
-      const elapsed = this.clock.now() - started;
-      if (elapsed > 0 && elapsed < 1e4) this.busyMs += elapsed; // a clock step backwards or a huge jump is not render time
+      this.addBusy(this.clock.now() - started);
       this.audioMs += (1000 * frames) / this.sampleRate;
     }
     return true;
+  }
+
+  private addBusy(elapsed: number): void {
+    if (!(elapsed > 0 && elapsed < 1e4)) return; // a clock step backwards or a huge jump is not render time
+    this.busyMs += elapsed;
+    if (elapsed > this.peakMs) this.peakMs = elapsed;
   }
 
   /** Folds the time since the last report into the running average; null without a clock or before any audio. */
@@ -215,7 +243,9 @@ export class EngineHost {
     this.audioAvgMs = this.audioAvgMs * keep + this.audioMs;
     this.busyMs = 0;
     this.audioMs = 0;
-    return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS };
+    const peakMs = this.peakMs;
+    this.peakMs = 0;
+    return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS, peakMs };
   }
 
   /** Renders through the stereo scratch pair when the node has a channel count other than 2 (no allocation). */
@@ -253,7 +283,7 @@ export class EngineHost {
         this.voices.delete(mainVoice);
       }
       const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
-      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad() });
+      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad(), tables: this.tables.counters() });
     } catch (err) {
       this.fail('stats', errorMessage(err));
     }

@@ -2,7 +2,7 @@
 import type { Decibels, Hz, Seconds } from '../units';
 import type { Easing, QualityTierName, Tuning } from '../tuning/tuning-types';
 import type { ListenerState, SourceState } from '../dilation/snapshot-types';
-import type { KernelName, KernelPreference } from '../dsp';
+import type { KernelName, KernelPreference, KernelTable } from '../dsp';
 
 /** Engine construction options; capacities are fixed here for the engine's lifetime. */
 export interface EngineOptions {
@@ -20,6 +20,11 @@ export interface EngineOptions {
   tuning?: Tuning;
   /** Resampler inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (reference), 'wasm-simd' (throws where unavailable). */
   kernel?: KernelPreference;
+  /**
+   * Kernel tables designed elsewhere (e.g. on the main thread, `KernelTable.fromData`), one per tier name. When given,
+   * the engine designs none: a tier without a table here keeps the table in use until `useTables` brings one.
+   */
+  tables?: readonly KernelTable[];
 }
 
 /** Options of one play request. */
@@ -58,6 +63,8 @@ export interface EngineStats {
   /** Peak absolute output sample of the last render call, before and after the limiter. */
   peakIn: number;
   peakOut: number;
+  /** Times the blast guard muted the output (sustained level far above full scale, or non-finite samples). */
+  blasts: number;
   /** Limiter gain reduction at the end of the last render call, in dB (≤ 0). */
   limiterDb: Decibels;
   /** Current time scale as the engine evaluates it. */

@@ -3,7 +3,7 @@
 import type { Hz, Seconds } from '../units';
 import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, TimeScaleRequest, VoiceMonitor } from './engine-types';
 import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
-import { KernelTable, WasmKernel } from '../dsp';
+import { KernelTable, WasmKernel, aliasStopFraction } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
@@ -52,6 +52,9 @@ export class Engine {
   private frameCount = 0;
   private sequence = 0;
   private engineClamps = 0;
+  /** Tables handed in by the host (by tier name), or null: the engine designs its own (`KernelTable.forTier`). */
+  private readonly given: Map<string, KernelTable> | null;
+  private table: KernelTable;
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
   constructor(options: EngineOptions) {
@@ -67,7 +70,13 @@ export class Engine {
     this.mapper = new TargetMapper({ tuning: t });
     this.snapshots = new SnapshotStore({ maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
     this.bus = new MasterBus({ sampleRate: sr, maxBlockFrames: this.maxBlock, ceilingDb: t.master.ceilingDb, limiter: t.master.limiter, gainDb: t.master.gainDb });
-    const table = KernelTable.forTier(t.resampler.tier);
+    for (const k of options.tables ?? []) {
+      // A table designed for another output rate would fold or image into the audible band here.
+      if (!(k instanceof KernelTable) || Math.abs(k.aliasStop - aliasStopFraction(sr)) > 1e-12) throw new RangeError(`EngineOptions.tables: "${String(k?.name)}" was not designed for ${sr} Hz output`);
+    }
+    this.given = options.tables === undefined ? null : new Map(options.tables.map((k) => [k.name, k]));
+    const table = this.tableFor(t.resampler.tier) ?? options.tables?.[0] ?? KernelTable.forTier(t.resampler.tier, sr);
+    this.table = table;
     for (let i = 0; i < 2 * this.capacity; i++) {
       const v = new Voice(table, sr, this.smoothing(t), options.kernel ?? 'auto');
       v.index = i;
@@ -83,8 +92,8 @@ export class Engine {
     this.resident?.bind(this.scratch, this.bus);
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null };
     this.stats = {
-      activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
-      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: t.resampler.tier, kernel: this.voices[0].reader.kernelName,
+      activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
+      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: table.name as Tuning['resampler']['tier'], kernel: this.voices[0].reader.kernelName,
     };
   }
 
@@ -197,16 +206,34 @@ export class Engine {
     this.mapper.setTuning(t);
     this.snapshots.configure(t.doppler.velocitySmoothingSeconds, t.doppler.teleportSpeed);
     this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
-    const table = KernelTable.forTier(t.resampler.tier);
+    this.switchTable(this.tableFor(t.resampler.tier));
     const sm = this.smoothing(t);
     for (const v of this.voices) {
-      v.reader.setTable(table);
       v.setSmoothing(sm);
       if (v.state === VOICE_FREE) continue;
       if (!this.mapper.hasGroup(v.group)) v.group = DEFAULT_GROUP;
       v.followsTime = this.mapper.group(v.group).followsSpeed;
     }
-    this.stats.tier = t.resampler.tier;
+  }
+
+  /** Adds tables designed elsewhere (by tier name, replacing any of the same name); switches at once if the tuning's tier was waiting for one. */
+  useTables(tables: readonly KernelTable[]): void {
+    if (this.given === null) return;
+    for (const k of tables) this.given.set(k.name, k);
+    this.switchTable(this.tableFor(this.tuning.resampler.tier));
+  }
+
+  /** The table for `tier` at this engine's rate: a given one, else (no tables given) the shared design; null while a given set lacks it. */
+  private tableFor(tier: Tuning['resampler']['tier']): KernelTable | null {
+    if (this.given === null) return KernelTable.forTier(tier, this.sampleRate);
+    return this.given.get(tier) ?? null;
+  }
+
+  private switchTable(table: KernelTable | null): void {
+    if (table === null || table === this.table) return;
+    this.table = table;
+    for (const v of this.voices) v.reader.setTable(table);
+    this.stats.tier = table.name as Tuning['resampler']['tier'];
     this.resident?.bind(this.scratch, this.bus); // a new tier's tables may have grown module memory
   }
 
@@ -242,7 +269,7 @@ export class Engine {
       for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
     }
     const readerClamps = this.pool.count(st);
-    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.limiter.nonFinite + readerClamps;
+    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps;
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
     st.limiterDb = this.bus.limiter.reductionDb;

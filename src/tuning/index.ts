@@ -1,6 +1,8 @@
 // Public entry of src/tuning: the tuning document's defaults, parser, serializer and limits.
 export { defaultTuning, TUNING_VERSION, DEFAULT_GROUP } from './default-tuning';
 export { parseTuning } from './parse-tuning';
+export { findDuplicateKeys, MAX_TUNING_TEXT } from './json-text';
+export type { DuplicateKey } from './json-text';
 export { serializeTuning } from './serialize-tuning';
 export { TuningError } from './tuning-error';
 export type { TuningIssue } from './tuning-error';
