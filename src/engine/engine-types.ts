@@ -18,6 +18,8 @@ export interface EngineOptions {
   maxBlockFrames?: number;
   /** A parsed tuning; defaults to the built-in tuning. */
   tuning?: Tuning;
+  /** Voices of 'stretch' groups that can play at once, 0…1024 (default 32; more play tape-style, counted in clamps). */
+  maxStretchVoices?: number;
   /** Resampler inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (reference), 'wasm-simd' (throws where unavailable). */
   kernel?: KernelPreference;
   /**

@@ -11,6 +11,7 @@ import { MasterBus } from './master-bus';
 import { KernelResidency } from './kernel-residency';
 import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
+import { StretchBank } from './stretch-stage';
 import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
 
 /** Frozen defaults of the engine's options and fades. */
@@ -19,6 +20,8 @@ export const engineDefaults = Object.freeze({
   maxSounds: 256,
   maxBlockFrames: 128,
   maxSources: 256,
+  /** Voices of 'stretch' groups that can play at once (more play tape-style, counted in clamps). */
+  maxStretchVoices: 32,
   /** Default fade-in of a voice, s. */
   fadeInSeconds: 0.003,
   /** Default fade-out of `stop`, s. */
@@ -44,6 +47,7 @@ export class Engine {
   private readonly mapper: TargetMapper;
   private readonly bus: MasterBus;
   private readonly scratch: VoiceScratch;
+  private readonly stretches: StretchBank;
   /** Module-memory bookkeeping when the voices run on the WebAssembly kernel, else null (TypeScript kernel). */
   private readonly resident: KernelResidency | null;
   private readonly input: VoiceInput;
@@ -82,6 +86,8 @@ export class Engine {
       v.index = i;
       this.voices.push(v);
     }
+    const stretchCount = checkRange('maxStretchVoices', options.maxStretchVoices ?? engineDefaults.maxStretchVoices, 0, 1024);
+    this.stretches = new StretchBank(stretchCount, table, sr, t.smoothing.ratioSeconds, options.kernel ?? 'auto');
     this.pool = new VoicePool({ voices: this.voices, capacity: this.capacity, bank: this.bank });
     const buf = () => new Float32Array(this.maxBlock);
     const stereo = [buf(), buf()];
@@ -181,7 +187,14 @@ export class Engine {
     v.releaseStep = v.fadeStep(engineDefaults.stopFadeSeconds);
     copyTargets(this.probe, v.targets);
     const offset = clampNumber((options.offsetSeconds ?? 0) * rate, 0, this.bank.frames[slot], 0);
-    v.reader.setSource(this.bank.channels[slot]!, { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset });
+    const from = { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset };
+    v.reader.setSource(this.bank.channels[slot]!, from);
+    v.stretch = null;
+    if (compiled.stretches) {
+      v.stretch = this.stretches.claim(v.index, this.voices);
+      if (v.stretch === null) this.engineClamps++; // every stage busy: this voice plays tape-style
+      else v.stretch.start(this.bank.channels[slot]!, from);
+    }
     this.bank.release(slot, 1);
     return this.pool.handleOf(v);
   }
@@ -208,6 +221,7 @@ export class Engine {
     this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
     this.switchTable(this.tableFor(t.resampler.tier));
     const sm = this.smoothing(t);
+    this.stretches.configure(this.table, t.smoothing.ratioSeconds);
     for (const v of this.voices) {
       v.setSmoothing(sm);
       if (v.state === VOICE_FREE) continue;
@@ -233,6 +247,7 @@ export class Engine {
     if (table === null || table === this.table) return;
     this.table = table;
     for (const v of this.voices) v.reader.setTable(table);
+    this.stretches.configure(table, this.tuning.smoothing.ratioSeconds);
     this.stats.tier = table.name as Tuning['resampler']['tier'];
     this.resident?.bind(this.scratch, this.bus); // a new tier's tables may have grown module memory
   }
@@ -269,7 +284,7 @@ export class Engine {
       for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
     }
     const readerClamps = this.pool.count(st);
-    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps;
+    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps + this.stretches.clampCount;
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
     st.limiterDb = this.bus.limiter.reductionDb;
