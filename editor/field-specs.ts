@@ -1,6 +1,6 @@
 // Every scalar field of the tuning format as the editor shows it: label, unit, step and the range, read from the
 // format's one limits table (src/tuning/tuning-limits.ts) so that the panel can never be narrower or wider.
-import { curveLimits, groupLimits, sectionLimits, type FieldLimit, type NumberField, type SectionName } from '../src/tuning/index';
+import { curveLimits, groupLimits, groupOptionalLimits, sectionLimits, type FieldLimit, type NumberField, type SectionName } from '../src/tuning/index';
 
 /** How one numeric field is shown: label, unit, step and an optional slider span inside the format's range. */
 export interface FieldSpec {
@@ -24,6 +24,8 @@ const described: { [S in SectionName]: { [K in keyof (typeof sectionLimits)[S]]:
   air: {
     temperatureCelsius: { label: 'air (°C)', unit: '°C', step: 0.1, about: 'Air temperature; sets the speed of sound unless it is overridden' },
     speedOfSound: { label: 'sound override', unit: 'm/s', step: 0.1, about: 'Speed of sound override; off = derived from the temperature' },
+    relativeHumidity: { label: 'humidity (%)', unit: '%', step: 1, about: 'Relative humidity of the air (air absorption of high frequencies with distance)' },
+    pressureKilopascals: { label: 'pressure (kPa)', unit: 'kPa', step: 0.1, about: 'Air pressure (air absorption of high frequencies with distance)' },
   },
   doppler: {
     factor: { label: 'Doppler factor', unit: '×', step: 0.01, about: 'Scales the Doppler shift; 0 turns it off' },
@@ -70,6 +72,14 @@ export const sectionFieldSpecs: readonly FieldSpec[] = Object.freeze(
   ),
 );
 
+/** The group fields that are choices: policy, motion model, stretch at time scale 0, Doppler. */
+export const groupChoiceSpecs = Object.freeze({
+  policy: Object.freeze({ path: 'groups.*.policy', label: 'policy', unit: '', step: 1, limit: groupLimits.policy, about: 'How the group reacts to the time scale' }),
+  motion: Object.freeze({ path: 'groups.*.motion', label: 'motion', unit: '', step: 1, limit: groupLimits.motion, about: 'How motion is heard: sound travels (emission time), same instant, or off' }),
+  stretchFreeze: Object.freeze({ path: 'groups.*.stretchFreeze', label: 'stretch at 0', unit: '', step: 1, limit: groupOptionalLimits.stretchFreeze, about: 'What a stretched group does at time scale 0' }),
+  doppler: Object.freeze({ path: 'groups.*.doppler', label: 'Doppler', unit: '', step: 1, limit: groupLimits.doppler, about: 'Whether voices of this group get the Doppler shift' }),
+}) satisfies Record<string, FieldSpec>;
+
 /** The group fields that are numbers (priority). */
 export const groupPrioritySpec: FieldSpec = Object.freeze({
   path: 'groups.*.priority', label: 'priority', unit: '', step: 1, limit: groupLimits.priority, about: 'Stealing priority: higher survives longer',
@@ -80,6 +90,7 @@ export const curveFieldSpecs = Object.freeze({
   pitch: Object.freeze({ path: 'groups.*.pitch', label: 'speed & pitch ×', unit: '×', step: 0.001, limit: curveLimits.y.pitch, about: 'Speed multiplier by time scale' }),
   tone: Object.freeze({ path: 'groups.*.tone', label: 'tone cutoff', unit: 'Hz', step: 1, limit: curveLimits.y.tone, about: 'Low-pass cutoff by time scale; at 20 kHz it is open' }),
   level: Object.freeze({ path: 'groups.*.level', label: 'level', unit: 'dB', step: 0.1, limit: curveLimits.y.level, about: 'Level by time scale' }),
+  stretchPitch: Object.freeze({ path: 'groups.*.stretchPitch', label: 'stretch pitch', unit: '¢', step: 1, limit: curveLimits.y.stretchPitch, about: 'Pitch of a stretched group by time scale, in cents' }),
 }) satisfies Record<string, FieldSpec>;
 
 /** The spec of a section field by path; throws for a path the format does not have. */

@@ -2,7 +2,9 @@
 import type { Easing, EngineSnapshot, EngineStats, PlayOptions, Seconds, Tuning, Vec3Like, VoiceMonitor } from '../src/index';
 import { parseTuning, MAX_TIME_SCALE } from '../src/tuning/index';
 import { TimeFlow } from '../src/dilation/index';
+import { packKernelTable, wasmSimdSupported } from '../src/dsp/index';
 import { commandTransfer, encodeSnapshot, type Command, type RenderLoad, type Report } from './protocol';
+import type { TableCounters } from './worklet/table-installer';
 import { RalentiOptionError, checkRange } from './runtime-error';
 import { RalentiSource } from './ralenti-source';
 
@@ -59,10 +61,12 @@ export interface RalentiInit {
   node: AudioWorkletNode;
   tuning: Tuning;
   capacity: number;
+  /** Tiers whose tables (and WebAssembly layouts) the processor already holds (createRalenti sets it); a switch to another tier first sends that tier's tables, designed here. Absent: the processor designs its own. */
+  tableTiers?: readonly string[];
 }
 
 const EMPTY_STATS: EngineStats = Object.freeze({
-  activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
+  activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
   limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: 'standard',
 }) as EngineStats;
 
@@ -88,6 +92,8 @@ export class Ralenti {
   voices: VoiceMonitor[] = [];
   /** Latest render load measured in the worklet; null until reported, or where the audio thread has no clock. */
   renderLoad: RenderLoad | null = null;
+  /** Kernel-table work counted on the audio thread (designs, layouts built, layouts still being copied in); null until reported. */
+  tableWork: TableCounters | null = null;
   private current: Tuning;
   private readonly flow = new TimeFlow({ initial: 1 });
   private readonly sources: RalentiSource[] = [];
@@ -103,6 +109,8 @@ export class Ralenti {
   private nextSource = 1;
   private nextSync = 1;
   private disposed = false;
+  /** Tiers the processor has tables for, or null when it designs its own. */
+  private readonly tableTiers: Set<string> | null;
 
   /** Wraps an existing node; use createRalenti() instead unless you built the node yourself. */
   constructor(init: RalentiInit) {
@@ -110,6 +118,7 @@ export class Ralenti {
     this.node = init.node;
     this.capacity = init.capacity;
     this.current = init.tuning;
+    this.tableTiers = init.tableTiers === undefined ? null : new Set(init.tableTiers);
     this.snapshot = { time: 0, listener: this.listener, sources: [] };
     this.node.port.onmessage = (e: MessageEvent) => this.receive(e.data as Report);
     this.node.onprocessorerror = () => this.emitError({ where: 'processorerror', message: 'the processor failed and stopped', count: -1 });
@@ -192,7 +201,7 @@ export class Ralenti {
 
   /** A new positioned source; voices follow it via `play(sound, { source })`. */
   createSource(): RalentiSource {
-    const s = new RalentiSource(this.nextSource++);
+    const s = new RalentiSource(this.nextSource++, (source) => this.send({ type: 'teleport', source }));
     this.sources.push(s);
     return s;
   }
@@ -226,6 +235,12 @@ export class Ralenti {
   setTuning(json: unknown): Tuning {
     const t = parseTuning(json);
     this.current = t;
+    const tier = t.resampler.tier;
+    if (this.tableTiers !== null && !this.tableTiers.has(tier)) {
+      // Designed here, off the audio thread; the worklet copies the layout in slices and switches when it is in.
+      this.send({ type: 'tables', tables: [packKernelTable(tier, this.context.sampleRate, wasmSimdSupported())] });
+      this.tableTiers.add(tier);
+    }
     this.send({ type: 'tuning', tuning: t });
     return t;
   }
@@ -295,6 +310,7 @@ export class Ralenti {
         this.stats = r.stats;
         this.voices = r.voices;
         this.renderLoad = r.load ?? null;
+        this.tableWork = r.tables ?? null;
         return;
       case 'error':
         this.emitError({ where: r.where, message: r.message, count: r.count });

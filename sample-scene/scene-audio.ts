@@ -3,6 +3,7 @@
 import { createRalenti, type Ralenti, type RalentiSource, type RalentiVoice, type Sound, type SoundData } from '../runtime';
 import { listeningGain, loadAutosaved, VoiceNames, type ComparisonSource, type DecodedAudioFile, type NamedVoice, type TuningProblem } from '../editor';
 import { SCENE_VOICES } from './script-sounds';
+import { radioMessageSound } from './radio-message';
 import { clickSound, droneSound, generatorSound, kartSound, musicLoopSound, orbSound, type GeneratedSound } from './procedural-sounds';
 
 /** One looping voice of the scene and what it needs to be restarted with another sound. */
@@ -83,6 +84,7 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
   start('orb', '#6dffc0', orbSound(rate), v.orb.group, v.orb.gain, sources.orb);
   start('generator', '#ffe34a', generatorSound(rate), v.generator.group, v.generator.gain, sources.generator);
   start('music', '#c58cff', musicLoopSound(rate), 'music', 0.16, null);
+  start('radio', '#f7f7f7', radioMessageSound(rate), 'radio', 0.3, null); // 'stretch' group: slows, keeps its pitch
   const click = ralenti.load(clickSound(rate));
 
   const replaceSound = (voiceId: number, d: DecodedAudioFile): string => {

@@ -2,9 +2,10 @@
 // and the selected group's page: bus mute/solo/volume and meter, policy, Doppler, priority and the three curves.
 // The page is built from `groupPageParts`, a list other features extend (e.g. a stretch policy) without touching this file.
 import type { BladeApi, FolderApi, Pane } from 'tweakpane';
-import type { CurveSpec } from '../../src';
+import type { CurveSpec, GroupTuning } from '../../src';
 import type { CurveBladeApi, CurveBladeParams } from '../curve-blade';
-import { curveFieldSpecs, groupPrioritySpec, roundToStep, tooltipOf } from '../field-specs';
+import { curveFieldSpecs, groupChoiceSpecs, groupPrioritySpec, roundToStep, tooltipOf } from '../field-specs';
+import { addStretchControls } from './stretch-controls';
 import { addChoiceField, addNumberField } from '../controls/number-field';
 import type { GroupControls } from '../group-controls';
 import { PeakMeter } from '../monitors/peak-meter';
@@ -95,13 +96,15 @@ export function busPart(a: GroupPageArgs): BladeApi[] {
   return [a.folder.addBlade({ view: 'ralenti-element', element: row })];
 }
 
-/** Policy, Doppler switch and stealing priority. */
+/** Policy, Doppler switch, motion model and stealing priority. */
 export function behaviourPart(a: GroupPageArgs): BladeApi[] {
   const changed = (last: boolean) => a.ctx.changed(last);
-  const policy = addChoiceField(a.folder, a.group, 'policy', { path: 'groups.*.policy', label: 'policy', unit: '', step: 1, about: 'How the group reacts to the time scale', limit: { kind: 'enum', values: ['follow-time', 'tone-only', 'exempt'] } }, changed, { 'follows time': 'follow-time', 'tone only': 'tone-only', exempt: 'exempt' });
-  const doppler = addChoiceField(a.folder, a.group, 'doppler', { path: 'groups.*.doppler', label: 'Doppler', unit: '', step: 1, about: 'Whether voices of this group get the Doppler shift', limit: { kind: 'boolean' } }, changed);
+  const c = groupChoiceSpecs;
+  const policy = addChoiceField(a.folder, a.group, 'policy', c.policy, changed, { 'follows time': 'follow-time', 'tone only': 'tone-only', exempt: 'exempt', 'stretch (keeps pitch)': 'stretch' });
+  const doppler = addChoiceField(a.folder, a.group, 'doppler', c.doppler, changed);
+  const motion = addChoiceField(a.folder, a.group, 'motion', c.motion, changed, { 'sound travels': 'propagation', 'same instant': 'instant', off: 'off' });
   const priority = addNumberField(a.folder, a.group, 'priority', groupPrioritySpec, a.ctx.notice, changed);
-  return [policy, doppler, priority];
+  return [policy, doppler, motion, priority];
 }
 
 /** The three curves of the group. */
@@ -113,8 +116,13 @@ export function curvesPart(a: GroupPageArgs): BladeApi[] {
   ] as unknown as BladeApi[];
 }
 
+/** The 'stretch' policy's controls (freeze mode and pitch curve in cents). */
+export function stretchPart(a: GroupPageArgs): BladeApi[] {
+  return addStretchControls(a.folder, a.ctx, a.name, a.group as unknown as GroupTuning);
+}
+
 /** Parts of every group page, in order (push to extend). */
-export const groupPageParts: GroupPagePart[] = [busPart, behaviourPart, curvesPart];
+export const groupPageParts: GroupPagePart[] = [busPart, behaviourPart, curvesPart, stretchPart];
 
 /** The groups folder: name strip and the selected group's page. */
 export class GroupSection {

@@ -49,6 +49,8 @@ export function addDopplerSection(pane: Pane, ctx: TunableContext): FolderApi {
   const inUse = () => air.speedOfSound ?? speedOfSound(air.temperatureCelsius);
   const shown = { c: inUse(), override: air.speedOfSound !== null, value: air.speedOfSound ?? roundToStep(inUse(), 0.1) };
   addField(f, ctx, 'air.temperatureCelsius');
+  addField(f, ctx, 'air.relativeHumidity');
+  addField(f, ctx, 'air.pressureKilopascals');
   const overrideOn = f.addBinding(shown, 'override', { label: 'override sound' });
   overrideOn.element.title = 'Use a fixed speed of sound instead of the one the temperature gives. Off clears the override (null).';
   const speedSpec = fieldSpec('air.speedOfSound');

@@ -3,7 +3,9 @@
 import { Engine } from '../../src/engine/index';
 import { parseTuning } from '../../src/tuning/index';
 import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
+import { WasmKernel } from '../../src/dsp/index';
 import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type RenderLoad, type Report } from '../protocol';
+import { TableInstaller } from './table-installer';
 
 /** A millisecond clock for timing process(), and its name (reported with the load). */
 export interface RenderClock {
@@ -65,6 +67,9 @@ export class EngineHost {
   /** Largest peakIn / peakOut of every render since the last stats report (the engine resets its own per call). */
   private intervalPeakIn = 0;
   private intervalPeakOut = 0;
+  /** Longest single call (process or message) since the last stats report, ms. */
+  private peakMs = 0;
+  private readonly tables: TableInstaller;
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
@@ -72,7 +77,10 @@ export class EngineHost {
     this.clock = options.clock ?? null;
     this.sampleRate = options.sampleRate;
     this.timeOffset = options.startContextTime;
-    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning });
+    // Tables designed on the main thread: the tuning's tier is installed here, before any audio; others follow in slices.
+    this.tables = new TableInstaller(WasmKernel.shared());
+    const tables = Array.isArray(p.tables) ? this.tables.receive(p.tables, true) : undefined;
+    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, tables });
     this.scratch = [new Float32Array(128), new Float32Array(128)];
     for (let i = 0; i < p.capacity; i++) this.monitors.push(emptyMonitor());
     const interval = Math.min(10, Math.max(0.05, Number(p.statsIntervalSeconds) || 0.25));
@@ -92,6 +100,12 @@ export class EngineHost {
 
   /** Handles one message from the port; malformed or failing commands are reported, never thrown. */
   handle(data: unknown): void {
+    const started = this.clock ? this.clock.now() : 0;
+    this.handleTimed(data);
+    if (this.clock) this.addBusy(this.clock.now() - started); // message time is audio-thread time too
+  }
+
+  private handleTimed(data: unknown): void {
     const command = decodeCommand(data);
     if (typeof command === 'string') {
       this.fail('command', command);
@@ -161,8 +175,16 @@ export class EngineHost {
         // Validated again here: a malformed document must be refused whole, not half-applied to the engine.
         e.setTuning(parseTuning(c.tuning));
         return;
+      case 'tables': {
+        const ready = this.tables.receive(c.tables, false);
+        if (ready.length > 0) e.useTables(ready);
+        return;
+      }
       case 'sync':
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
+        return;
+      case 'teleport':
+        e.teleport(c.source);
         return;
     }
   }
@@ -176,6 +198,10 @@ export class EngineHost {
     const started = this.clock ? this.clock.now() : 0;
     const frames = output[0].length;
     try {
+      if (this.tables.installing > 0) {
+        const done = this.tables.step();
+        if (done !== null) this.engine.useTables([done]);
+      }
       if (this.faulted) {
         silence(output);
       } else if (output.length === 2) {
@@ -206,11 +232,16 @@ export class EngineHost {
     }
     if (this.clock) {
       // Timed after the stats so that their cost counts too (in the next report).
-      const elapsed = this.clock.now() - started;
-      if (elapsed > 0 && elapsed < 1e4) this.busyMs += elapsed; // a clock step backwards or a huge jump is not render time
+      this.addBusy(this.clock.now() - started);
       this.audioMs += (1000 * frames) / this.sampleRate;
     }
     return true;
+  }
+
+  private addBusy(elapsed: number): void {
+    if (!(elapsed > 0 && elapsed < 1e4)) return; // a clock step backwards or a huge jump is not render time
+    this.busyMs += elapsed;
+    if (elapsed > this.peakMs) this.peakMs = elapsed;
   }
 
   /** Folds the time since the last report into the running average; null without a clock or before any audio. */
@@ -221,7 +252,9 @@ export class EngineHost {
     this.audioAvgMs = this.audioAvgMs * keep + this.audioMs;
     this.busyMs = 0;
     this.audioMs = 0;
-    return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS };
+    const peakMs = this.peakMs;
+    this.peakMs = 0;
+    return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS, peakMs };
   }
 
   /** Renders through the stereo scratch pair when the node has a channel count other than 2 (no allocation). */
@@ -258,11 +291,15 @@ export class EngineHost {
         this.voiceOwners.delete(engineVoice);
         this.voices.delete(mainVoice);
       }
-      // Peaks over the whole report interval (true peak of every sample since the last report), not the last block's.
-      const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors, peakIn: this.intervalPeakIn, peakOut: this.intervalPeakOut };
+      // Peaks over the whole report interval (true peak of every sample since the last report), not the last block's;
+      // the last shockwave's time goes out in context time, as every time the main thread sees.
+      const st = this.engine.stats;
+      const stats: EngineStats = {
+        ...st, errors: st.errors + this.errors, lastShockwaveTime: this.timeOffset + st.lastShockwaveTime, peakIn: this.intervalPeakIn, peakOut: this.intervalPeakOut,
+      };
       this.intervalPeakIn = 0;
       this.intervalPeakOut = 0;
-      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad() });
+      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad(), tables: this.tables.counters() });
     } catch (err) {
       this.fail('stats', errorMessage(err));
     }
