@@ -201,7 +201,7 @@ export class Ralenti {
 
   /** A new positioned source; voices follow it via `play(sound, { source })`. */
   createSource(): RalentiSource {
-    const s = new RalentiSource(this.nextSource++);
+    const s = new RalentiSource(this.nextSource++, (source) => this.send({ type: 'teleport', source }));
     this.sources.push(s);
     return s;
   }

@@ -16,3 +16,6 @@ export { resample, resampleChunks, qualityTiers, defaultQualityTier, MIN_RATIO, 
 export { wasmSimdSupported, activeKernel } from './dsp';
 export type { KernelName, KernelPreference } from './dsp';
 export type { ResampleOptions, StreamReaderOptions, StreamSourceOptions, KernelTableOptions, TierDesign, BiquadLowpassOptions, OnePoleSmootherOptions } from './dsp';
+// Time-scale modification (WSOLA grains read by the band-limited resampler).
+export { StretchReader, stretchReaderDefaults } from './stretch';
+export type { StretchReaderOptions } from './stretch';

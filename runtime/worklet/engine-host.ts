@@ -180,6 +180,9 @@ export class EngineHost {
       case 'sync':
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
         return;
+      case 'teleport':
+        e.teleport(c.source);
+        return;
     }
   }
 
@@ -282,7 +285,9 @@ export class EngineHost {
         this.voiceOwners.delete(engineVoice);
         this.voices.delete(mainVoice);
       }
-      const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
+      // The last shockwave's time goes out in context time, as every time the main thread sees.
+      const st = this.engine.stats;
+      const stats: EngineStats = { ...st, errors: st.errors + this.errors, lastShockwaveTime: this.timeOffset + st.lastShockwaveTime };
       this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad(), tables: this.tables.counters() });
     } catch (err) {
       this.fail('stats', errorMessage(err));

@@ -1,10 +1,10 @@
 // Group policies: how a group's voices respond to the time scale, compiled once from the tuning.
-import type { GroupPolicy, GroupTuning } from '../tuning';
+import type { GroupPolicy, GroupTuning, MotionModel } from '../tuning';
 import { Curve } from './curve';
 
-/** Whether voices of a policy change speed (and pitch) with the time scale: only 'follow-time'. */
+/** Whether voices of a policy change speed with the time scale: 'follow-time' (pitch too) and 'stretch' (pitch apart). */
 export function policyFollowsSpeed(policy: GroupPolicy): boolean {
-  return policy === 'follow-time';
+  return policy === 'follow-time' || policy === 'stretch';
 }
 
 /** Whether tone (low-pass) and level curves apply: 'follow-time' and 'tone-only'. */
@@ -28,10 +28,18 @@ export class CompiledGroup {
   readonly tone: Curve;
   /** s → level in dB. */
   readonly level: Curve;
-  /** Doppler applies to positioned voices of this group. */
+  /** The same-instant Doppler ratio (motion 'instant') applies to positioned voices of this group. */
   readonly doppler: boolean;
+  /** How positioned voices hear motion: 'off' also when the tuning's `doppler` is false. */
+  readonly motion: MotionModel;
   /** Stealing priority 0…255. */
   readonly priority: number;
+  /** Voices keep their pitch apart from their speed (time-scale modification, src/stretch). */
+  readonly stretches: boolean;
+  /** s → pitch shift in cents of 'stretch' voices (0 = pitch kept). */
+  readonly stretchPitch: Curve;
+  /** 'stretch' voices hold their sound at time scale 0 instead of fading to silence. */
+  readonly holdsWhenFrozen: boolean;
 
   /** Time scale of the cached curve values below (NaN = none yet). */
   cachedScale = Number.NaN;
@@ -41,12 +49,15 @@ export class CompiledGroup {
   cachedCutoffHz = 20000;
   /** 10^(level(cachedScale)/20), or 1 when exempt. */
   cachedLevelGain = 1;
+  /** 2^(stretchPitch(cachedScale)/1200) for 'stretch' groups: the pitch ratio apart from Doppler; else cachedSpeed. */
+  cachedPitch = 1;
 
   /** Evaluates the curves at time scale s (0…4) into the cached fields; reuses them when s is unchanged. */
   evaluateAt(s: number, minCutoffHz: number, openCutoffHz: number): void {
     if (s === this.cachedScale) return;
     this.cachedScale = s;
     this.cachedSpeed = this.followsSpeed ? this.pitch.evaluate(s) : 1;
+    this.cachedPitch = this.stretches ? Math.pow(2, this.stretchPitch.evaluate(s) / 1200) : this.cachedSpeed;
     if (this.appliesTone) {
       const c = this.tone.evaluate(s);
       this.cachedCutoffHz = c < minCutoffHz ? minCutoffHz : c > openCutoffHz ? openCutoffHz : c;
@@ -66,7 +77,11 @@ export class CompiledGroup {
     this.pitch = new Curve(group.pitch);
     this.tone = new Curve(group.tone);
     this.level = new Curve(group.level);
-    this.doppler = group.doppler;
+    this.motion = group.doppler ? (group.motion ?? 'propagation') : 'off';
+    this.doppler = this.motion === 'instant';
     this.priority = group.priority;
+    this.stretches = group.policy === 'stretch';
+    this.stretchPitch = new Curve(group.stretchPitch ?? { interpolation: 'linear', keys: [{ x: 0, y: 0 }] });
+    this.holdsWhenFrozen = this.stretches && group.stretchFreeze === 'hold';
   }
 }

@@ -1,5 +1,6 @@
 // The built-in tuning: values that sound right on the sample scene; the starting point of every tuning file.
 import type { CurveSpec, GroupTuning, Tuning } from './tuning-types';
+import { groupOptionalDefaults } from './tuning-limits';
 
 /** Current schema version of the tuning document. */
 export const TUNING_VERSION = 1;
@@ -20,8 +21,9 @@ const openTone = curve('linear', [[0, 20000]]);
 /** Level unchanged. */
 const flatLevel = curve('linear', [[0, 0]]);
 
-function group(g: GroupTuning): GroupTuning {
-  return g;
+/** A built-in group: the optional fields take their defaults unless given. */
+function group(g: Omit<GroupTuning, keyof typeof groupOptionalDefaults> & Partial<GroupTuning>): GroupTuning {
+  return { ...g, stretchPitch: g.stretchPitch ?? groupOptionalDefaults.stretchPitch, stretchFreeze: g.stretchFreeze ?? groupOptionalDefaults.stretchFreeze };
 }
 
 function deepFreeze<T>(value: T): T {
@@ -35,7 +37,7 @@ function deepFreeze<T>(value: T): T {
 /** The built-in tuning (schema version 1), deeply frozen. */
 export const defaultTuning: Tuning = deepFreeze<Tuning>({
   version: TUNING_VERSION,
-  air: { temperatureCelsius: 20, speedOfSound: null },
+  air: { temperatureCelsius: 20, speedOfSound: null, relativeHumidity: 50, pressureKilopascals: 101.325 },
   doppler: {
     factor: 1,
     maxShiftCents: 1200,
@@ -46,7 +48,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
   },
   distance: { model: 'inverse', refDistance: 1, maxDistance: 10000, rolloffFactor: 1 },
   timeFlow: { slowMotionScale: 0.35, rampInSeconds: 0.25, rampOutSeconds: 0.4, easing: 'smooth' },
-  smoothing: { ratioSeconds: 0.03, cutoffSeconds: 0.02, gainSeconds: 0.01 },
+  smoothing: { ratioSeconds: 0, cutoffSeconds: 0.02, gainSeconds: 0.01 },
   resampler: { tier: 'standard' },
   master: { limiter: true, ceilingDb: -1, gainDb: 0 },
   groups: {
@@ -66,6 +68,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 100,
     }),
     vehicles: group({
@@ -84,6 +87,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 120,
     }),
     ambience: group({
@@ -109,6 +113,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 60,
     }),
     interface: group({
@@ -117,7 +122,24 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
       tone: openTone,
       level: flatLevel,
       doppler: false,
+      motion: 'propagation',
       priority: 200,
+    }),
+    radio: group({
+      // Slows with the time scale but keeps its pitch (docs/time-stretch.md): dialogue stays intelligible.
+      policy: 'stretch',
+      pitch: identityPitch,
+      stretchPitch: curve('linear', [[0, 0]]),
+      stretchFreeze: 'silence',
+      motion: 'propagation',
+      tone: curve('monotone', [
+        [0, 4000],
+        [0.35, 9000],
+        [1, 20000],
+      ]),
+      level: flatLevel,
+      doppler: true,
+      priority: 150,
     }),
     music: group({
       policy: 'tone-only',
@@ -134,6 +156,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: false,
+      motion: 'propagation',
       priority: 180,
     }),
   },

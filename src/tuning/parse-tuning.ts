@@ -9,6 +9,8 @@ import { migrateVersion0, type IssueSink } from './migrate-tuning';
 import {
   curveLimits,
   groupLimits,
+  groupOptionalLimits,
+  groupOptionalDefaults,
   groupsLimits,
   sectionLimits,
   topLevelKeys,
@@ -47,6 +49,7 @@ function objectAt(value: Json, path: string, issues: IssueSink): Obj | undefined
 function field(obj: Obj, key: string, limit: FieldLimit, path: string, issues: IssueSink): Json {
   const p = childPath(path, key);
   if (!Object.prototype.hasOwnProperty.call(obj, key)) {
+    if (limit.kind !== 'boolean' && limit.optional !== undefined) return limit.optional;
     issues.add(p, 'missing field');
     return undefined;
   }
@@ -90,7 +93,7 @@ function parseSection(name: SectionName, value: Json, issues: IssueSink): Obj {
   return out;
 }
 
-function parseCurve(value: Json, kind: 'pitch' | 'tone' | 'level', path: string, issues: IssueSink): CurveSpec | undefined {
+function parseCurve(value: Json, kind: keyof typeof curveLimits.y, path: string, issues: IssueSink): CurveSpec | undefined {
   const obj = objectAt(value, path, issues);
   if (!obj) return undefined;
   checkKeys(obj, ['interpolation', 'keys'], path, issues);
@@ -132,7 +135,7 @@ function parseGroup(value: Json, path: string, issues: IssueSink): GroupTuning |
   const obj = objectAt(value, path, issues);
   if (!obj) return undefined;
   const keys = Object.keys(groupLimits);
-  checkKeys(obj, keys, path, issues);
+  checkKeys(obj, [...keys, ...Object.keys(groupOptionalLimits)], path, issues);
   const out: Obj = {};
   for (const key of keys) {
     const limit = groupLimits[key as keyof typeof groupLimits];
@@ -143,6 +146,12 @@ function parseGroup(value: Json, path: string, issues: IssueSink): GroupTuning |
     } else {
       out[key] = field(obj, key, limit, path, issues);
     }
+  }
+  for (const key of Object.keys(groupOptionalLimits) as (keyof typeof groupOptionalLimits)[]) {
+    const limit = groupOptionalLimits[key];
+    if (!Object.prototype.hasOwnProperty.call(obj, key)) out[key] = groupOptionalDefaults[key];
+    else if (limit === 'curve') out[key] = parseCurve(obj[key], key as 'stretchPitch', childPath(path, key), issues);
+    else out[key] = field(obj, key, limit, path, issues);
   }
   return out as unknown as GroupTuning;
 }

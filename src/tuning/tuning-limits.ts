@@ -9,11 +9,15 @@ export interface NumberField {
   readonly max: number;
   readonly integer?: boolean;
   readonly nullable?: boolean;
+  /** Value taken when the field is absent (fields added after schema version 1 shipped); absent = required. */
+  readonly optional?: number;
 }
 /** A string field taking one of `values`. */
 export interface EnumField {
   readonly kind: 'enum';
   readonly values: readonly string[];
+  /** Value taken when the field is absent; absent = required. */
+  readonly optional?: string;
 }
 /** A true/false field. */
 export interface BooleanField {
@@ -31,6 +35,8 @@ export const sectionLimits = {
   air: {
     temperatureCelsius: num(-50, 60),
     speedOfSound: num(1, 10000, { nullable: true }),
+    relativeHumidity: num(0, 100, { optional: 50 }),
+    pressureKilopascals: num(50, 120, { optional: 101.325 }),
   },
   doppler: {
     factor: num(0, 10),
@@ -67,20 +73,38 @@ export const sectionLimits = {
   },
 } as const satisfies Record<string, Record<string, FieldLimit>>;
 
+/** Whether a scalar field may be absent (it then takes its `optional` value). */
+export function isOptionalField(limit: FieldLimit): boolean {
+  return limit.kind !== 'boolean' && limit.optional !== undefined;
+}
+
 /** Name of a section described by sectionLimits. */
 export type SectionName = keyof typeof sectionLimits;
 
 /** Fields of one group, in serialization order ('pitch', 'tone' and 'level' are curves). */
 export const groupLimits = {
-  policy: oneOf('follow-time', 'exempt', 'tone-only'),
+  policy: oneOf('follow-time', 'exempt', 'tone-only', 'stretch'),
   pitch: 'curve',
   tone: 'curve',
   level: 'curve',
   doppler: bool,
+  motion: { kind: 'enum', values: ['propagation', 'instant', 'off'], optional: 'propagation' } as EnumField,
   priority: num(0, 255, { integer: true }),
 } as const;
 
-/** Curve limits: x is the time scale; y ranges per curve kind (pitch: speed multiplier, tone: Hz, level: dB). */
+/** Optional fields of one group (files may omit them; the parser fills `groupOptionalDefaults`), in serialization order. */
+export const groupOptionalLimits = {
+  stretchPitch: 'curve',
+  stretchFreeze: oneOf('silence', 'hold'),
+} as const;
+
+/** Values of the optional group fields when a file omits them: pitch kept (0 cents), silence at time scale 0. */
+export const groupOptionalDefaults = Object.freeze({
+  stretchPitch: Object.freeze({ interpolation: 'linear' as const, keys: Object.freeze([Object.freeze({ x: 0, y: 0 })]) }),
+  stretchFreeze: 'silence' as const,
+});
+
+/** Curve limits: x is the time scale; y ranges per curve kind (pitch: speed multiplier, tone: Hz, level: dB, stretchPitch: cents). */
 export const curveLimits = {
   interpolation: oneOf('linear', 'monotone'),
   minKeys: 1,
@@ -92,6 +116,7 @@ export const curveLimits = {
     pitch: num(0, 4),
     tone: num(20, OPEN_CUTOFF_HZ),
     level: num(-96, 24),
+    stretchPitch: num(-2400, 2400),
   },
 } as const;
 
@@ -113,6 +138,7 @@ export const topLevelKeys: readonly string[] = ['version', ...Object.keys(sectio
 export const tuningLimits = Object.freeze({
   sections: sectionLimits,
   group: groupLimits,
+  groupOptional: groupOptionalLimits,
   curve: curveLimits,
   groups: groupsLimits,
   forbiddenKeys,
