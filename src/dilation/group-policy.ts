@@ -28,7 +28,7 @@ export class CompiledGroup {
   readonly tone: Curve;
   /** s → level in dB. */
   readonly level: Curve;
-  /** The same-instant Doppler ratio applies to positioned voices of this group (motion 'instant', or 'stretch' voices under 'propagation'). */
+  /** The same-instant Doppler ratio applies to positioned voices of this group: motion 'instant', and 'stretch' groups whose motion is not 'off' (the propagation path does not carry stretched voices). */
   readonly doppler: boolean;
   /** How positioned voices hear motion: 'off' also when the tuning's `doppler` is false. */
   readonly motion: MotionModel;
@@ -80,8 +80,7 @@ export class CompiledGroup {
     this.motion = group.doppler ? (group.motion ?? 'propagation') : 'off';
     this.priority = group.priority;
     this.stretches = group.policy === 'stretch';
-    // Stretched voices read through their own stage, not the propagation read: they take the same-instant ratio.
-    this.doppler = this.motion === 'instant' || (this.motion === 'propagation' && this.stretches);
+    this.doppler = this.motion === 'instant' || (this.stretches && this.motion !== 'off');
     this.stretchPitch = new Curve(group.stretchPitch ?? { interpolation: 'linear', keys: [{ x: 0, y: 0 }] });
     this.holdsWhenFrozen = this.stretches && group.stretchFreeze === 'hold';
   }
