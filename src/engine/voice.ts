@@ -83,6 +83,8 @@ export class Voice {
   readonly freezeStep: number;
   /** Set while frozen, until the resume fade has completed. */
   thawing = false;
+  /** Held by a pause or a pending seek (set by the engine each block): fades out and holds like a frozen voice. */
+  held = false;
   /** Slot index in the engine's pool. */
   index = 0;
   readonly targets: VoiceTargets = createVoiceTargets();
@@ -160,7 +162,7 @@ export class Voice {
    */
   render(mixL: Float32Array, mixR: Float32Array, offset: number, frames: number, scratch: VoiceScratch): boolean {
     const t = this.targets;
-    const frozen = t.frozen === true && this.followsTime;
+    const frozen = (t.frozen === true && this.followsTime) || this.held;
     if (this.state === VOICE_PLAYING) {
       this.envTarget = frozen ? 0 : 1;
       if (frozen) this.thawing = true;
