@@ -10,6 +10,7 @@ import type {
   Tuning,
   VoiceMonitor,
 } from '../src/index';
+import { decodeControlCommand, type ControlCommand, type VoiceEventsReport } from './control-commands';
 
 /** Name the processor is registered under. */
 export const PROCESSOR_NAME = 'ralenti-processor';
@@ -24,6 +25,8 @@ export interface ProcessorOptions {
   tuning: Tuning;
   /** Interval between stats reports in seconds of rendered audio (0.05…10). */
   statsIntervalSeconds: Seconds;
+  /** Seed of the per-play variation draws (a 32-bit integer; default 1). */
+  seed?: number;
 }
 
 /** Upload a decoded sound; the channel buffers are transferred, not copied. */
@@ -90,7 +93,8 @@ export type Command =
   | SnapshotCommand
   | TimeScaleCommand
   | TuningCommand
-  | SyncCommand;
+  | SyncCommand
+  | ControlCommand;
 
 /** The processor is constructed and its engine is running. */
 export interface ReadyReport {
@@ -134,7 +138,7 @@ export interface SyncedReport {
 }
 
 /** Everything the worklet sends back. */
-export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport;
+export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport | VoiceEventsReport;
 
 /** Transferable buffers of a command (a sound's channel buffers), for postMessage's transfer list. Snapshots are cloned, so the sender may reuse its array. */
 export function commandTransfer(command: Command): Transferable[] {
@@ -195,7 +199,7 @@ export function decodeCommand(data: unknown): Command | string {
     case 'sync':
       return isHandle(data.id) ? (data as unknown as SyncCommand) : 'sync.id: expected a handle';
     default:
-      return `command: unknown type "${String(data.type)}"`;
+      return decodeControlCommand(data) ?? `command: unknown type "${String(data.type)}"`;
   }
 }
 

@@ -2,6 +2,8 @@
 import { createRalenti, type Ralenti, type RalentiSource, type RalentiVoice, type Sound } from '../runtime';
 import { listeningGain, loadAutosaved, type ComparisonSource, type NamedVoice, type TuningProblem } from '../editor';
 import { SCENE_VOICES } from './script-sounds';
+import { sceneGroup } from './scene-groups';
+import { gainToDb } from '../src/dsp';
 import { clickSound, droneSound, generatorSound, kartSound, musicLoopSound, orbSound, type GeneratedSound } from './procedural-sounds';
 
 /** Everything the scene plays, with handles for the loop and the panel. */
@@ -61,7 +63,7 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
   const comparison: ComparisonSource[] = [];
   const start = (name: string, colour: string, sound: GeneratedSound, group: string, gain: number, source: RalentiSource | null): RalentiVoice => {
     const loaded = ralenti.load(sound);
-    const voice = ralenti.play(loaded, { group, loop: true, gain, ...(source ? { source } : {}) });
+    const voice = ralenti.play(loaded, { group: sceneGroup(ralenti.tuning, group), loop: true, gainDb: gainToDb(gain), ...(source ? { source } : {}) });
     voices.push({ voiceId: voice.id, name, colour });
     names.set(voice.id, name);
     comparison.push({ name, buffer: toBuffer(context, sound), voiceId: voice.id, positional: source !== null, pan: () => panOf(source) });
@@ -87,7 +89,8 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
     restored: saved.tuning !== null,
     restoreProblems: saved.problems,
     playClick: () => {
-      ralenti.play(click, { group: 'interface', gain: 0.25 });
+      // Looked up at each click: the editor may have switched to a tuning without an 'interface' group.
+      ralenti.play(click, { group: sceneGroup(ralenti.tuning, 'interface'), gainDb: gainToDb(0.25) });
     },
   };
 }

@@ -4,6 +4,7 @@ import { Engine } from '../../src/engine/index';
 import { parseTuning } from '../../src/tuning/index';
 import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
 import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type RenderLoad, type Report } from '../protocol';
+import { VoiceEventRelay } from './voice-event-relay';
 
 /** A millisecond clock for timing process(), and its name (reported with the load). */
 export interface RenderClock {
@@ -62,6 +63,7 @@ export class EngineHost {
   /** Exponentially weighted sums of the same (time constant LOAD_AVERAGE_SECONDS); their ratio is the load. */
   private busyAvgMs = 0;
   private audioAvgMs = 0;
+  private readonly relay: VoiceEventRelay;
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
@@ -69,7 +71,8 @@ export class EngineHost {
     this.clock = options.clock ?? null;
     this.sampleRate = options.sampleRate;
     this.timeOffset = options.startContextTime;
-    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning });
+    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, seed: p.seed });
+    this.relay = new VoiceEventRelay(this.engine, { voices: this.voices, owners: this.voiceOwners }, this.post);
     this.scratch = [new Float32Array(128), new Float32Array(128)];
     for (let i = 0; i < p.capacity; i++) this.monitors.push(emptyMonitor());
     const interval = Math.min(10, Math.max(0.05, Number(p.statsIntervalSeconds) || 0.25));
@@ -127,15 +130,14 @@ export class EngineHost {
         if (v >= 0) {
           this.voices.set(c.voice, v);
           this.voiceOwners.set(v, c.voice);
-        }
+        } else this.relay.refuse(c.voice);
         return;
       }
       case 'stop': {
         const v = this.voices.get(c.voice);
         if (v === undefined) return;
+        // The handle stays mapped until the engine reports the voice ended (after its fade).
         e.stop(v, c.fadeSeconds);
-        this.voices.delete(c.voice);
-        this.voiceOwners.delete(v);
         return;
       }
       case 'set-voice': {
@@ -159,7 +161,11 @@ export class EngineHost {
         e.setTuning(parseTuning(c.tuning));
         return;
       case 'sync':
+        this.relay.flush(this.timeOffset + e.time, true);
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
+        return;
+      default:
+        this.relay.apply(c);
         return;
     }
   }
@@ -191,6 +197,11 @@ export class EngineHost {
       silence(output);
       this.faulted = true;
       this.fail('process', errorMessage(err));
+    }
+    try {
+      this.relay.flush(this.timeOffset + this.engine.time);
+    } catch (err) {
+      this.fail('events', errorMessage(err));
     }
     this.framesSinceStats += frames;
     if (this.framesSinceStats >= this.statsIntervalFrames) {
@@ -252,6 +263,7 @@ export class EngineHost {
         this.voiceOwners.delete(engineVoice);
         this.voices.delete(mainVoice);
       }
+      this.relay.flush(this.timeOffset + this.engine.time, true);
       const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
       this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad() });
     } catch (err) {

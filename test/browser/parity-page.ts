@@ -1,6 +1,7 @@
 // Browser side of the parity suite: renders a ParityScene through createRalenti in an OfflineAudioContext,
 // applying each step at its frame with OfflineAudioContext.suspend() and waiting for the worklet to take it.
-import { createRalenti, type RalentiVoice } from '../../runtime/index';
+import { createRalenti, type RalentiPlayOptions, type RalentiVoice } from '../../runtime/index';
+import type { PlayOptions } from '../../src/index';
 import { createRalenti as createRalentiInline } from '../../runtime/inline';
 import { PARITY_RATE, type SceneAction, type SceneStep } from './parity-scene';
 
@@ -22,6 +23,17 @@ export interface PageRender {
   kernel: string;
 }
 
+/** The scene's engine-level play options in the runtime's units (gain in dB, loop points in seconds). */
+function runtimeOptions(o: PlayOptions, rate: number): RalentiPlayOptions {
+  const { gain, loopStart, loopEnd, sourceId: _sourceId, ...rest } = o;
+  return {
+    ...rest,
+    ...(gain === undefined ? {} : { gainDb: 20 * Math.log10(gain) }),
+    ...(loopStart === undefined ? {} : { loopStartSeconds: loopStart / rate }),
+    ...(loopEnd === undefined ? {} : { loopEndSeconds: loopEnd / rate }),
+  };
+}
+
 /** Renders with the processor from `workletUrl`, or from the inlined entry's Blob URL when it is null. */
 async function renderScene(scene: WireScene, workletUrl: string | null): Promise<PageRender> {
   const ctx = new OfflineAudioContext(2, scene.frames, PARITY_RATE);
@@ -34,8 +46,8 @@ async function renderScene(scene: WireScene, workletUrl: string | null): Promise
   const voices = new Map<number, RalentiVoice>();
   const apply = (actions: SceneAction[], frame: number) => {
     for (const a of actions) {
-      if (a.kind === 'play') voices.set(a.voice, r.play(sounds[a.sound], { ...a.options, source: a.source ? sources[a.source - 1] : undefined }));
-      else if (a.kind === 'stop') voices.get(a.voice)?.stop(a.fadeSeconds);
+      if (a.kind === 'play') voices.set(a.voice, r.play(sounds[a.sound], { ...runtimeOptions(a.options, scene.sounds[a.sound].sampleRate), source: a.source ? sources[a.source - 1] : undefined }));
+      else if (a.kind === 'stop') voices.get(a.voice)?.stop({ fade: a.fadeSeconds });
       else if (a.kind === 'set-ratio') voices.get(a.voice)?.setRatio(a.ratio);
       else if (a.kind === 'time-scale') r.setTimeScale(a.target, { ramp: a.ramp, easing: a.easing });
       else {
