@@ -187,7 +187,9 @@ export class Ralenti {
   /** Starts a voice; throws RalentiOptionError naming the bad option (unloaded sound, unknown group, range), and then starts nothing. */
   play(sound: Sound, options: RalentiPlayOptions = {}): RalentiVoice {
     this.alive('play');
-    if (this.loaded.get(sound?.id) !== sound) throw new RalentiOptionError('play.sound', 'not a loaded sound of this runtime (load() it first; unload() ends it)');
+    // By id (a rebuilt runtime reloads the same sounds under the same ids, e.g. the howler bridge), with the same shape.
+    const known = this.loaded.get(sound?.id);
+    if (!known || known.frames !== sound.frames || known.sampleRate !== sound.sampleRate) throw new RalentiOptionError('play.sound', 'not a loaded sound of this runtime (load() it first; unload() ends it)');
     const o: PlayOptions = checkPlayOptions(options, sound, this.current);
     const source = options.source ?? null;
     if (source) {
