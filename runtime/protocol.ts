@@ -27,6 +27,10 @@ export interface ProcessorOptions {
   statsIntervalSeconds: Seconds;
   /** Seed of the per-play variation draws (a 32-bit integer; default 1). */
   seed?: number;
+  /** Source slots of the engine (1…4096; default 256). */
+  maxSources?: number;
+  /** Groups with their own output (node outputs 1…k, stereo), at most 8. */
+  groupOutputs?: string[];
 }
 
 /** Upload a decoded sound; the channel buffers are transferred, not copied. */

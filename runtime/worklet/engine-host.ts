@@ -64,6 +64,8 @@ export class EngineHost {
   private busyAvgMs = 0;
   private audioAvgMs = 0;
   private readonly relay: VoiceEventRelay;
+  /** The node's routed group outputs of the current block (outputs 1…k; refilled each block, never reallocated). */
+  private readonly routed: Float32Array[][];
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
@@ -71,7 +73,11 @@ export class EngineHost {
     this.clock = options.clock ?? null;
     this.sampleRate = options.sampleRate;
     this.timeOffset = options.startContextTime;
-    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, seed: p.seed });
+    this.engine = new Engine({
+      sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, seed: p.seed,
+      maxSources: p.maxSources, groupOutputs: p.groupOutputs,
+    });
+    this.routed = (p.groupOutputs ?? []).map(() => []);
     this.relay = new VoiceEventRelay(this.engine, { voices: this.voices, owners: this.voiceOwners }, this.post);
     this.scratch = [new Float32Array(128), new Float32Array(128)];
     for (let i = 0; i < p.capacity; i++) this.monitors.push(emptyMonitor());
@@ -174,15 +180,16 @@ export class EngineHost {
    * Renders one block into `output` (the node's first output, one Float32Array per channel).
    * Never throws: on failure the block is silent, the error counted and reported. Returns true (keep alive).
    */
-  process(output: Float32Array[] | undefined): boolean {
+  process(output: Float32Array[] | undefined, all?: Float32Array[][]): boolean {
     if (!output || output.length === 0) return true;
+    for (let k = 0; k < this.routed.length; k++) this.routed[k] = all?.[k + 1] ?? EMPTY;
     const started = this.clock ? this.clock.now() : 0;
     const frames = output[0].length;
     try {
       if (this.faulted) {
         silence(output);
       } else if (output.length === 2) {
-        this.engine.render(output, frames);
+        this.engine.render(output, frames, this.routed);
       } else {
         this.renderVia(output, frames);
       }
@@ -285,6 +292,8 @@ export class EngineHost {
     }
   }
 }
+
+const EMPTY: Float32Array[] = [];
 
 function silence(output: Float32Array[]): void {
   for (const ch of output) ch.fill(0);

@@ -20,6 +20,8 @@ export interface EngineOptions {
   tuning?: Tuning;
   /** Resampler inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (reference), 'wasm-simd' (throws where unavailable). */
   kernel?: KernelPreference;
+  /** Groups that get their own stereo output (at most 8), in order: they leave after their bus gain, before the master gain and limiter. */
+  groupOutputs?: readonly string[];
   /** Seed of the per-play variation draws (pitchRange, gainRange), a 32-bit integer; default 1. Same seed, same plays: same samples. */
   seed?: number;
 }

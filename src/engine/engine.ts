@@ -18,6 +18,7 @@ import { VoiceControls, type VoiceStateName } from './voice-controls';
 import { EVENT_AUDIBLE, EVENT_VIRTUAL, VoiceEventRing } from './voice-events';
 import { drawVariation, MAX_PITCH_VARIATION_CENTS, MAX_GAIN_VARIATION_DB, MIN_GAIN_VARIATION_DB } from './play-variation';
 import { MAX_GROUP_VOLUME_DB, MIN_GROUP_VOLUME_DB } from './group-bus';
+import { GroupRoutes } from './group-routes';
 
 /** Frozen defaults of the engine's options and fades. */
 export const engineDefaults = Object.freeze({
@@ -62,6 +63,8 @@ export class Engine {
   readonly events = new VoiceEventRing();
   private readonly controls: VoiceControls;
   private readonly random: () => number;
+  private readonly routes: GroupRoutes;
+  private routeCeiling = 1;
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
   constructor(options: EngineOptions) {
@@ -84,7 +87,9 @@ export class Engine {
       this.voices.push(v);
     }
     this.pool = new VoicePool({ voices: this.voices, capacity: this.capacity, bank: this.bank, events: this.events });
-    this.controls = new VoiceControls(this.voices.length, this.events);
+    this.routes = new GroupRoutes(options.groupOutputs ?? [], this.maxBlock);
+    this.routeCeiling = Math.pow(10, t.master.ceilingDb / 20);
+    this.controls = new VoiceControls(this.voices.length, this.events, this.routes);
     this.random = seededRandom(options.seed ?? 1);
     const buf = () => new Float32Array(this.maxBlock);
     const stereo = [buf(), buf()];
@@ -215,6 +220,7 @@ export class Engine {
     this.mapper.setTuning(t);
     this.snapshots.configure(t.doppler.velocitySmoothingSeconds, t.doppler.teleportSpeed);
     this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
+    this.routeCeiling = Math.pow(10, t.master.ceilingDb / 20);
     const table = KernelTable.forTier(t.resampler.tier);
     const sm = this.smoothing(t);
     for (const v of this.voices) {
@@ -247,8 +253,11 @@ export class Engine {
     this.flow.set({ target: request.target, rampSeconds: request.rampSeconds, easing: request.easing, startTime }, this.controls.flowTime(now));
   }
 
-  /** Renders `frames` stereo frames into outputs[0] (left) and outputs[1] (right); never throws, never allocates. */
-  render(outputs: readonly Float32Array[], frames: number): void {
+  /**
+   * Renders `frames` stereo frames into outputs[0] (left) and outputs[1] (right), and each routed group (EngineOptions
+   * .groupOutputs, in order) into groupOutputs[k][0|1] when given; never throws, never allocates.
+   */
+  render(outputs: readonly Float32Array[], frames: number, groupOutputs?: readonly (readonly Float32Array[])[]): void {
     const st = this.stats;
     try {
       if (this.resident !== null && this.resident.stale(this.bus)) this.resident.bind(this.scratch, this.bus); // memory grew elsewhere
@@ -256,15 +265,16 @@ export class Engine {
       st.peakOut = 0;
       for (let done = 0; done < frames; ) {
         const n = frames - done < this.maxBlock ? frames - done : this.maxBlock;
-        this.block(outputs, done, n);
+        this.block(outputs, done, n, groupOutputs);
         done += n;
       }
     } catch {
       st.errors++;
       for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
+      if (groupOutputs !== undefined) for (const g of groupOutputs) for (const o of g) o.fill(0, 0, Math.min(frames, o.length));
     }
     const readerClamps = this.pool.count(st);
-    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.limiter.nonFinite + readerClamps;
+    st.clamps = this.engineClamps + this.routes.clamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.limiter.nonFinite + readerClamps;
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
     st.limiterDb = this.bus.limiter.reductionDb;
@@ -378,10 +388,12 @@ export class Engine {
     return k;
   }
 
-  private block(outputs: readonly Float32Array[], offset: number, n: number): void {
+  private block(outputs: readonly Float32Array[], offset: number, n: number, groupOutputs: readonly (readonly Float32Array[])[] | undefined): void {
     const mixL = this.bus.left;
     const mixR = this.bus.right;
     this.bus.clear(n);
+    const routes = this.routes;
+    routes.clear(n);
     // Control values at the block's midpoint: the smoothers then follow a moving target without a half-block lead.
     const tMid = (this.frameCount + n / 2) / this.sampleRate;
     this.snapshots.interpolate(tMid);
@@ -396,12 +408,14 @@ export class Engine {
       this.mapInto(v.targets, v.group, v.ratio * v.rateFactor, v.gain, v.sourceId === -1 ? -1 : v.sourceSlot, s);
       controls.beforeRender(v);
       const wasVirtual = v.virtual;
-      const alive = v.render(mixL, mixR, 0, n, this.scratch);
+      const route = controls.routeOf(v);
+      const alive = route < 0 ? v.render(mixL, mixR, 0, n, this.scratch) : v.render(routes.left[route], routes.right[route], 0, n, routes.scratchFor(this.scratch));
       controls.afterRender(v);
       if (v.virtual !== wasVirtual) this.events.push(v.virtual ? EVENT_VIRTUAL : EVENT_AUDIBLE, this.pool.handleOf(v));
       if (!alive) this.pool.free(v);
     }
     this.bus.finish(outputs, offset, n, this.stats);
+    routes.finish(groupOutputs, offset, n, this.routeCeiling);
     this.frameCount += n;
   }
 

@@ -9,3 +9,4 @@ export type { VoiceEventType } from './voice-events';
 export type { VoiceStateName } from './voice-controls';
 export { MIN_GROUP_VOLUME_DB, MAX_GROUP_VOLUME_DB } from './group-bus';
 export { MAX_PITCH_VARIATION_CENTS, MIN_GAIN_VARIATION_DB, MAX_GAIN_VARIATION_DB } from './play-variation';
+export { MAX_GROUP_OUTPUTS } from './group-routes';

@@ -4,6 +4,7 @@ import type { Seconds } from '../units';
 import { PauseClock, type SourceSpatial } from '../dilation';
 import { GroupBuses, type GroupBus } from './group-bus';
 import type { VoiceEventRing } from './voice-events';
+import type { GroupRoutes } from './group-routes';
 import { VOICE_FREE, VOICE_RELEASING, type Voice } from './voice';
 
 /** A voice's state as a game reads it. */
@@ -22,12 +23,16 @@ export class VoiceControls {
   private readonly bus: GroupBus[];
   private readonly sourceSpatial: (SourceSpatial | null)[];
   private readonly exempt: Uint8Array;
+  private readonly route: Int8Array;
+  private readonly routes: GroupRoutes | null;
   /** Pending seek per slot in source frames, −1 = none. */
   private readonly seekFrame: Float64Array;
 
   /** Preallocates the per-slot arrays for `slots` voice slots. */
-  constructor(slots: number, events: VoiceEventRing) {
+  constructor(slots: number, events: VoiceEventRing, routes: GroupRoutes | null = null) {
     this.events = events;
+    this.routes = routes;
+    this.route = new Int8Array(slots).fill(-1);
     const none = this.buses.bus('');
     this.bus = Array.from({ length: slots }, () => none);
     this.sourceSpatial = Array.from({ length: slots }, () => null);
@@ -37,8 +42,7 @@ export class VoiceControls {
 
   /** Binds slot `v` to its group's bus and its source's spatial settings (command path: may create the bus). */
   attach(v: Voice, exempt: boolean): void {
-    this.bus[v.index] = this.buses.bus(v.group);
-    this.exempt[v.index] = exempt ? 1 : 0;
+    this.rebind(v, exempt);
     this.sourceSpatial[v.index] = v.sourceId === -1 ? null : (this.spatial.get(v.sourceId) ?? null);
     this.seekFrame[v.index] = -1;
     v.held = false;
@@ -48,6 +52,12 @@ export class VoiceControls {
   rebind(v: Voice, exempt: boolean): void {
     this.bus[v.index] = this.buses.bus(v.group);
     this.exempt[v.index] = exempt ? 1 : 0;
+    this.route[v.index] = this.routes === null ? -1 : this.routes.indexOf(v.group);
+  }
+
+  /** Routed output index of slot `v`'s group, or −1 for the master bus. */
+  routeOf(v: Voice): number {
+    return this.route[v.index];
   }
 
   /** The spatial settings of slot `v`'s source, or null for the tuning's. */

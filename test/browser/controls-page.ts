@@ -36,3 +36,21 @@ async function pannerGains(cases: PannerCase[]): Promise<[number, number][]> {
 }
 
 Object.assign(globalThis, { pannerGains });
+
+/** Plays `samples` (48 kHz) looping in 'music' (routed, −6 dB) and at ratio 0.5 in 'interface'; renders the main output or music's own output. */
+async function renderRouted(samples: number[], which: 'main' | 'music', frames: number): Promise<number[][]> {
+  const ctx = new OfflineAudioContext(2, frames, 48000);
+  const { createRalenti } = await import('../../runtime/index');
+  const r = await createRalenti(ctx, { workletUrl: '/ralenti-processor.js', groupOutputs: ['music'] });
+  (which === 'main' ? r.node : r.groupOutput('music')).connect(ctx.destination);
+  const s = r.load({ channels: [Float32Array.from(samples)], sampleRate: 48000 });
+  r.play(s, { group: 'music', loop: true, fadeInSeconds: 0 });
+  r.play(s, { group: 'interface', loop: true, fadeInSeconds: 0, ratio: 0.5 });
+  r.setGroupVolume('music', -6);
+  await r.flush();
+  const b = await ctx.startRendering();
+  r.dispose();
+  return [Array.from(b.getChannelData(0)), Array.from(b.getChannelData(1))];
+}
+
+Object.assign(globalThis, { renderRouted });

@@ -10,6 +10,7 @@ import type { ParityScene } from './parity-scene';
 import type { PageRender, WireScene } from './parity-page';
 import type { PannerCase } from './controls-page';
 import { TargetMapper, createVoiceTargets, defaultTuning, type SourceSpatial } from '../../src/index';
+import { Engine } from '../../src/engine/index';
 
 const mode = browserSuiteMode();
 if (mode === 'skip') console.warn('browser suite skipped: /usr/bin/chromium is absent and CI is not set (apt-get install chromium, or run .ci/run)');
@@ -73,7 +74,7 @@ describe.skipIf(mode === 'skip')('game-facing controls in Chromium (OfflineAudio
       '/page.js': page,
       '/ralenti-processor.js': worklet,
     });
-    await session.page.waitForFunction(() => 'renderScene' in globalThis && 'pannerGains' in globalThis);
+    await session.page.waitForFunction(() => 'renderScene' in globalThis && 'pannerGains' in globalThis && 'renderRouted' in globalThis);
   });
 
   afterAll(async () => {
@@ -102,6 +103,30 @@ describe.skipIf(mode === 'skip')('game-facing controls in Chromium (OfflineAudio
     for (const st of late.steps) if (st.actions.some((a) => a.kind === 'pause' && a.group === undefined)) st.frame += 128;
     late.steps.sort((a, b) => a.frame - b.frame);
     expect(maxDiff(browser.left, renderInNode(late).left)).toBeGreaterThan(100 * TOLERANCE);
+  });
+
+  it('sends a routed group to its own node output and the rest to the main output, each within 1e-5 of Node', async () => {
+    const frames = 40 * 128;
+    const samples = Array.from({ length: 48000 }, (_, i) => 0.2 * Math.sin((2 * Math.PI * 440 * i) / 48000) + 0.2 * (i / 48000));
+    const page = (which: 'main' | 'music') =>
+      session!.page.evaluate(
+        ([x, w, n]) => (globalThis as unknown as { renderRouted(s: number[], w: string, n: number): Promise<number[][]> }).renderRouted(x, w, n),
+        [samples, which, frames] as const,
+      );
+    const [main, music] = [await page('main'), await page('music')];
+    const e = new Engine({ sampleRate: 48000, groupOutputs: ['music'] });
+    const s = e.addSound([Float32Array.from(samples)], 48000);
+    e.play(s, { group: 'music', loop: true, fadeInSeconds: 0 });
+    e.play(s, { group: 'interface', loop: true, fadeInSeconds: 0, ratio: 0.5 });
+    e.setGroupVolume('music', -6);
+    const out = [new Float32Array(frames), new Float32Array(frames)];
+    const route = [new Float32Array(frames), new Float32Array(frames)];
+    for (let o = 0; o < frames; o += 128) e.render(out.map((c) => c.subarray(o, o + 128)), 128, [route.map((c) => c.subarray(o, o + 128))]);
+    for (const ch of [0, 1]) {
+      expect(maxDiff(main[ch], out[ch])).toBeLessThanOrEqual(TOLERANCE);
+      expect(maxDiff(music[ch], route[ch])).toBeLessThanOrEqual(TOLERANCE);
+    }
+    expect(Math.max(...route[0].map(Math.abs))).toBeGreaterThan(0.05);
   });
 
   it.each(cases)('gives the gains of Chromium\'s equal-power PannerNode: %s', async (_name, patch) => {
