@@ -100,7 +100,7 @@ export class Ralenti {
   private readonly handles = new Map<number, { handle: VoiceHandle; source: RalentiSource | null }>();
   private readonly voiceListeners = new Set<(e: RalentiVoiceEvent) => void>();
   private readonly groupControls: GroupControls;
-  private closed = false;
+  private contextClosed = false;
   private readonly listener: Required<Omit<RalentiListener, 'velocity'>> & { velocity?: Vec3Like } = {
     position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 },
   };
@@ -140,6 +140,11 @@ export class Ralenti {
   /** Time scale now, evaluated on the main thread from the same transition the worklet runs. */
   get timeScale(): number {
     return this.flow.valueAt(this.pauseClock.flowTime(this.context.currentTime));
+  }
+
+  /** True after dispose() or once the AudioContext is closed: every call then throws RalentiClosedError. */
+  get closed(): boolean {
+    return this.disposed || this.isClosed();
   }
 
   /** True while the whole world is paused (pause() without a group). */
@@ -453,8 +458,8 @@ export class Ralenti {
   }
 
   private isClosed(): boolean {
-    if (!this.closed && this.context.state === 'closed') this.closed = true;
-    return this.closed;
+    if (!this.contextClosed && this.context.state === 'closed') this.contextClosed = true;
+    return this.contextClosed;
   }
 
   private emitError(e: RalentiAudioError): void {

@@ -177,3 +177,14 @@ describe('Ralenti sources', () => {
     expect(() => src.setSpatial({ coneOuterGain: 2 })).toThrow(expect.objectContaining({ field: 'setSpatial.coneOuterGain' }));
   });
 });
+
+describe('ThreeBinding on a closed runtime', () => {
+  it('skips its update while its target is disposed (between a howler rebuild and retarget), instead of throwing', async () => {
+    const { ThreeBinding } = await import('../../runtime/three/index');
+    const { r } = setup();
+    const binding = new ThreeBinding({ target: r });
+    r.dispose();
+    expect(r.closed).toBe(true);
+    expect(() => binding.update(1)).not.toThrow();
+  });
+});
