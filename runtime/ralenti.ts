@@ -2,12 +2,11 @@
 import type { Decibels, Easing, EngineSnapshot, EngineStats, PlayOptions, Seconds, Tuning, Vec3Like, VoiceMonitor } from '../src/index';
 import { parseTuning, MAX_TIME_SCALE } from '../src/tuning/index';
 import { PauseClock, TimeFlow } from '../src/dilation/index';
-import { voiceEventName } from '../src/engine/index';
 import { commandTransfer, encodeSnapshot, type Command, type RenderLoad, type Report } from './protocol';
-import type { VoiceEventsReport } from './control-commands';
 import { RalentiClosedError, RalentiOptionError, checkRange } from './runtime-error';
 import { RalentiSource } from './ralenti-source';
-import { VoiceHandle, type RalentiVoice, type RalentiVoiceEvent } from './ralenti-voice';
+import type { RalentiVoice, RalentiVoiceEvent, VoiceHandle, VoiceHandleHost } from './ralenti-voice';
+import { VoiceRegistry } from './voice-registry';
 import { GroupControls, type GroupState } from './group-controls';
 import { checkPlayOptions, type RalentiPlayOptions } from './play-options';
 
@@ -95,10 +94,8 @@ export class Ralenti {
   private readonly flow = new TimeFlow({ initial: 1 });
   private readonly pauseClock = new PauseClock();
   private readonly sources = new Set<RalentiSource>();
-  private readonly voiced = new Set<RalentiSource>();
   private readonly loaded = new Map<number, Sound>();
-  private readonly handles = new Map<number, { handle: VoiceHandle; source: RalentiSource | null }>();
-  private readonly voiceListeners = new Set<(e: RalentiVoiceEvent) => void>();
+  private readonly registry: VoiceRegistry;
   private readonly groupControls: GroupControls;
   private contextClosed = false;
   private readonly listener: Required<Omit<RalentiListener, 'velocity'>> & { velocity?: Vec3Like } = {
@@ -121,6 +118,7 @@ export class Ralenti {
     this.capacity = init.capacity;
     this.current = init.tuning;
     this.maxSources = init.maxSources ?? 256;
+    this.registry = new VoiceRegistry(this.voiceHost);
     this.snapshot = { time: 0, listener: this.listener, sources: [] };
     this.groupControls = new GroupControls({ send: (c) => this.send(c), tuning: () => this.current, context: this.context, node: this.node, routed: init.groupOutputs ?? [] });
     // A closed context answers no more messages: settle every waiting flush() then.
@@ -205,19 +203,12 @@ export class Ralenti {
     this.send({ type: 'play', voice: id, sound: sound.id, options: o });
     const rate = sound.sampleRate;
     const loop = o.loop === true ? { start: (o.loopStart ?? 0) / rate, end: (o.loopEnd ?? sound.frames) / rate } : null;
-    const handle = new VoiceHandle(id, this.voiceHost, sound.duration, loop, o.offsetSeconds ?? 0);
-    this.handles.set(id, { handle, source });
-    if (source) {
-      source.voiceCount++;
-      this.voiced.add(source);
-    }
-    return handle;
+    return this.registry.add(id, sound.duration, loop, o.offsetSeconds ?? 0, source);
   }
 
   /** Calls `cb` for every voice event of this runtime, in order; returns an unsubscribe function. */
   onVoiceEvent(cb: (e: RalentiVoiceEvent) => void): () => void {
-    this.voiceListeners.add(cb);
-    return () => this.voiceListeners.delete(cb);
+    return this.registry.listen(cb);
   }
 
   /**
@@ -285,7 +276,7 @@ export class Ralenti {
     this.sources.add(s);
     s.onDispose = () => {
       this.sources.delete(s);
-      this.voiced.delete(s);
+      this.registry.voiced.delete(s);
     };
     return s;
   }
@@ -335,7 +326,7 @@ export class Ralenti {
     const list = this.snapshot.sources;
     list.length = 0;
     const all = this.sources.size <= this.maxSources;
-    const pool = all ? this.sources : this.voiced;
+    const pool = all ? this.sources : this.registry.voiced;
     for (const s of pool) {
       if (s.spatialChanged) this.send({ type: 'source-spatial', source: s.id, spatial: s.takeSpatial() });
       if (list.length < this.maxSources) list.push(s.snapshotState());
@@ -398,7 +389,7 @@ export class Ralenti {
         this.emitError({ where: r.where, message: r.message, count: r.count });
         return;
       case 'voice-events':
-        this.voiceEvents(r);
+        this.registry.receive(r);
         return;
       case 'synced': {
         const w = this.syncWaiters.get(r.id);
@@ -411,7 +402,7 @@ export class Ralenti {
     }
   }
 
-  private readonly voiceHost = {
+  private readonly voiceHost: VoiceHandleHost = {
     now: () => this.context.currentTime,
     stop: (h: VoiceHandle, fade: Seconds | undefined) => {
       this.alive('stop');
@@ -432,25 +423,6 @@ export class Ralenti {
       this.send({ type: 'set-voice', voice: h.id, ratio: checkRatio('setRatio.ratio', ratio) });
     },
   };
-
-  /** Delivers a batch of voice events in order, then takes the reported positions. */
-  private voiceEvents(r: VoiceEventsReport): void {
-    const ev = r.events;
-    for (let k = 0; k + 2 < ev.length; k += 3) {
-      const entry = this.handles.get(ev[k]);
-      if (!entry) continue;
-      const e: RalentiVoiceEvent = { type: voiceEventName(ev[k + 1]), voice: entry.handle, contextTime: ev[k + 2] };
-      if (e.type === 'ended') {
-        this.handles.delete(ev[k]);
-        const src = entry.source;
-        if (src && --src.voiceCount === 0) this.voiced.delete(src);
-      }
-      entry.handle.deliver(e);
-      for (const cb of this.voiceListeners) cb(e);
-    }
-    const p = r.positions;
-    for (let k = 0; k + 2 < p.length; k += 3) this.handles.get(p[k])?.handle.report(p[k + 1], p[k + 2], r.contextTime);
-  }
 
   private settleWaiters(): void {
     for (const resolve of this.syncWaiters.values()) resolve();
