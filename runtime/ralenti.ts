@@ -127,7 +127,11 @@ export class Ralenti {
       if (this.context.state === 'closed') this.settleWaiters();
     });
     this.node.port.onmessage = (e: MessageEvent) => this.receive(e.data as Report);
-    this.node.onprocessorerror = () => this.emitError({ where: 'processorerror', message: 'the processor failed and stopped', count: -1 });
+    this.node.onprocessorerror = () => {
+      // A stopped processor answers nothing more: settle the waiting flushes rather than leave them hanging.
+      this.settleWaiters();
+      this.emitError({ where: 'processorerror', message: 'the processor failed and stopped', count: -1 });
+    };
   }
 
   /** The running tuning (validated). */

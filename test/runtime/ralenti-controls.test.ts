@@ -64,6 +64,25 @@ describe('Ralenti errors', () => {
   });
 });
 
+describe('Ralenti flush', () => {
+  it('settles waiting flushes when the processor fails and when the context closes', async () => {
+    const { node, r, context } = setup();
+    const a = r.flush();
+    node.onprocessorerror?.();
+    await expect(a).resolves.toBeUndefined();
+    const listeners: (() => void)[] = [];
+    const ctx = context as unknown as { addEventListener: (t: string, cb: () => void) => void; state: string };
+    const { node: n2 } = setup();
+    ctx.addEventListener = (_t, cb) => listeners.push(cb);
+    const r2 = new Ralenti({ context, node: n2 as unknown as AudioWorkletNode, tuning: defaultTuning, capacity: 8 });
+    const b = r2.flush();
+    ctx.state = 'closed';
+    listeners.forEach((cb) => cb());
+    await expect(b).resolves.toBeUndefined();
+    expect(r.closed && r2.closed).toBe(true);
+  });
+});
+
 describe('Ralenti group buses and pause', () => {
   it('sends group volume, mute, solo and pausable, and reports the state it set', () => {
     const { node, r } = setup();
