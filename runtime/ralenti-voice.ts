@@ -1,6 +1,7 @@
 // A playing voice as the game holds it: state and position kept from the worklet's reports, events delivered in
 // order, and the calls (stop, seek, gain, ratio) sent as messages.
 import type { Decibels, Seconds, VoiceEventType } from '../src/index';
+import { checkRange } from './runtime-error';
 
 /** A voice's state: 'playing', 'virtual' (inaudible, not rendered, keeping time), 'stopping' (fading out) or 'ended'. */
 export type RalentiVoiceState = 'playing' | 'virtual' | 'stopping' | 'ended';
@@ -85,6 +86,7 @@ export class VoiceHandle implements RalentiVoice {
 
   seek(seconds: Seconds): void {
     if (this.state === 'ended') return;
+    checkRange('seek.seconds', seconds, 0, this.duration);
     this.host.seek(this, seconds);
     this.pos = seconds;
     this.at = this.host.now();

@@ -155,6 +155,7 @@ describe('Ralenti voice handles', () => {
     v.seek(0.03);
     expect(node.commands('seek')).toEqual([{ type: 'seek', voice: v.id, seconds: 0.03 }]);
     expect(v.position).toBeCloseTo(0.03, 12);
+    expect(() => v.seek(0.2)).toThrow(expect.objectContaining({ field: 'seek.seconds' }));
   });
 });
 
