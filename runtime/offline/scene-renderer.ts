@@ -56,7 +56,7 @@ export function renderLoadedScene(script: SceneScript, sounds: Readonly<Record<s
   const t = options.tier && options.tier !== tuning.resampler.tier ? { ...tuning, resampler: { tier: options.tier } } : tuning;
   const voices = script.voices.map((v, i) => ({ spec: v, index: i })).filter(({ spec, index }) => options.voiceFilter?.(spec, index) ?? true);
   const sourceNames = Object.keys(script.sources);
-  const engine = new Engine({ sampleRate: sr, capacity: Math.min(1024, Math.max(64, voices.length)), maxSources: Math.max(16, sourceNames.length), tuning: t });
+  const engine = new Engine({ sampleRate: sr, capacity: Math.min(1024, Math.max(64, voices.length)), maxSources: Math.max(16, sourceNames.length), tuning: t, seed: script.seed });
   const soundIds = new Map<string, number>();
   for (const [name, buf] of Object.entries(sounds)) soundIds.set(name, engine.addSound(buf.channels, buf.sampleRate));
   const ids = sceneSourceIds(script);
@@ -147,5 +147,7 @@ function startVoice(engine: Engine, v: VoiceSpec, sound: number, buf: SoundBuffe
     ratio: v.ratio,
     priority: v.priority ?? undefined,
     sourceId,
+    pitchRange: v.pitchRange ?? undefined,
+    gainRange: v.gainRange ?? undefined,
   });
 }
