@@ -7,5 +7,8 @@ export type { RalentiVoiceEvent, RalentiVoiceState, StopOptions, GroupState } fr
 export { RalentiSource } from './ralenti-source';
 export { RalentiOptionError, RalentiClosedError } from './runtime-error';
 export { defaultWorkletUrl, workletBlobUrl } from './worklet-url';
+export { decodeAudioFile, DECODE_RATE_RANGE } from './decode-audio-file';
+export type { DecodeAudioFileOptions } from './decode-audio-file';
+export { audioFileSampleRate } from './audio-file-rate';
 export { PROCESSOR_NAME, type RenderLoad } from './protocol';
 export { TuningError, defaultTuning, parseTuning, serializeTuning } from '../src/tuning/index';

@@ -2,6 +2,7 @@
 // into src/dsp/wasm/kernel-bytes.generated.ts (gitignored), so that bundles inline the module and need no fetch.
 // Run directly (`node scripts/build-wasm.mjs [--force]`) or import `buildWasm`; it skips the compile when up to date.
 import { createHash } from 'node:crypto';
+import { createRequire } from 'node:module';
 import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -17,7 +18,9 @@ export const wasmOutput = join(repo, 'src', 'dsp', 'wasm', 'kernel-bytes.generat
 const ascFlags = ['-O3', '--runtime', 'stub', '--noAssert', '--use', 'abort=', '--enable', 'simd'];
 
 function sourceHash() {
-  const ascVersion = JSON.parse(readFileSync(join(repo, 'node_modules', 'assemblyscript', 'package.json'), 'utf8')).version;
+  // Found by module resolution, so that dependencies hoisted to a workspace's root are found too.
+  const ascPackage = createRequire(import.meta.url).resolve('assemblyscript/package.json');
+  const ascVersion = JSON.parse(readFileSync(ascPackage, 'utf8')).version;
   const h = createHash('sha256');
   h.update(readFileSync(wasmSource));
   h.update(ascFlags.join(' '));

@@ -43,6 +43,8 @@ export async function buildScene({ outdir = defaultOutdir, watch = false, log = 
   await mkdir(outdir, { recursive: true });
   await copyStatic(outdir);
   let first = true;
+  let firstBuilt;
+  const firstBuild = new Promise((done) => (firstBuilt = done));
   const rebuildNotice = {
     name: 'ralenti-rebuild',
     setup(build) {
@@ -52,6 +54,7 @@ export async function buildScene({ outdir = defaultOutdir, watch = false, log = 
         const errors = result.errors.length;
         if (!first || errors) log(errors ? `scene build: ${errors} error(s)` : 'scene rebuilt');
         first = false;
+        firstBuilt();
       });
     },
   };
@@ -71,7 +74,8 @@ export async function buildScene({ outdir = defaultOutdir, watch = false, log = 
     return { dispose: async () => {} };
   }
   const ctx = await esbuild.context(options);
-  await ctx.rebuild().catch(() => {});
+  // watch() starts with a build of its own: wait for that one instead of building twice.
   await ctx.watch();
+  await firstBuild;
   return { dispose: () => ctx.dispose() };
 }

@@ -1,7 +1,16 @@
 // Runs the type checks and every vitest suite, then prints the plain "N passed, N failed" line CI reads.
 import { spawnSync } from 'node:child_process';
 import { readFileSync, rmSync, existsSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import { dirname, join } from 'node:path';
 import { buildWasm } from './build-wasm.mjs';
+
+/** A package's program, found by module resolution (so hoisted dependencies in a workspace are found too). */
+function program(pkg) {
+  const manifest = createRequire(import.meta.url).resolve(`${pkg}/package.json`);
+  const { bin } = JSON.parse(readFileSync(manifest, 'utf8'));
+  return join(dirname(manifest), typeof bin === 'string' ? bin : bin[pkg === 'typescript' ? 'tsc' : pkg]);
+}
 
 const extra = process.argv.slice(2);
 let failed = 0;
@@ -17,14 +26,14 @@ function run(cmd, args) {
 
 for (const project of ['tsconfig.json', 'tsconfig.core.json']) {
   console.log(`\n# type check (${project})`);
-  if (run('npx', ['tsc', '--noEmit', '-p', project])) passed += 1;
+  if (run(process.execPath, [program('typescript'), '--noEmit', '-p', project])) passed += 1;
   else failed += 1;
 }
 
 const report = '.vitest-report.json';
 rmSync(report, { force: true });
 console.log('\n# vitest');
-run('npx', ['vitest', 'run', '--reporter=default', '--reporter=json', `--outputFile=${report}`, ...extra]);
+run(process.execPath, [program('vitest'), 'run', '--reporter=default', '--reporter=json', `--outputFile=${report}`, ...extra]);
 if (existsSync(report)) {
   const r = JSON.parse(readFileSync(report, 'utf8'));
   passed += r.numPassedTests;

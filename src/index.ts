@@ -13,9 +13,7 @@ export type { SourceSpatial } from './dilation';
 export type { VoiceStateName, VoiceEventType } from './engine';
 export { parseTuning, serializeTuning, TuningError, defaultTuning, TUNING_VERSION, DEFAULT_GROUP, tuningLimits, OPEN_CUTOFF_HZ, MAX_TIME_SCALE } from './tuning';
 export type { TuningIssue } from './tuning';
-// Analysis (pitch tracking, spectrum, levels, pitch error statistics).
-export { yinPitch, YinEstimator, trackPitch, PitchTracker, magnitudeSpectrum, peakFrequency, toneLevelDb, SpectrumAnalyzer, rmsLevel, peakLevel, rmsDb, peakDb, centsBetween, pitchErrorStats } from './analysis';
-export type { YinOptions, PitchEstimate, PitchTrackerOptions, PitchTrack, SpectrumOptions, SpectralPeak, PitchErrorStats } from './analysis';
+// Analysis (pitch tracking, spectrum, levels) needs fft.js: it is its own entry, 'ralenti/analysis' (src/analysis/index.ts).
 // DSP (resampler, kernel tables, biquad low-pass, smoothing, unit helpers).
 export { resample, qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, KernelTable, StreamReader, DspArgumentError, BiquadLowpass, OnePoleSmoother, dbToGain, gainToDb, centsToRatio, ratioToCents } from './dsp';
 export { wasmSimdSupported, activeKernel } from './dsp';

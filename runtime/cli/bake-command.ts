@@ -3,7 +3,7 @@
 import { resample, qualityTiers, MAX_RATIO, ratioToCents } from '../../src/dsp';
 import type { QualityTierName } from '../../src/index';
 import type { WavEncoding } from '../offline';
-import { CliError, EXIT, choiceOption, numberOption, parseArgs, type CliIo } from './cli-io';
+import { CliError, EXIT, choiceOption, numberOption, parseArgs, progressBar, type CliIo } from './cli-io';
 import { formatDb, peakDbfs, readWavFile, refuseOverwrite, writeWavFile } from './cli-files';
 import type { CliCommand } from './cli-command';
 
@@ -19,11 +19,12 @@ options:
   -o, --output <file>     WAV file to write (required; never the input)
   --tier <name>           resampler tier: ${qualityTiers.join(', ')} (default standard)
   --encoding <name>       float32, pcm24 or pcm16 (default: the input's)
+  -q, --quiet             no progress on stderr
   -h, --help              this help
 `;
 
 async function run(args: readonly string[], io: CliIo): Promise<number> {
-  const p = parseArgs(args, { output: true, speed: true, tier: true, encoding: true, help: false }, { o: 'output', h: 'help' });
+  const p = parseArgs(args, { output: true, speed: true, tier: true, encoding: true, quiet: false, help: false }, { o: 'output', q: 'quiet', h: 'help' });
   if (p.options.has('help')) {
     io.out(usage);
     return EXIT.ok;
@@ -39,7 +40,13 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
   refuseOverwrite(output, [input]);
   const wav = readWavFile(input);
   if (wav.channels[0].length === 0) throw new CliError(`${input} holds no samples`, EXIT.input);
-  const channels = wav.channels.map((c) => resample(c, speed, { quality: tier }));
+  const bar = p.options.has('quiet') ? null : progressBar(io, 'baking');
+  const channels = wav.channels.map((c, i, all) => {
+    const out = resample(c, speed, { quality: tier });
+    bar?.update((i + 1) / all.length);
+    return out;
+  });
+  bar?.done();
   const enc: WavEncoding = encoding ?? (wav.encoding === 'pcm32' ? 'float32' : wav.encoding);
   writeWavFile(output, { sampleRate: wav.sampleRate, channels, encoding: enc });
   const inSeconds = wav.channels[0].length / wav.sampleRate;

@@ -4,11 +4,16 @@ import type { CliCommand } from './cli-command';
 import { renderCommand } from './render-command';
 import { bakeCommand } from './bake-command';
 import { checkCommand } from './check-command';
+import { version } from '../../package.json';
+
+/** The package's version, as `ralenti --version` prints it. */
+export const RALENTI_VERSION: string = version;
 
 /** The sub-commands, in the order `ralenti --help` lists them. A new command is one file plus one entry here. */
 export const commands: readonly CliCommand[] = [renderCommand, bakeCommand, checkCommand];
 
 const overview = () => `usage: ralenti <command> [arguments]
+       ralenti --version | --help
 
 commands:
 ${commands.map((c) => `  ${c.name.padEnd(8)} ${c.summary}`).join('\n')}
@@ -21,6 +26,14 @@ Start listening at a low volume: rendered files can be loud (the master limiter 
 /** Runs the tool with `argv` (the arguments after the program name); resolves to the exit code. */
 export async function main(argv: readonly string[], io: CliIo): Promise<number> {
   const [name, ...rest] = argv;
+  if (name === '--version' || name === '-V') {
+    io.out(`${RALENTI_VERSION}\n`);
+    return EXIT.ok;
+  }
+  if (name !== undefined && name.startsWith('-') && name !== '--help' && name !== '-h') {
+    io.err(`ralenti: unknown option ${name}\n\n${overview()}`);
+    return EXIT.usage;
+  }
   if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
     if (name === 'help' && rest[0]) return main([rest[0], '--help'], io);
     io.out(overview());

@@ -9,7 +9,7 @@ import type { CliCommand } from './cli-command';
 
 const usage = `usage: ralenti render <scene.json> -o <out.wav> [options]
 
-Renders a scene script (see the README's "Scene scripts") offline with the engine.
+Renders a scene script (see docs/cli.md, "Scene scripts") offline with the engine.
 
 options:
   -o, --output <file>     WAV file to write (required; never one of the inputs)

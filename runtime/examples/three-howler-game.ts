@@ -1,4 +1,4 @@
-// README example: Ralenti in a three.js + howler game (type-checked; the README quotes it with package imports).
+// docs/guide.md example: Ralenti in a three.js + howler game (type-checked; docs/guide.md quotes it with package imports).
 import type { Camera, Object3D } from 'three';
 import { HowlerBridge, type HowlerGlobalLike } from '../howler/index';
 import { ThreeBinding } from '../three/index';

@@ -1,4 +1,4 @@
-// README example: the two ways to load the worklet (type-checked; the README quotes it with package imports).
+// docs/guide.md example: the two ways to load the worklet (type-checked; docs/guide.md quotes it with package imports).
 import { createRalenti } from '../index';
 import { createRalenti as createRalentiInline } from '../inline';
 

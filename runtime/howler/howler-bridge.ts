@@ -2,6 +2,7 @@
 // into Howler.masterGain (so howler's unlock, mute and volume govern it), keeps autoSuspend off while we play,
 // and rebuilds on a replaced context (after Howler.unload()). Public howler API only.
 import { createRalenti, type CreateRalentiOptions } from '../create-ralenti';
+import { decodeAudioFile } from '../decode-audio-file';
 import type { Ralenti, Sound } from '../ralenti';
 import { RalentiOptionError } from '../runtime-error';
 import type { HowlerGlobalLike } from './howler-types';
@@ -108,8 +109,8 @@ export class HowlerBridge {
   }
 
   /**
-   * Loads a Howl's src through the engine: picks the first playable URL, fetches it and decodes it with
-   * Howler.ctx.decodeAudioData (howler's decoded cache is private). Refuses html5 Howls.
+   * Loads a Howl's src through the engine: picks the first playable URL, fetches it and decodes it at the file's own
+   * sample rate (decodeAudioFile; formats whose rate the header does not give decode on Howler.ctx). Refuses html5 Howls.
    */
   async loadSrc(src: string | string[], options: HowlSourceOptions = {}): Promise<Sound> {
     if (options.html5) {
@@ -121,7 +122,7 @@ export class HowlerBridge {
     const res = await this.fetcher(url);
     if (!res.ok) throw new Error(`could not fetch ${url}: HTTP ${res.status}`);
     const bytes = await res.arrayBuffer();
-    const buffer = await r.context.decodeAudioData(bytes);
+    const buffer = await decodeAudioFile(bytes, { context: r.context });
     this.decoded.push(buffer);
     return r.load(buffer);
   }

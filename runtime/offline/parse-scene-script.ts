@@ -1,4 +1,4 @@
-// Parser of the scene script (see scene-types.ts and the README's "Scene scripts"): validates a
+// Parser of the scene script (see scene-types.ts and docs/cli.md "Scene scripts"): validates a
 // JSON value, fills defaults and reports every problem with its JSON path.
 import { ScriptError, type ScriptIssue } from './script-error';
 import type {

@@ -1,4 +1,4 @@
-// Resampler quality tiers: each names a Kaiser-windowed sinc design; the measured figures are in README.md.
+// Resampler quality tiers: each names a Kaiser-windowed sinc design; the measured figures are in docs/benchmarks.md.
 import type { QualityTierName } from '../tuning/tuning-types';
 
 export type { QualityTierName };

@@ -1,6 +1,6 @@
-// The README's "Pitch analysis" example, kept here so that it is type-checked and run (test/analysis/readme.test.ts).
+// docs/guide.md's "Pitch analysis" example, kept here so that it is type-checked and run (test/analysis/readme.test.ts).
 // README-EXAMPLE-START
-import { trackPitch, pitchErrorStats } from '../../src/index';
+import { trackPitch, pitchErrorStats } from '../../src/analysis';
 
 const sampleRate = 48000;
 const signal = new Float32Array(sampleRate); // one second of a 440 Hz tone

@@ -7,16 +7,16 @@ const root = resolve(__dirname, '../..');
 function exampleFromFile(): string {
   const text = readFileSync(resolve(__dirname, 'readme-example.ts'), 'utf8');
   const body = text.split('// README-EXAMPLE-START\n')[1].split('// README-EXAMPLE-END')[0];
-  return body.replace("from '../../src/index'", "from 'ralenti'").trim();
+  return body.replace("from '../../src/analysis'", "from 'ralenti/analysis'").trim();
 }
 
 function exampleFromReadme(): string {
-  const readme = readFileSync(resolve(root, 'README.md'), 'utf8');
+  const readme = readFileSync(resolve(root, 'docs', 'guide.md'), 'utf8');
   const section = readme.split('## Pitch analysis')[1] ?? '';
   return (section.split('```ts\n')[1] ?? '').split('```')[0].trim();
 }
 
-describe('README pitch analysis example', () => {
+describe('docs/guide.md pitch analysis example', () => {
   it('is the same code as test/analysis/readme-example.ts', () => {
     expect(exampleFromReadme()).toBe(exampleFromFile());
   });

@@ -18,7 +18,7 @@ describe('npm run build (scripts/build.mjs)', () => {
   afterAll(() => rmSync(out, { recursive: true, force: true }));
 
   it('writes the ESM entries, the worklet as its own file, and declarations for core and runtime', () => {
-    for (const f of ['index.js', 'runtime.js', 'runtime-inline.js', 'three.js', 'howler.js', 'ralenti-processor.js']) {
+    for (const f of ['index.js', 'analysis.js', 'runtime.js', 'runtime-inline.js', 'three.js', 'howler.js', 'ralenti-processor.js']) {
       expect(existsSync(join(out, f)), f).toBe(true);
     }
     for (const f of ['src/index.d.ts', 'runtime/index.d.ts', 'runtime/inline.d.ts', 'runtime/three/index.d.ts', 'runtime/howler/index.d.ts']) {
@@ -69,10 +69,54 @@ describe('npm run build (scripts/build.mjs)', () => {
       expect(t.endsWith('.ts') && !t.endsWith('.d.ts'), `${t}: a TypeScript source file`).toBe(false);
       const path = t.startsWith('./dist/') ? join(out, t.slice('./dist/'.length)) : join(__dirname, '../..', t);
       expect(existsSync(path), t).toBe(true);
+      if (t === './package.json') continue; // npm always packs the manifest
       expect(pkg.files.some((f: string) => t.slice(2) === f || t.slice(2).startsWith(`${f}/`)), `${t} in "files"`).toBe(true);
     }
     expect(pkg.files).toContain('dist');
     expect(pkg.scripts.prepack).toMatch(/scripts\/build\.mjs/);
+  });
+
+  it('has no install-time script in the manifest (npm runs these in every game that installs the package)', () => {
+    const pkg = JSON.parse(readFileSync(join(__dirname, '../..', 'package.json'), 'utf8'));
+    // npm docs, "scripts" (Life Cycle Scripts): preinstall, install, postinstall and prepare run on install (docs/references.md §15f).
+    for (const s of ['preinstall', 'install', 'postinstall', 'prepare']) expect(pkg.scripts?.[s], s).toBeUndefined();
+  });
+
+  it('lists as dependencies exactly the bare packages the published bundles import, and nothing else', () => {
+    const pkg = JSON.parse(readFileSync(join(__dirname, '../..', 'package.json'), 'utf8'));
+    const imported = new Set<string>();
+    for (const f of readdirSync(out).filter((n) => n.endsWith('.js'))) {
+      for (const m of readFileSync(join(out, f), 'utf8').matchAll(/\bfrom\s*["']([^"'.][^"']*)["']|\bimport\s*\(\s*["']([^"'.][^"']*)["']/g)) {
+        imported.add((m[1] ?? m[2]).split('/').slice(0, (m[1] ?? m[2]).startsWith('@') ? 2 : 1).join('/'));
+      }
+    }
+    expect([...imported].sort()).toEqual(Object.keys(pkg.dependencies ?? {}).sort());
+    // three, howler and tweakpane are the game's own copies: optional peers, never hard dependencies.
+    for (const p of ['three', 'howler', 'tweakpane']) {
+      expect(pkg.dependencies?.[p], p).toBeUndefined();
+      expect(pkg.peerDependenciesMeta?.[p]?.optional, p).toBe(true);
+    }
+  });
+
+  it('writes declarations whose relative imports name a .js file that exists beside them (NodeNext resolution)', () => {
+    const bad: string[] = [];
+    let checked = 0;
+    const walk = (dir: string) => {
+      for (const f of readdirSync(dir, { withFileTypes: true })) {
+        const path = join(dir, f.name);
+        if (f.isDirectory()) walk(path);
+        else if (f.name.endsWith('.d.ts')) {
+          for (const m of readFileSync(path, 'utf8').matchAll(/(?:\bfrom\s*|\bimport\s*\(\s*)["'](\.[^"']*)["']/g)) {
+            checked += 1;
+            const spec = m[1];
+            if (!spec.endsWith('.js') || !existsSync(join(dir, spec.replace(/\.js$/, '.d.ts')))) bad.push(`${path}: ${spec}`);
+          }
+        }
+      }
+    };
+    walk(join(out, 'types'));
+    expect(checked).toBeGreaterThan(50);
+    expect(bad).toEqual([]);
   });
 
   it('loads the core bundle as plain ESM in Node', async () => {

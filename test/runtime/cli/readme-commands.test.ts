@@ -1,15 +1,14 @@
-// The README's `npx ralenti …` lines, run through the tool's main() (via runCli): each command works as shown, and the printed
-// check output matches the README's text block. Outputs go to a temporary folder, never over repository files.
+// docs/cli.md's `npx ralenti …` lines, run through the tool's main() (via runCli): each command works as shown, and the printed
+// check output matches the text block shown there. Outputs go to a temporary folder, never over repository files.
 import { describe, expect, it, beforeAll } from 'vitest';
-import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { basename, join, resolve } from 'node:path';
 import { tmpdir } from 'node:os';
 import { commands } from '../../../runtime/cli/ralenti';
-import { writeWav } from '../../../runtime/offline';
 import { runCli } from './run-cli';
 
 const root = resolve(__dirname, '../../..');
-const readme = readFileSync(join(root, 'README.md'), 'utf8');
+const readme = readFileSync(join(root, 'docs', 'cli.md'), 'utf8');
 
 /** Every `npx ralenti …` line of the README's sh blocks, without its trailing comment, split into words. */
 function readmeCommands(): string[][] {
@@ -39,13 +38,11 @@ const run = (argv: string[]) => runCli(argv);
 
 let dir = '';
 beforeAll(() => {
+  // Lines run in order in one folder: `bake` reads the file the `render` line before it wrote.
   dir = mkdtempSync(join(tmpdir(), 'ralenti-readme-'));
-  // The README bakes "footsteps.wav", a file of the reader's; a short stereo tone stands in for it.
-  const x = new Float32Array(12000).map((_, i) => 0.25 * Math.sin((2 * Math.PI * 440 * i) / 48000));
-  writeFileSync(join(dir, 'footsteps.wav'), writeWav({ sampleRate: 48000, channels: [x, x], encoding: 'pcm16' }));
 });
 
-describe('README command lines', () => {
+describe('docs/cli.md command lines', () => {
   const lines = readmeCommands();
 
   it('shows render, bake and check, and per-command help', () => {
@@ -56,7 +53,7 @@ describe('README command lines', () => {
 
   it.each(readmeCommands().filter((l) => l[0] !== '<command>').map((l) => [l.join(' '), l]))('runs `ralenti %s` with exit code 0', async (_text, words) => {
     const argv = localise(words as string[], dir);
-    const r = await run([...argv, ...(argv[0] === 'check' || argv[0] === 'render' ? ['-q'] : [])]);
+    const r = await run([...argv, ...(['check', 'render', 'bake'].includes(argv[0]) ? ['-q'] : [])]);
     expect(r.err).toBe('');
     expect(r.code).toBe(0);
     for (let i = 1; i < argv.length; i++) if (OUTPUT_FLAGS.has(argv[i - 1])) expect(existsSync(argv[i]), argv[i]).toBe(true);
@@ -68,7 +65,7 @@ describe('README command lines', () => {
     expect(r.out.startsWith(`usage: ralenti ${name} `)).toBe(true);
   });
 
-  it('prints the check output shown in the README for the recorded fly-through', async () => {
+  it('prints the check output shown in docs/cli.md for the recorded fly-through', async () => {
     const section = readme.slice(readme.indexOf('## Checking Doppler behaviour'));
     const shown = /```text\n([\s\S]*?)```/.exec(section)?.[1];
     expect(shown).toBeDefined();

@@ -64,11 +64,11 @@ describe('parseSceneScript', () => {
   });
 });
 
-describe('README scene script example', () => {
-  it('parses the scene script shown in the README', async () => {
+describe('docs/cli.md scene script example', () => {
+  it('parses the scene script shown in docs/cli.md', async () => {
     const { readFileSync } = await import('node:fs');
     const { resolve } = await import('node:path');
-    const readme = readFileSync(resolve(__dirname, '../../../README.md'), 'utf8');
+    const readme = readFileSync(resolve(__dirname, '../../../docs/cli.md'), 'utf8');
     const section = readme.slice(readme.indexOf('## Scene scripts'));
     const json = section.slice(section.indexOf('```json') + 7, section.indexOf('```', section.indexOf('```json') + 7));
     const s = parseSceneScript(JSON.parse(json));
