@@ -18,14 +18,10 @@ export type TuningReadResult = { ok: true; tuning: Tuning; json: unknown } | { o
 
 /** Parses text as a tuning document; JSON syntax errors and schema problems come back as problems with paths. */
 export function readTuningText(text: string): TuningReadResult {
-  let json: unknown;
   try {
-    json = JSON.parse(text);
-  } catch (err) {
-    return { ok: false, problems: [{ path: '', message: `not valid JSON: ${(err as Error).message}` }] };
-  }
-  try {
-    return { ok: true, tuning: parseTuning(json), json };
+    // The text itself goes to parseTuning: it refuses oversized text before parsing and reports duplicate keys.
+    const tuning = parseTuning(text);
+    return { ok: true, tuning, json: JSON.parse(text) };
   } catch (err) {
     if (err instanceof TuningError) return { ok: false, problems: err.issues.map((i) => ({ path: i.path, message: i.message })) };
     return { ok: false, problems: [{ path: '', message: String((err as Error)?.message ?? err) }] };

@@ -1,5 +1,6 @@
 // createRalenti: loads the worklet module, builds the node, and resolves once the engine runs on the audio thread.
 import { parseTuning, defaultTuning } from '../src/tuning/index';
+import { packAllTiers, packKernelTable, wasmSimdSupported } from '../src/dsp/index';
 import { PROCESSOR_NAME, type ProcessorOptions, type Report } from './protocol';
 import { Ralenti } from './ralenti';
 import { RalentiOptionError, checkInteger, checkRange } from './runtime-error';
@@ -64,7 +65,12 @@ export async function createRalenti(context: BaseAudioContext, options: CreateRa
   if (!context || !context.audioWorklet) throw new RalentiOptionError('createRalenti.context', 'expected a BaseAudioContext with audioWorklet (secure context)');
   const url = String(options.workletUrl ?? defaultWorkletUrl());
   await addModuleOnce(context, url);
-  const processorOptions: ProcessorOptions = { capacity, maxSounds, tuning, statsIntervalSeconds, maxSources, groupOutputs, seed };
+  // Kernel tables are designed here, off the audio thread: the tuning tier's with its WebAssembly layout (other tiers
+  // follow when a tuning asks for them); without SIMD every tier's samples at once (there is no layout to copy in).
+  const tier = tuning.resampler.tier;
+  const simd = wasmSimdSupported();
+  const tables = simd ? [packKernelTable(tier, context.sampleRate, true)] : packAllTiers(context.sampleRate, null);
+  const processorOptions: ProcessorOptions = { capacity, maxSounds, tuning, statsIntervalSeconds, tables, maxSources, groupOutputs, seed };
   const node = new AudioWorkletNode(context, PROCESSOR_NAME, {
     numberOfInputs: 0,
     numberOfOutputs: 1 + groupOutputs.length,
@@ -80,5 +86,5 @@ export async function createRalenti(context: BaseAudioContext, options: CreateRa
     node.onprocessorerror = () => reject(new Error('ralenti processor failed to start'));
   });
   await ready;
-  return new Ralenti({ context, node, tuning, capacity, maxSources, groupOutputs });
+  return new Ralenti({ context, node, tuning, capacity, maxSources, groupOutputs, tableTiers: simd ? [tier] : tables.map((t) => t.table.name) });
 }

@@ -11,4 +11,5 @@ export { decodeAudioFile, DECODE_RATE_RANGE } from './decode-audio-file';
 export type { DecodeAudioFileOptions } from './decode-audio-file';
 export { audioFileSampleRate } from './audio-file-rate';
 export { PROCESSOR_NAME, type RenderLoad } from './protocol';
+export type { TableCounters } from './worklet/table-installer';
 export { TuningError, defaultTuning, parseTuning, serializeTuning } from '../src/tuning/index';

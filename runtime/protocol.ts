@@ -11,6 +11,8 @@ import type {
   VoiceMonitor,
 } from '../src/index';
 import { decodeControlCommand, type ControlCommand, type VoiceEventsReport } from './control-commands';
+import { isPackedKernelTable, packedTransfer, type PackedKernelTable } from '../src/dsp/index';
+import type { TableCounters } from './worklet/table-installer';
 
 /** Name the processor is registered under. */
 export const PROCESSOR_NAME = 'ralenti-processor';
@@ -31,6 +33,8 @@ export interface ProcessorOptions {
   maxSources?: number;
   /** Groups with their own output (node outputs 1…k, stereo), at most 8. */
   groupOutputs?: string[];
+  /** Kernel tables for the context's rate designed on the main thread (the tuning's tier with its WebAssembly layout, or every tier's samples where there is no SIMD); absent: the audio thread designs its own. */
+  tables?: PackedKernelTable[];
 }
 
 /** Upload a decoded sound; the channel buffers are transferred, not copied. */
@@ -81,6 +85,11 @@ export interface TuningCommand {
   type: 'tuning';
   tuning: Tuning;
 }
+/** Kernel tables designed on the main thread (buffers transferred); their WebAssembly layouts are copied in a slice per render quantum, and a tier waiting for its table switches once it is in. */
+export interface TablesCommand {
+  type: 'tables';
+  tables: PackedKernelTable[];
+}
 /** Ask for a 'synced' report once every earlier command has been handled. */
 export interface SyncCommand {
   type: 'sync';
@@ -97,6 +106,7 @@ export type Command =
   | SnapshotCommand
   | TimeScaleCommand
   | TuningCommand
+  | TablesCommand
   | SyncCommand
   | ControlCommand;
 
@@ -114,6 +124,8 @@ export interface RenderLoad {
   clock: string;
   /** Time constant of the running average in seconds of audio (1). */
   averageSeconds: Seconds;
+  /** Longest single call on the audio thread since the last report (one process() or one message), ms; absent from older hosts. */
+  peakMs?: number;
 }
 /** Periodic counters and voice monitors; VoiceMonitor.voice holds main-thread voice handles (−1 if unknown). */
 export interface StatsReport {
@@ -124,6 +136,8 @@ export interface StatsReport {
   voices: VoiceMonitor[];
   /** Render load; null or absent where the host has no clock (or has not rendered yet). */
   load?: RenderLoad | null;
+  /** Kernel-table work done on the audio thread so far; absent from older hosts. */
+  tables?: TableCounters;
 }
 /** Something failed on the audio thread; it was caught, counted and the output kept safe. */
 export interface ErrorReport {
@@ -147,6 +161,7 @@ export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport | Vo
 /** Transferable buffers of a command (a sound's channel buffers), for postMessage's transfer list. Snapshots are cloned, so the sender may reuse its array. */
 export function commandTransfer(command: Command): Transferable[] {
   if (command.type === 'add-sound') return command.channels.map((c) => c.buffer as ArrayBuffer);
+  if (command.type === 'tables') return packedTransfer(command.tables);
   return [];
 }
 
@@ -200,6 +215,8 @@ export function decodeCommand(data: unknown): Command | string {
     }
     case 'tuning':
       return isObject(data.tuning) ? (data as unknown as TuningCommand) : 'tuning.tuning: expected an object';
+    case 'tables':
+      return Array.isArray(data.tables) && data.tables.every(isPackedKernelTable) ? (data as unknown as TablesCommand) : 'tables.tables: expected packed kernel tables';
     case 'sync':
       return isHandle(data.id) ? (data as unknown as SyncCommand) : 'sync.id: expected a handle';
     default:

@@ -2,7 +2,9 @@
 import type { Decibels, Easing, EngineSnapshot, EngineStats, PlayOptions, Seconds, Tuning, Vec3Like, VoiceMonitor } from '../src/index';
 import { parseTuning, MAX_TIME_SCALE } from '../src/tuning/index';
 import { PauseClock, TimeFlow } from '../src/dilation/index';
+import { packKernelTable, wasmSimdSupported } from '../src/dsp/index';
 import { commandTransfer, encodeSnapshot, type Command, type RenderLoad, type Report } from './protocol';
+import type { TableCounters } from './worklet/table-installer';
 import { RalentiClosedError, RalentiOptionError, checkRange } from './runtime-error';
 import { RalentiSource } from './ralenti-source';
 import type { RalentiVoice, RalentiVoiceEvent, VoiceHandle, VoiceHandleHost } from './ralenti-voice';
@@ -57,10 +59,12 @@ export interface RalentiInit {
   maxSources?: number;
   /** Groups with their own output (in the node's output order after the main one), for groupOutput(). */
   groupOutputs?: readonly string[];
+  /** Tiers whose tables (and WebAssembly layouts) the processor already holds (createRalenti sets it); a switch to another tier first sends that tier's tables, designed here. Absent: the processor designs its own. */
+  tableTiers?: readonly string[];
 }
 
 const EMPTY_STATS: EngineStats = Object.freeze({
-  activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
+  activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
   limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: 'standard',
 }) as EngineStats;
 
@@ -86,6 +90,8 @@ export class Ralenti {
   voices: VoiceMonitor[] = [];
   /** Latest render load measured in the worklet; null until reported, or where the audio thread has no clock. */
   renderLoad: RenderLoad | null = null;
+  /** Kernel-table work counted on the audio thread (designs, layouts built, layouts still being copied in); null until reported. */
+  tableWork: TableCounters | null = null;
   private current: Tuning;
   /** Sources left out of the last update() because more than maxSources were live (those without voices go first). */
   sourcesLeftOut = 0;
@@ -110,6 +116,8 @@ export class Ralenti {
   private nextSource = 1;
   private nextSync = 1;
   private disposed = false;
+  /** Tiers the processor has tables for, or null when it designs its own. */
+  private readonly tableTiers: Set<string> | null;
 
   /** Wraps an existing node; use createRalenti() instead unless you built the node yourself. */
   constructor(init: RalentiInit) {
@@ -119,6 +127,7 @@ export class Ralenti {
     this.current = init.tuning;
     this.maxSources = init.maxSources ?? 256;
     this.registry = new VoiceRegistry(this.voiceHost);
+    this.tableTiers = init.tableTiers === undefined ? null : new Set(init.tableTiers);
     this.snapshot = { time: 0, listener: this.listener, sources: [] };
     this.groupControls = new GroupControls({ send: (c) => this.send(c), tuning: () => this.current, context: this.context, node: this.node, routed: init.groupOutputs ?? [] });
     // A closed context answers no more messages: settle every waiting flush() then.
@@ -316,6 +325,12 @@ export class Ralenti {
     this.alive('setTuning');
     const t = parseTuning(json);
     this.current = t;
+    const tier = t.resampler.tier;
+    if (this.tableTiers !== null && !this.tableTiers.has(tier)) {
+      // Designed here, off the audio thread; the worklet copies the layout in slices and switches when it is in.
+      this.send({ type: 'tables', tables: [packKernelTable(tier, this.context.sampleRate, wasmSimdSupported())] });
+      this.tableTiers.add(tier);
+    }
     this.send({ type: 'tuning', tuning: t });
     return t;
   }
@@ -388,6 +403,7 @@ export class Ralenti {
         this.stats = r.stats;
         this.voices = r.voices;
         this.renderLoad = r.load ?? null;
+        this.tableWork = r.tables ?? null;
         return;
       case 'error':
         this.emitError({ where: r.where, message: r.message, count: r.count });

@@ -3,13 +3,16 @@
 // and replays them; the panel's "Fly-through recording" section drives it.
 import type { Easing, Vec3Like } from '../src';
 import { serializeTuning, type Ralenti } from '../runtime';
-import { FlyThroughRecorder, formatSceneScript, readSceneScriptText, SceneReplay } from '../runtime/recording';
+import { AudioCapture, FlyThroughRecorder, formatSceneScript, readSceneScriptText, SceneReplay } from '../runtime/recording';
+import { writeWav } from '../runtime/offline/wav';
 import type { SceneScript } from '../runtime/offline/scene-types';
 import { downloadJson, type RecordingControls, type RecordingState } from '../editor';
 import { SCRIPT_SOUNDS, SCRIPT_VOICES } from './script-sounds';
 
 /** File name offered for recorded scripts. */
 export const FLY_THROUGH_FILE_NAME = 'ralenti-flythrough.json';
+/** File name offered for the audio captured with a recording (judge it with `ralenti check script.json --audio file.wav`). */
+export const FLY_THROUGH_AUDIO_FILE_NAME = 'ralenti-flythrough.wav';
 
 /** What the fly-through needs from the scene. */
 export interface FlyThroughOptions {
@@ -49,6 +52,8 @@ export class FlyThrough implements RecordingControls {
   private lastAdvance: number | null = null;
   private script: { text: string; parsed: SceneScript } | null = null;
   private run: SceneReplay | null = null;
+  private capture: AudioCapture | null = null;
+  private audio: Uint8Array | null = null;
 
   constructor(options: FlyThroughOptions) {
     this.options = options;
@@ -104,6 +109,7 @@ export class FlyThrough implements RecordingControls {
     if (this.run) return;
     if (!this.recorder.recording) {
       this.recorder.start(this.clock(), this.options.orientation(), this.options.ralenti.timeScale);
+      this.startCapture();
       this.state.recording = true;
       this.state.problems = [];
       this.state.message = 'Recording… 0.0 s';
@@ -111,10 +117,14 @@ export class FlyThrough implements RecordingControls {
     }
     this.recorder.stop(this.clock());
     this.state.recording = false;
+    const capture = this.capture;
+    this.capture = null;
     if (this.recorder.frameCount < 2) {
+      void capture?.stop(0);
       this.state.message = 'Nothing recorded (too short).';
       return;
     }
+    if (capture) void this.finishCapture(capture, this.recorder.startPageTime, this.recorder.seconds);
     const json = this.recorder.toScript({
       title: `Fly-through recorded in the sample scene (${this.recorder.seconds.toFixed(1)} s); hums stand in for its sounds`,
       tuning: JSON.parse(serializeTuning(this.options.ralenti.tuning)),
@@ -123,6 +133,43 @@ export class FlyThrough implements RecordingControls {
     });
     this.setScript(formatSceneScript(json));
     this.state.message = `Recorded ${this.recorder.seconds.toFixed(1)} s (${this.recorder.frameCount} frames): download or replay it.`;
+  }
+
+  /** Taps the engine's output on the audio thread while a recording runs (the page plays on). */
+  private startCapture(): void {
+    this.audio = null;
+    this.state.hasAudio = false;
+    const r = this.options.ralenti;
+    if (typeof AudioWorkletNode === 'undefined' || !('audioWorklet' in r.context)) return;
+    try {
+      this.capture = new AudioCapture(r.context, r.node);
+      this.capture.start(this.clock());
+    } catch (e) {
+      this.capture = null;
+      console.warn(`audio capture unavailable: ${(e as Error).message}`);
+    }
+  }
+
+  private async finishCapture(capture: AudioCapture, from: number, seconds: number): Promise<void> {
+    const got = await capture.stop(from);
+    const frames = Math.min(got.channels[0].length, Math.round(seconds * got.sampleRate));
+    this.audio = writeWav({ sampleRate: got.sampleRate, channels: got.channels.map((c) => c.subarray(0, frames)), encoding: 'float32' });
+    this.state.hasAudio = true;
+    if (got.droppedFrames > 0) this.state.message += ` (${got.droppedFrames} audio frames could not be captured)`;
+  }
+
+  /** Offers the audio the engine played during the last recording as a WAV file. */
+  downloadAudio(): void {
+    if (!this.audio) return;
+    const url = URL.createObjectURL(new Blob([this.audio as Uint8Array<ArrayBuffer>], { type: 'audio/wav' }));
+    const a = this.options.doc.createElement('a');
+    a.href = url;
+    a.download = FLY_THROUGH_AUDIO_FILE_NAME;
+    a.style.display = 'none';
+    this.options.doc.body.appendChild(a);
+    a.click();
+    a.remove();
+    setTimeout(() => URL.revokeObjectURL(url), 1000);
   }
 
   /** Starts or stops replaying the recorded or loaded script. */

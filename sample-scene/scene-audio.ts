@@ -4,6 +4,7 @@ import { listeningGain, loadAutosaved, type ComparisonSource, type NamedVoice, t
 import { SCENE_VOICES } from './script-sounds';
 import { sceneGroup } from './scene-groups';
 import { gainToDb } from '../src/dsp';
+import { radioMessageSound } from './radio-message';
 import { clickSound, droneSound, generatorSound, kartSound, musicLoopSound, orbSound, type GeneratedSound } from './procedural-sounds';
 
 /** Everything the scene plays, with handles for the loop and the panel. */
@@ -75,6 +76,7 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
   start('orb', '#6dffc0', made.orb, v.orb.group, v.orb.gain, sources.orb);
   start('generator', '#ffe34a', made.generator, v.generator.group, v.generator.gain, sources.generator);
   start('music', '#c58cff', made.music, 'music', 0.16, null);
+  start('radio', '#f7f7f7', radioMessageSound(rate), 'radio', 0.3, null); // 'stretch' group: slows, keeps its pitch
   const click = ralenti.load(made.click);
   return {
     context,

@@ -1,7 +1,14 @@
-// A small static file server for the build folder: 127.0.0.1 only, no path outside the root.
+// A small static file server for the build folder: 127.0.0.1 only, no path outside the root, no foreign Host.
+// Each file is opened once (never following a link in its last component), the opened descriptor is checked
+// against the real path inside the root (same device and inode), and the body is read from that descriptor,
+// so a link swapped in between the check and the read cannot serve a file from elsewhere.
 import { createServer } from 'node:http';
-import { readFile, realpath, stat } from 'node:fs/promises';
+import { constants } from 'node:fs';
+import { open, realpath, stat } from 'node:fs/promises';
 import { extname, resolve, sep } from 'node:path';
+
+/** Largest file served, bytes (the build's biggest asset is a few MB). */
+export const MAX_SERVED_BYTES = 256 * 1024 * 1024;
 
 /** Content types of the files the build writes. */
 const contentTypes = Object.freeze({
@@ -47,33 +54,81 @@ export function resolveRequestPath(root, rawUrl) {
 }
 
 /**
+ * Whether a request's Host header names the bound loopback address and port exactly (no other name: a page
+ * on another origin reaching us through DNS rebinding sends its own host name).
+ */
+export function hostAllowed(host, port) {
+  if (typeof host !== 'string') return false;
+  const h = host.trim().toLowerCase();
+  return h === `127.0.0.1:${port}`;
+}
+
+/**
+ * Opens `file` for reading without following a link in its last component, and returns the open handle only when
+ * it is a regular file whose real path lies inside `realRoot` and is the very file opened (same device and inode);
+ * null otherwise (the handle is then closed).
+ */
+export async function openInside(realRoot, file) {
+  const flags = constants.O_RDONLY | (constants.O_NOFOLLOW ?? 0) | (constants.O_NONBLOCK ?? 0);
+  let handle;
+  try {
+    handle = await open(file, flags);
+  } catch {
+    return null;
+  }
+  try {
+    const info = await handle.stat();
+    if (!info.isFile() || info.size > MAX_SERVED_BYTES) throw new Error('not a servable file');
+    const real = await realpath(file);
+    if (!real.startsWith(realRoot + sep)) throw new Error('outside the root');
+    const named = await stat(real);
+    if (named.dev !== info.dev || named.ino !== info.ino) throw new Error('changed while opening');
+    return { handle, size: info.size };
+  } catch {
+    await handle.close().catch(() => {});
+    return null;
+  }
+}
+
+/**
  * Starts serving `root` on 127.0.0.1. Tries `port` and, unless `strictPort`, the next ports up to
  * 20 above it; port 0 asks the system for a free one. Resolves to { server, port, url, close() }.
  */
 export async function serveStatic({ root, port = 5173, strictPort = false, log = () => {} }) {
+  let boundPort = -1;
+  let realRoot = null;
   const server = createServer(async (req, res) => {
+    if (!hostAllowed(req.headers.host, boundPort)) {
+      log(`refused Host ${JSON.stringify(req.headers.host)}`);
+      return send(res, 421, 'wrong host: use the 127.0.0.1 URL the server printed');
+    }
     const file = req.method === 'GET' || req.method === 'HEAD' ? resolveRequestPath(root, req.url) : undefined;
     if (file === undefined) return send(res, 405, 'method not allowed');
     if (file === null) {
       log(`refused ${req.url}`);
       return send(res, 400, 'bad path');
     }
+    realRoot ??= await realpath(root).catch(() => null);
+    const opened = realRoot === null ? null : await openInside(realRoot, file);
+    if (opened === null) return send(res, 404, 'not found');
     try {
-      const info = await stat(file);
-      if (!info.isFile()) return send(res, 404, 'not found');
-      // A symbolic link inside the folder may point out of it: serve only files whose real path is inside.
-      const realRoot = await realpath(root);
-      const real = await realpath(file);
-      if (!real.startsWith(realRoot + sep)) return send(res, 404, 'not found');
-      const body = await readFile(file);
+      const body = Buffer.alloc(opened.size);
+      let got = 0;
+      while (got < body.length) {
+        const { bytesRead } = await opened.handle.read(body, got, body.length - got, got);
+        if (bytesRead === 0) break;
+        got += bytesRead;
+      }
       res.writeHead(200, {
         'content-type': contentTypes[extname(file)] ?? 'application/octet-stream',
-        'content-length': body.length,
+        'content-length': got,
         'cache-control': 'no-store',
       });
-      res.end(req.method === 'HEAD' ? undefined : body);
+      res.end(req.method === 'HEAD' ? undefined : body.subarray(0, got));
     } catch {
       send(res, 404, 'not found');
+    } finally {
+      await opened.handle.close().catch(() => {});
     }
   });
   const last = port === 0 || strictPort ? port : port + 20;
@@ -95,6 +150,7 @@ export async function serveStatic({ root, port = 5173, strictPort = false, log =
     if (ok) break;
   }
   const actual = server.address().port;
+  boundPort = actual;
   return {
     server,
     port: actual,

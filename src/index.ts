@@ -15,7 +15,10 @@ export { parseTuning, serializeTuning, TuningError, defaultTuning, TUNING_VERSIO
 export type { TuningIssue } from './tuning';
 // Analysis (pitch tracking, spectrum, levels) needs fft.js: it is its own entry, 'ralenti/analysis' (src/analysis/index.ts).
 // DSP (resampler, kernel tables, biquad low-pass, smoothing, unit helpers).
-export { resample, qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, KernelTable, StreamReader, DspArgumentError, BiquadLowpass, OnePoleSmoother, dbToGain, gainToDb, centsToRatio, ratioToCents } from './dsp';
+export { resample, resampleChunks, qualityTiers, defaultQualityTier, MIN_RATIO, MAX_RATIO, KernelTable, StreamReader, DspArgumentError, BiquadLowpass, OnePoleSmoother, dbToGain, gainToDb, centsToRatio, ratioToCents } from './dsp';
 export { wasmSimdSupported, activeKernel } from './dsp';
 export type { KernelName, KernelPreference } from './dsp';
 export type { ResampleOptions, StreamReaderOptions, StreamSourceOptions, KernelTableOptions, TierDesign, BiquadLowpassOptions, OnePoleSmootherOptions } from './dsp';
+// Time-scale modification (WSOLA grains read by the band-limited resampler).
+export { StretchReader, stretchReaderDefaults } from './stretch';
+export type { StretchReaderOptions } from './stretch';

@@ -30,6 +30,20 @@ function importsOf(text: string): string[] {
   return specs;
 }
 
+/** Relative and package imports with whether each brings in types only (import type, or every name marked type). */
+function importsWithKind(text: string): { spec: string; typeOnly: boolean }[] {
+  const out: { spec: string; typeOnly: boolean }[] = [];
+  const re = /(import|export)\s+(type\s+)?([^'";]*?)\s*from\s*['"]([^'"]+)['"]|import\(\s*['"]([^'"]+)['"]\s*\)|import\s*['"]([^'"]+)['"]/g;
+  for (const m of text.matchAll(re)) {
+    if (m[4] !== undefined) {
+      const names = /^\{([^}]*)\}$/.exec(m[3].trim());
+      const allTyped = names !== null && names[1].split(',').map((n) => n.trim()).filter((n) => n !== '').every((n) => n.startsWith('type '));
+      out.push({ spec: m[4], typeOnly: m[2] !== undefined || allTyped });
+    } else out.push({ spec: m[5] ?? m[6], typeOnly: false });
+  }
+  return out;
+}
+
 function layerOf(file: string): string | undefined {
   const top = relative(root, file).split(/[\\/]/)[0];
   return layers.includes(top as (typeof layers)[number]) ? top : undefined;
@@ -66,6 +80,28 @@ describe('import direction', () => {
       if (m) wrong.push(`${relative(root, file)} uses ${m[0]}`);
     }
     expect(wrong).toEqual([]);
+  });
+
+  it('keeps runtime/check independent of the engine it checks: no value import from src/motion, src/dilation, src/engine or the src/ barrel', () => {
+    // An expectation computed by the code under test is not a check: the checker may use types from there, nothing else.
+    const forbidden = ['src/motion', 'src/dilation', 'src/engine'].map((d) => resolve(root, d));
+    const barrel = resolve(root, 'src/index');
+    const files = walk(join(root, 'runtime/check'));
+    expect(files.length).toBeGreaterThan(3);
+    const wrong: string[] = [];
+    for (const file of files) {
+      for (const { spec, typeOnly } of importsWithKind(readFileSync(file, 'utf8'))) {
+        if (!spec.startsWith('.') || typeOnly) continue;
+        const target = resolve(dirname(file), spec).replace(/\.(ts|js)$/, '').replace(/[\\/]index$/, '');
+        if (target === barrel.replace(/[\\/]index$/, '') || target === barrel || forbidden.some((f) => target === f || target.startsWith(f + '/') || target.startsWith(f + '\\'))) wrong.push(`${relative(root, file)} → ${spec}`);
+      }
+    }
+    expect(wrong).toEqual([]);
+  });
+
+  it('tells a type-only import from a value import', () => {
+    expect(importsWithKind("import type { A } from '../../src/engine';\nimport { b } from '../../src/motion';").map((i) => i.typeOnly)).toEqual([true, false]);
+    expect(importsWithKind("export type { A } from '../src/dilation';\nimport { type A, type B } from '../src/engine';").map((i) => i.typeOnly)).toEqual([true, true]);
   });
 
   it('detects a wrong-way import when one is present', () => {

@@ -19,6 +19,8 @@ export interface RecordingState {
   message: string;
   /** Problems of the last loaded script (empty when it loaded). */
   problems: readonly ScriptProblem[];
+  /** Whether audio captured with the last recording can be downloaded (hosts without capture leave it out). */
+  hasAudio?: boolean;
 }
 
 /** The host's side of the section (the sample scene implements it). */
@@ -27,6 +29,8 @@ export interface RecordingControls {
   toggleRecording(): void;
   toggleReplay(): void;
   download(): void;
+  /** Offers the audio captured with the last recording as a WAV file (hosts without capture leave it out). */
+  downloadAudio?(): void;
   loadText(text: string, fileName: string): void;
 }
 
@@ -48,6 +52,7 @@ export class RecordingSection {
   private readonly record: ButtonApi;
   private readonly replay: ButtonApi;
   private readonly download: ButtonApi;
+  private readonly downloadAudio: ButtonApi | null;
   private readonly status: HTMLDivElement;
   private shown = '';
 
@@ -69,6 +74,8 @@ export class RecordingSection {
     this.folder.addBlade({ view: 'ralenti-element', element: this.status });
     this.download = this.folder.addButton({ title: 'Download scene script (.json)' });
     this.download.on('click', () => controls.download());
+    this.downloadAudio = controls.downloadAudio ? this.folder.addButton({ title: 'Download recorded audio (.wav)' }) : null;
+    this.downloadAudio?.on('click', () => controls.downloadAudio?.());
     this.input = createJsonFileInput(doc, 'ralenti-scene-file', (text, name) => controls.loadText(text, name));
     this.folder.addButton({ title: 'Load scene script…' }).on('click', () => this.input.click());
     this.replay = this.folder.addButton({ title: 'Replay' });
@@ -79,7 +86,7 @@ export class RecordingSection {
   /** Refreshes the buttons and the status line from the host's state (touches the DOM only on change). */
   update(): void {
     const s = this.controls.state;
-    const key = `${s.recording}|${s.replaying}|${s.hasScript}|${s.message}|${s.problems.length}`;
+    const key = `${s.recording}|${s.replaying}|${s.hasScript}|${s.hasAudio === true}|${s.message}|${s.problems.length}`;
     if (key === this.shown) return;
     this.shown = key;
     this.record.title = s.recording ? 'Stop recording' : 'Start recording';
@@ -87,6 +94,7 @@ export class RecordingSection {
     this.replay.title = s.replaying ? 'Stop replay' : 'Replay';
     this.replay.disabled = s.recording || !s.hasScript;
     this.download.disabled = s.recording || !s.hasScript;
+    if (this.downloadAudio) this.downloadAudio.disabled = s.recording || s.hasAudio !== true;
     this.status.classList.toggle('rl-rec-live', s.recording || s.replaying);
     this.status.replaceChildren();
     const line = this.doc.createElement('div');

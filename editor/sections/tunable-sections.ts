@@ -1,7 +1,8 @@
 // Panel sections that edit the tuning: time flow, sound groups, Doppler and air, listening.
 import type { FolderApi, Pane, TabPageApi } from 'tweakpane';
 import { speedOfSound } from '../../src/motion';
-import type { CurveSpec } from '../../src';
+import type { CurveSpec, GroupTuning } from '../../src';
+import { addStretchControls } from './stretch-controls';
 import type { CurveBladeApi, CurveBladeParams } from '../curve-blade';
 import type { MutableTuning } from '../tuning-store';
 import { LISTENING_FLOOR_DB } from '../listening-level';
@@ -52,7 +53,7 @@ export function addGroupsSection(pane: Pane, ctx: TunableContext): FolderApi {
     const g = ctx.draft.groups[name];
     page.addBinding(g, 'policy', {
       label: 'policy',
-      options: { 'follows time': 'follow-time', 'tone only': 'tone-only', exempt: 'exempt' },
+      options: { 'follows time': 'follow-time', 'tone only': 'tone-only', exempt: 'exempt', 'stretch (keeps pitch)': 'stretch' },
     }).on('change', (e) => ctx.changed(e.last));
     page.addBinding(g, 'doppler', { label: 'Doppler' }).on('change', (e) => ctx.changed(e.last));
     page.addBinding(g, 'priority', { label: 'priority', min: 0, max: 255, step: 1 }).on('change', (e) => ctx.changed(e.last));
@@ -60,6 +61,7 @@ export function addGroupsSection(pane: Pane, ctx: TunableContext): FolderApi {
     addCurve(page, ctx, curves, 'pitch', { title: `${name} · speed & pitch ×`, unit: '×', yMin: 0, yMax: 4, yKnee: 1 });
     addCurve(page, ctx, curves, 'tone', { title: `${name} · tone cutoff`, unit: 'Hz', yMin: 20, yMax: 20000, yScale: 'log' });
     addCurve(page, ctx, curves, 'level', { title: `${name} · level`, unit: 'dB', yMin: -48, yMax: 12 });
+    addStretchControls(page, ctx, name, g as unknown as GroupTuning);
     page.element.dataset.group = name;
   });
   return f;

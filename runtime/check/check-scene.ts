@@ -1,20 +1,13 @@
-// The check itself, without files or a command line: renders each tonal voice of a loaded scene solo with the engine,
-// tracks its pitch (YIN, src/analysis) and compares it with the heard frequency expected from motion and tuning alone.
-import type { Tuning } from '../../src/index';
-import { pitchErrorStats, trackPitch } from '../../src/analysis';
-import { TimeFlow } from '../../src/dilation';
-import { ratioToCents } from '../../src/dsp';
-import { renderLoadedScene, SCENE_BLOCK_FRAMES } from '../offline/scene-renderer';
-import { evaluateMotion } from '../offline/scene-motion';
-import type { MotionSpec, SceneScript } from '../offline/scene-types';
+// The check itself, without files or a command line: each tonal voice of a scene script is judged against the pitch
+// expected from the script's motion and the tuning's declared values (runtime/check/expect), either on the audio the
+// browser played (a recorded mix) or on an offline re-render of the script with the engine, one voice solo at a time.
+import type { Tuning } from '../../src/tuning';
+import { renderLoadedScene, type SceneRenderOptions, type SceneRenderResult } from '../offline/scene-renderer';
+import type { SceneScript, SoundSpec } from '../offline/scene-types';
 import type { SoundBuffer } from '../offline/scene-sounds';
-import { ExpectedPitch, type MotionAt } from './expected-pitch';
-import type { ReportSource } from './report-svg';
-
-/** Frames at the edges of a voice's life that are not judged (the fades and the tracker's window), s. */
-export const CHECK_EDGE_SECONDS = 0.06;
-/** Analysis window of the pitch tracker, s. */
-export const CHECK_WINDOW_SECONDS = 0.03;
+import { ExpectedVoice, type DopplerModel } from './expect/expected-voice';
+import { TimeScaleTrack } from './expect/time-scale-track';
+import { checkLimitDefaults, judgeSource, type CheckLimits, type JudgedSource } from './judge/judge-source';
 
 /** A scene as the check needs it (what loadScene / loadSceneFile return). */
 export interface CheckableScene {
@@ -23,104 +16,157 @@ export interface CheckableScene {
   tuning: Tuning;
 }
 
-/** Options of checkScene. */
-export interface CheckSceneOptions {
-  /** Pass/fail tolerance in cents, 0.1…1200 (default 5). */
-  toleranceCents?: number;
-  /** Render rate in Hz (default: the script's). */
+/** Renders a script with the engine (renderLoadedScene's signature); tests pass engine variants here. */
+export type SceneRenderer = (script: SceneScript, sounds: Readonly<Record<string, SoundBuffer>>, tuning: Tuning, options: SceneRenderOptions) => SceneRenderResult;
+
+/** Options of checkScene and checkAudio. */
+export interface CheckOptions {
+  /** Pass/fail limits (defaults: checkLimitDefaults). */
+  limits?: Partial<CheckLimits>;
+  /** Render rate in Hz for the re-render (default: the script's). */
   sampleRate?: number;
   /** Tuning the engine renders with (default: the scene's). The expectation always uses the scene's tuning. */
   renderTuning?: Tuning;
+  /** Renderer of the re-render (default: renderLoadedScene, the engine as shipped). */
+  render?: SceneRenderer;
   /** Called with the fraction done, 0…1. */
   onProgress?: (fraction: number) => void;
 }
 
-/** Result of checkScene. */
-export interface CheckSceneResult {
+/** One judged voice with what the report needs beside the figures. */
+export interface CheckedSource extends JudgedSource {
+  /** Index of the voice in the script. */
+  voice: number;
+  /** Doppler model of the expectation. */
+  model: DopplerModel;
+}
+
+/** Result of a check. */
+export interface CheckResult {
+  /** What was judged: the audio the browser played, or an offline re-render of the script. */
+  mode: 'recorded-audio' | 're-render';
   /** One entry per voice of a tone or hum sound, in script order. */
-  sources: ReportSource[];
-  /** Voices of noise or WAV sounds, which have no known pitch and are not checked. */
+  sources: CheckedSource[];
+  /** Voices of noise or WAV sounds, which have no known pitch and are not judged. */
   skipped: number;
-  /** The script's time scale at the tracker's frame times (for the report's strip). */
+  /** The script's time scale at the frame times (for the report's strip). */
   timeScale: { times: Float64Array; values: Float64Array };
+  /** The limits used. */
+  limits: CheckLimits;
   /** True when there was at least one tonal voice and every one passed. */
   passed: boolean;
 }
 
-function motionAt(spec: MotionSpec): MotionAt {
-  return (time, out) => evaluateMotion(spec, time, out.position, out.velocity);
+/** Relative harmonic amplitudes of a tone or hum sound spec; null for noise and WAV sounds (no known pitch). */
+export function partialsOf(spec: SoundSpec | undefined): readonly number[] | null {
+  if (!spec || spec.type === 'noise' || spec.type === 'file') return null;
+  return spec.type === 'tone' ? [1] : spec.partials;
 }
 
-/** Time-scale curve of a script, as the renderer applies it: each key's ramp from its start time on. */
-export function scriptTimeScale(script: SceneScript): (time: number) => number {
-  const keys = script.timeScale;
-  const flows: TimeFlow[] = [];
-  for (let k = 0; k < keys.length; k++) {
-    const flow = new TimeFlow();
-    for (let j = 0; j <= k; j++) flow.set({ target: keys[j].target, rampSeconds: keys[j].rampSeconds, easing: keys[j].easing, startTime: keys[j].time }, keys[j].time);
-    flows.push(flow);
-  }
-  return (t) => {
-    let k = -1;
-    while (k + 1 < keys.length && keys[k + 1].time <= t) k++;
-    return k < 0 ? 1 : flows[k].valueAt(t);
+interface Tonal {
+  index: number;
+  name: string;
+  expected: ExpectedVoice;
+  partials: readonly number[];
+}
+
+function tonalVoices(scene: CheckableScene): Tonal[] {
+  const { script, sounds, tuning } = scene;
+  const out: Tonal[] = [];
+  script.voices.forEach((v, index) => {
+    const partials = partialsOf(script.sounds[v.sound]);
+    const f = sounds[v.sound]?.frequency;
+    if (partials === null || !(f != null && f > 0)) return;
+    const name = `voice ${index} (${v.sound}${v.source ? ` on ${v.source}` : ''})`;
+    out.push({ index, name, expected: new ExpectedVoice(script, v, tuning, f), partials });
+  });
+  return out;
+}
+
+/** The gain of a voice's sound spec (tones and hums), 1 otherwise. */
+function soundGain(scene: CheckableScene, voice: number): number {
+  const spec = scene.script.sounds[scene.script.voices[voice].sound];
+  return spec && 'gain' in spec ? spec.gain : 1;
+}
+
+function expectedHz(e: ExpectedVoice): (t: number) => number {
+  return (t) => e.at(t).hz;
+}
+
+function finish(scene: CheckableScene, mode: CheckResult['mode'], sources: CheckedSource[], limits: CheckLimits): CheckResult {
+  const track = new TimeScaleTrack(scene.script.timeScale, scene.script.duration);
+  const times = sources.length > 0 ? Float64Array.from(sources[0].times) : new Float64Array(0);
+  return {
+    mode,
+    sources,
+    skipped: scene.script.voices.length - sources.length,
+    timeScale: { times, values: Float64Array.from(times, (t) => track.valueAt(t)) },
+    limits,
+    passed: sources.length > 0 && sources.every((s) => s.passed),
   };
+}
+
+function mono(channels: readonly Float32Array[]): Float32Array {
+  const out = new Float32Array(channels[0]?.length ?? 0);
+  for (const c of channels) for (let i = 0; i < out.length; i++) out[i] += c[i] / channels.length;
+  return out;
+}
+
+/** Re-renders each tonal voice solo with the engine and judges it (mode 're-render'). */
+export function checkScene(scene: CheckableScene, options: CheckOptions = {}): CheckResult {
+  const limits = { ...checkLimitDefaults, ...options.limits };
+  const sr = options.sampleRate ?? scene.script.sampleRate;
+  const render = options.render ?? renderLoadedScene;
+  const tonal = tonalVoices(scene);
+  const sources: CheckedSource[] = tonal.map((v, k) => {
+    const progress = options.onProgress;
+    const rendered = render(scene.script, scene.sounds, options.renderTuning ?? scene.tuning, {
+      sampleRate: sr,
+      voiceFilter: (_s, j) => j === v.index,
+      onProgress: progress ? (f) => progress((k + f) / tonal.length) : undefined,
+    });
+    const judged = judgeSource({
+      name: v.name,
+      audio: mono([rendered.left, rendered.right]),
+      sampleRate: sr,
+      expectedHz: expectedHz(v.expected),
+      partials: v.partials,
+      others: [],
+      jumps: v.expected.jumpWindows(1 / 60),
+      closestApproach: v.expected.closestApproach(scene.script.duration)?.time ?? null,
+      limits,
+    });
+    return { ...judged, voice: v.index, model: v.expected.model };
+  });
+  return finish(scene, 're-render', sources, limits);
 }
 
 /**
- * Checks every tonal voice of `scene`. Frames are judged inside the voice's life, inside the tracker's range, and where
- * the expected pitch moves less than the tolerance across one analysis window (the tracker reports a window average);
- * a voice passes when the 95th percentile of its error there is within the tolerance.
+ * Judges recorded audio (the mix the browser played, time 0 = the script's time 0) against the script (mode
+ * 'recorded-audio'): each tonal voice through a band that follows its expected pitch; frames where another voice's
+ * harmonic can disturb that band (judge-source.ts) are left unjudged as overlap.
  */
-export function checkScene(scene: CheckableScene, options: CheckSceneOptions = {}): CheckSceneResult {
-  const { script, sounds, tuning } = scene;
-  const tolerance = options.toleranceCents ?? 5;
-  const sr = options.sampleRate ?? script.sampleRate;
-  const tonal = script.voices.map((v, i) => ({ v, i })).filter(({ v }) => sounds[v.sound]?.frequency != null);
-  const timeScaleAt = scriptTimeScale(script);
-  const listener = motionAt(script.listener.motion);
-  const results: ReportSource[] = [];
-  for (let k = 0; k < tonal.length; k++) {
-    const { v, i } = tonal[k];
-    const progress = options.onProgress;
-    const rendered = renderLoadedScene(script, sounds, options.renderTuning ?? tuning, {
-      sampleRate: sr,
-      voiceFilter: (_s, j) => j === i,
-      onProgress: progress ? (f) => progress((k + f) / tonal.length) : undefined,
+export function checkAudio(scene: CheckableScene, audio: { sampleRate: number; channels: readonly Float32Array[] }, options: CheckOptions = {}): CheckResult {
+  const limits = { ...checkLimitDefaults, ...options.limits };
+  const tonal = tonalVoices(scene);
+  const mix = mono(audio.channels);
+  const sources: CheckedSource[] = tonal.map((v, k) => {
+    options.onProgress?.(k / tonal.length);
+    const others = tonal.filter((o) => o !== v).map((o) => ({ expectedHz: expectedHz(o.expected), partials: o.partials, levelAt: (t: number) => o.expected.gainAt(t) * soundGain(scene, o.index) }));
+    const judged = judgeSource({
+      name: v.name,
+      audio: mix,
+      sampleRate: audio.sampleRate,
+      expectedHz: expectedHz(v.expected),
+      partials: v.partials,
+      levelAt: (t: number) => v.expected.gainAt(t) * soundGain(scene, v.index),
+      others,
+      jumps: v.expected.jumpWindows(1 / 60),
+      closestApproach: v.expected.closestApproach(scene.script.duration)?.time ?? null,
+      limits,
     });
-    const mono = new Float32Array(rendered.left.length);
-    for (let n = 0; n < mono.length; n++) mono[n] = 0.5 * (rendered.left[n] + rendered.right[n]);
-    const emitted = sounds[v.sound].frequency! * v.ratio;
-    const minHz = Math.max(20, emitted / 5);
-    const maxHz = Math.min(sr / 4, emitted * 5);
-    const track = trackPitch(mono, sr, { hopSeconds: 0.01, minHz, maxHz, windowSeconds: CHECK_WINDOW_SECONDS });
-    const start = (Math.floor((v.start * sr) / SCENE_BLOCK_FRAMES) * SCENE_BLOCK_FRAMES) / sr;
-    const source = v.source === null ? null : motionAt(script.sources[v.source].motion);
-    const expect = (times: ArrayLike<number>) =>
-      new ExpectedPitch({ emittedHz: emitted, group: v.group ?? undefined, tuning, source, listener, timeScaleAt, startTime: start }).frequencies(times);
-    const expected = expect(track.times);
-    const half = CHECK_WINDOW_SECONDS / 2;
-    const lo = expect(Float64Array.from(track.times, (t) => t - half));
-    const hi = expect(Float64Array.from(track.times, (t) => t + half));
-    const end = v.stop ?? script.duration;
-    const judged = new Float64Array(track.times.length);
-    for (let n = 0; n < judged.length; n++) {
-      const t = track.times[n];
-      const e = expected[n];
-      const steady = Math.abs(ratioToCents(hi[n] / lo[n])) <= tolerance;
-      const inRange = e >= minHz * 1.1 && e <= maxHz / 1.1;
-      judged[n] = t < start + CHECK_EDGE_SECONDS || t > end - CHECK_EDGE_SECONDS || !steady || !inRange ? NaN : e;
-    }
-    const stats = pitchErrorStats(judged, track.frequencies);
-    const passed = stats.count > 0 && stats.p95Cents <= tolerance;
-    const name = `voice ${i} (${v.sound}${v.source ? ` on ${v.source}` : ''})`;
-    results.push({ name, times: track.times, expectedHz: expected, judgedHz: judged, measuredHz: track.frequencies, stats, passed, note: stats.count === 0 ? 'no pitch found where one was expected' : undefined });
-  }
-  const times = results.length > 0 ? Float64Array.from(results[0].times) : new Float64Array(0);
-  return {
-    sources: results,
-    skipped: script.voices.length - tonal.length,
-    timeScale: { times, values: Float64Array.from(times, (t) => timeScaleAt(t)) },
-    passed: results.length > 0 && results.every((r) => r.passed),
-  };
+    return { ...judged, voice: v.index, model: v.expected.model };
+  });
+  options.onProgress?.(1);
+  return finish(scene, 'recorded-audio', sources, limits);
 }

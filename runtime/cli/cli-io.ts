@@ -9,7 +9,7 @@ export interface CliIo {
 }
 
 /** Exit codes of `ralenti`. */
-export const EXIT = Object.freeze({ ok: 0, failed: 1, usage: 2, input: 3, output: 4 });
+export const EXIT = Object.freeze({ ok: 0, failed: 1, usage: 2, input: 3, output: 4, internal: 5 });
 
 /** A problem to report to the user with an exit code (usage errors also print the command's usage). */
 export class CliError extends Error {

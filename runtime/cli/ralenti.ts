@@ -19,7 +19,8 @@ commands:
 ${commands.map((c) => `  ${c.name.padEnd(8)} ${c.summary}`).join('\n')}
 
 Run 'ralenti <command> --help' for a command's options.
-Exit codes: 0 success, 1 check failed, 2 bad arguments, 3 unreadable or malformed input, 4 cannot write output.
+Exit codes: 0 success, 1 check failed, 2 bad arguments, 3 unreadable or malformed input, 4 cannot write output,
+5 internal error (a bug: please report it).
 Start listening at a low volume: rendered files can be loud (the master limiter is on by default).
 `;
 

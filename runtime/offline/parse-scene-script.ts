@@ -129,6 +129,7 @@ function parseSound(r: Reader, v: unknown, path: string): SoundSpec | null {
     gain: r.number(o, 'gain', path, 0.5, 0, 1),
     sampleRate: r.optionalNumber(o, 'sampleRate', path, 8000, 192000),
   };
+  if (common.sampleRate !== null && !Number.isInteger(common.sampleRate)) r.fail(join(path, 'sampleRate'), `expected a whole number of hertz, got ${common.sampleRate}`);
   if (type === 'noise') {
     r.known(o, path, ['type', 'colour', 'seed', 'seconds', 'gain', 'sampleRate']);
     const colour: NoiseColour = r.choice(o, 'colour', path, ['white', 'pink', 'brown'] as const, 'white');
@@ -204,6 +205,7 @@ export function parseSceneScript(json: unknown): SceneScript {
   const version = r.number(root, 'version', '', SCENE_SCRIPT_VERSION, 1, 1);
   const duration = r.number(root, 'duration', '', undefined, 0, 3600, true);
   const sampleRate = r.number(root, 'sampleRate', '', 48000, 8000, 192000);
+  if (!Number.isInteger(sampleRate)) r.fail('sampleRate', `expected a whole number of hertz, got ${sampleRate}`);
   const velocities = r.choice(root, 'velocities', '', ['exact', 'estimated'] as const, 'exact');
   const snapshotRate = r.number(root, 'snapshotRate', '', 60, 1, 1000);
   let tuning: SceneScript['tuning'] = null;

@@ -20,6 +20,8 @@ export interface LoadedScene {
   script: SceneScript;
   sounds: Record<string, SoundBuffer>;
   tuning: Tuning;
+  /** Samples of the WAV sounds clamped to ±WAV_SAMPLE_BOUND or replaced (non-finite) when read. */
+  inputClamped?: number;
 }
 
 /** Reads and parses a scene script file; relative paths inside it resolve against its directory. Throws ScriptError. */
@@ -46,6 +48,7 @@ export function loadScene(script: SceneScript | unknown, options: { baseDir?: st
   const rate = options.sampleRate ?? s.sampleRate;
   const issues: ScriptIssue[] = [];
   const sounds: Record<string, SoundBuffer> = {};
+  let inputClamped = 0;
   for (const [name, spec] of Object.entries(s.sounds)) {
     if (spec.type !== 'file') {
       sounds[name] = generateSound(spec, rate);
@@ -54,6 +57,7 @@ export function loadScene(script: SceneScript | unknown, options: { baseDir?: st
     const file = resolve(base, spec.path);
     try {
       const wav = readWav(readFileSync(file));
+      inputClamped += wav.clamped ?? 0;
       sounds[name] = { channels: wav.channels.slice(0, 2), sampleRate: wav.sampleRate, frequency: null };
       if (wav.channels[0].length === 0) issues.push({ path: `sounds.${name}.path`, message: `${file} holds no samples` });
     } catch (e) {
@@ -68,7 +72,7 @@ export function loadScene(script: SceneScript | unknown, options: { baseDir?: st
     if ('path' in s.tuning) {
       const file = resolve(base, s.tuning.path);
       try {
-        json = JSON.parse(readFileSync(file, 'utf8'));
+        json = readFileSync(file, 'utf8'); // the text: parseTuning checks its size and repeated keys before using it
       } catch (e) {
         ok = false;
         issues.push({ path: 'tuning', message: `cannot read the tuning file ${file}: ${(e as NodeJS.ErrnoException).code ?? (e as Error).message}` });
@@ -84,7 +88,7 @@ export function loadScene(script: SceneScript | unknown, options: { baseDir?: st
     }
   }
   if (issues.length > 0) throw new ScriptError(issues);
-  return { script: s, sounds, tuning };
+  return { script: s, sounds, tuning, inputClamped };
 }
 
 /** Renders a scene script (parsed or raw JSON) offline with the engine: stereo Float32Arrays plus a summary. */

@@ -106,6 +106,11 @@ export class FlyThroughRecorder {
     return this.lastTime - this.startTime;
   }
 
+  /** Page time (s) that script time 0 of the running or last recording stands for (its first frame's timestamp). */
+  get startPageTime(): Seconds {
+    return this.startTime;
+  }
+
   /** Frames taken so far (of the running or the last recording). */
   get frameCount(): number {
     return this.frames;

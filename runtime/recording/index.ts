@@ -3,3 +3,6 @@ export { FlyThroughRecorder, flyThroughRecorderDefaults, formatSceneScript } fro
 export type { FlyThroughRecorderOptions, RecordedVoice, ScriptContent } from './fly-through-recorder';
 export { SceneReplay, readSceneScriptText } from './scene-replay';
 export type { ReplayPoint, SceneScriptReadResult } from './scene-replay';
+export { AudioCapture, audioCaptureDefaults } from './audio-capture';
+export type { AudioCaptureOptions, CapturedAudio } from './audio-capture';
+export { CAPTURE_PROCESSOR_NAME } from './capture-protocol';

@@ -3,8 +3,10 @@
 import { Engine } from '../../src/engine/index';
 import { parseTuning } from '../../src/tuning/index';
 import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
+import { WasmKernel } from '../../src/dsp/index';
 import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type RenderLoad, type Report } from '../protocol';
 import { VoiceEventRelay } from './voice-event-relay';
+import { TableInstaller } from './table-installer';
 
 /** A millisecond clock for timing process(), and its name (reported with the load). */
 export interface RenderClock {
@@ -66,6 +68,9 @@ export class EngineHost {
   private readonly relay: VoiceEventRelay;
   /** The node's routed group outputs of the current block (outputs 1…k; refilled each block, never reallocated). */
   private readonly routed: Float32Array[][];
+  /** Longest single call (process or message) since the last stats report, ms. */
+  private peakMs = 0;
+  private readonly tables: TableInstaller;
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
@@ -73,8 +78,11 @@ export class EngineHost {
     this.clock = options.clock ?? null;
     this.sampleRate = options.sampleRate;
     this.timeOffset = options.startContextTime;
+    // Tables designed on the main thread: the tuning's tier is installed here, before any audio; others follow in slices.
+    this.tables = new TableInstaller(WasmKernel.shared());
+    const tables = Array.isArray(p.tables) ? this.tables.receive(p.tables, true) : undefined;
     this.engine = new Engine({
-      sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, seed: p.seed,
+      sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, tables, seed: p.seed,
       maxSources: p.maxSources, groupOutputs: p.groupOutputs,
     });
     this.routed = (p.groupOutputs ?? []).map(() => []);
@@ -98,6 +106,12 @@ export class EngineHost {
 
   /** Handles one message from the port; malformed or failing commands are reported, never thrown. */
   handle(data: unknown): void {
+    const started = this.clock ? this.clock.now() : 0;
+    this.handleTimed(data);
+    if (this.clock) this.addBusy(this.clock.now() - started); // message time is audio-thread time too
+  }
+
+  private handleTimed(data: unknown): void {
     const command = decodeCommand(data);
     if (typeof command === 'string') {
       this.fail('command', command);
@@ -166,6 +180,11 @@ export class EngineHost {
         // Validated again here: a malformed document must be refused whole, not half-applied to the engine.
         e.setTuning(parseTuning(c.tuning));
         return;
+      case 'tables': {
+        const ready = this.tables.receive(c.tables, false);
+        if (ready.length > 0) e.useTables(ready);
+        return;
+      }
       case 'sync':
         this.relay.flush(this.timeOffset + e.time, true);
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
@@ -186,6 +205,10 @@ export class EngineHost {
     const started = this.clock ? this.clock.now() : 0;
     const frames = output[0].length;
     try {
+      if (this.tables.installing > 0) {
+        const done = this.tables.step();
+        if (done !== null) this.engine.useTables([done]);
+      }
       if (this.faulted) {
         silence(output);
       } else if (output.length === 2) {
@@ -218,11 +241,16 @@ export class EngineHost {
     }
     if (this.clock) {
       // Timed after the stats so that their cost counts too (in the next report).
-      const elapsed = this.clock.now() - started;
-      if (elapsed > 0 && elapsed < 1e4) this.busyMs += elapsed; // a clock step backwards or a huge jump is not render time
+      this.addBusy(this.clock.now() - started);
       this.audioMs += (1000 * frames) / this.sampleRate;
     }
     return true;
+  }
+
+  private addBusy(elapsed: number): void {
+    if (!(elapsed > 0 && elapsed < 1e4)) return; // a clock step backwards or a huge jump is not render time
+    this.busyMs += elapsed;
+    if (elapsed > this.peakMs) this.peakMs = elapsed;
   }
 
   /** Folds the time since the last report into the running average; null without a clock or before any audio. */
@@ -233,7 +261,9 @@ export class EngineHost {
     this.audioAvgMs = this.audioAvgMs * keep + this.audioMs;
     this.busyMs = 0;
     this.audioMs = 0;
-    return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS };
+    const peakMs = this.peakMs;
+    this.peakMs = 0;
+    return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS, peakMs };
   }
 
   /** Renders through the stereo scratch pair when the node has a channel count other than 2 (no allocation). */
@@ -272,7 +302,7 @@ export class EngineHost {
       }
       this.relay.flush(this.timeOffset + this.engine.time, true);
       const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
-      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad() });
+      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad(), tables: this.tables.counters() });
     } catch (err) {
       this.fail('stats', errorMessage(err));
     }

@@ -1,6 +1,8 @@
 // The AudioWorkletProcessor: registration, message hand-off and one call into the engine host per render quantum.
 import { EngineHost, errorMessage, type RenderClock } from './engine-host';
 import { PROCESSOR_NAME, type ProcessorOptions, type Report } from '../protocol';
+// Registers the recording capture tap in the same module (runtime/recording/capture-processor.ts).
+import '../recording/capture-processor';
 
 /**
  * The best clock the AudioWorkletGlobalScope offers: `performance` where it exists; Chromium does not expose it there

@@ -2,9 +2,9 @@
 import type { GroupPolicy, GroupTuning } from '../tuning';
 import { Curve } from './curve';
 
-/** Whether voices of a policy change speed (and pitch) with the time scale: only 'follow-time'. */
+/** Whether voices of a policy change speed with the time scale: 'follow-time' (pitch too) and 'stretch' (pitch apart). */
 export function policyFollowsSpeed(policy: GroupPolicy): boolean {
-  return policy === 'follow-time';
+  return policy === 'follow-time' || policy === 'stretch';
 }
 
 /** Whether tone (low-pass) and level curves apply: 'follow-time' and 'tone-only'. */
@@ -32,6 +32,12 @@ export class CompiledGroup {
   readonly doppler: boolean;
   /** Stealing priority 0…255. */
   readonly priority: number;
+  /** Voices keep their pitch apart from their speed (time-scale modification, src/stretch). */
+  readonly stretches: boolean;
+  /** s → pitch shift in cents of 'stretch' voices (0 = pitch kept). */
+  readonly stretchPitch: Curve;
+  /** 'stretch' voices hold their sound at time scale 0 instead of fading to silence. */
+  readonly holdsWhenFrozen: boolean;
 
   /** Time scale of the cached curve values below (NaN = none yet). */
   cachedScale = Number.NaN;
@@ -41,12 +47,15 @@ export class CompiledGroup {
   cachedCutoffHz = 20000;
   /** 10^(level(cachedScale)/20), or 1 when exempt. */
   cachedLevelGain = 1;
+  /** 2^(stretchPitch(cachedScale)/1200) for 'stretch' groups: the pitch ratio apart from Doppler; else cachedSpeed. */
+  cachedPitch = 1;
 
   /** Evaluates the curves at time scale s (0…4) into the cached fields; reuses them when s is unchanged. */
   evaluateAt(s: number, minCutoffHz: number, openCutoffHz: number): void {
     if (s === this.cachedScale) return;
     this.cachedScale = s;
     this.cachedSpeed = this.followsSpeed ? this.pitch.evaluate(s) : 1;
+    this.cachedPitch = this.stretches ? Math.pow(2, this.stretchPitch.evaluate(s) / 1200) : this.cachedSpeed;
     if (this.appliesTone) {
       const c = this.tone.evaluate(s);
       this.cachedCutoffHz = c < minCutoffHz ? minCutoffHz : c > openCutoffHz ? openCutoffHz : c;
@@ -68,5 +77,8 @@ export class CompiledGroup {
     this.level = new Curve(group.level);
     this.doppler = group.doppler;
     this.priority = group.priority;
+    this.stretches = group.policy === 'stretch';
+    this.stretchPitch = new Curve(group.stretchPitch ?? { interpolation: 'linear', keys: [{ x: 0, y: 0 }] });
+    this.holdsWhenFrozen = this.stretches && group.stretchFreeze === 'hold';
   }
 }

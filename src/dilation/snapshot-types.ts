@@ -50,4 +50,9 @@ export interface VoiceTargets {
    * (time scale ≈ 0): the engine fades the voice and holds its read head until it thaws.
    */
   frozen?: boolean;
+  /**
+   * Pitch ratio of a 'stretch' voice's content = base × 2^(stretchPitch(s)/1200) × doppler (0, 4], while `ratio` is
+   * its read speed; equal to `ratio` for other policies.
+   */
+  pitch?: number;
 }

@@ -51,7 +51,7 @@ export interface TargetMapperOptions {
 
 /** Creates a VoiceTargets object with neutral values (allocate once per voice). */
 export function createVoiceTargets(): VoiceTargets {
-  return { ratio: 1, cutoffHz: OPEN_CUTOFF_HZ, gain: 1, left: 1, right: 1, doppler: 1, radialSpeed: 0, distance: 0, frozen: false };
+  return { ratio: 1, cutoffHz: OPEN_CUTOFF_HZ, gain: 1, left: 1, right: 1, doppler: 1, radialSpeed: 0, distance: 0, frozen: false, pitch: 1 };
 }
 
 function finiteCoord(v: number, limit: number): boolean {
@@ -184,13 +184,19 @@ export class TargetMapper {
 
     let ratio = base * speed * out.doppler;
     const minRatio = this.minRatio;
-    out.frozen = g.followsSpeed && !(ratio >= minRatio);
+    out.frozen = g.followsSpeed && !g.holdsWhenFrozen && !(ratio >= minRatio);
     if (!(ratio >= minRatio)) ratio = minRatio;
     else if (ratio > MAX_TARGET_RATIO) {
       ratio = MAX_TARGET_RATIO;
       this.clamps += 1;
     }
     out.ratio = ratio;
+    if (g.stretches) {
+      let pitch = base * g.cachedPitch * out.doppler;
+      if (pitch > MAX_TARGET_RATIO) pitch = MAX_TARGET_RATIO;
+      else if (!(pitch >= minRatio)) pitch = minRatio;
+      out.pitch = pitch;
+    } else out.pitch = ratio;
     return out;
   }
 

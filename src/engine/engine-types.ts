@@ -2,7 +2,7 @@
 import type { Cents, Decibels, Hz, Seconds } from '../units';
 import type { Easing, QualityTierName, Tuning } from '../tuning/tuning-types';
 import type { ListenerState, SourceState } from '../dilation/snapshot-types';
-import type { KernelName, KernelPreference } from '../dsp';
+import type { KernelName, KernelPreference, KernelTable } from '../dsp';
 
 /** Engine construction options; capacities are fixed here for the engine's lifetime. */
 export interface EngineOptions {
@@ -18,12 +18,19 @@ export interface EngineOptions {
   maxBlockFrames?: number;
   /** A parsed tuning; defaults to the built-in tuning. */
   tuning?: Tuning;
+  /** Voices of 'stretch' groups that can play at once, 0…1024 (default 32; more play tape-style, counted in clamps). */
+  maxStretchVoices?: number;
   /** Resampler inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (reference), 'wasm-simd' (throws where unavailable). */
   kernel?: KernelPreference;
   /** Groups that get their own stereo output (at most 8), in order: they leave after their bus gain, before the master gain and limiter. */
   groupOutputs?: readonly string[];
   /** Seed of the per-play variation draws (pitchRange, gainRange), a 32-bit integer; default 1. Same seed, same plays: same samples. */
   seed?: number;
+  /**
+   * Kernel tables designed elsewhere (e.g. on the main thread, `KernelTable.fromData`), one per tier name. When given,
+   * the engine designs none: a tier without a table here keeps the table in use until `useTables` brings one.
+   */
+  tables?: readonly KernelTable[];
 }
 
 /** Options of one play request. */
@@ -68,6 +75,8 @@ export interface EngineStats {
   /** Peak absolute output sample of the last render call, before and after the limiter. */
   peakIn: number;
   peakOut: number;
+  /** Times the blast guard muted the output (sustained level far above full scale, or non-finite samples). */
+  blasts: number;
   /** Limiter gain reduction at the end of the last render call, in dB (≤ 0). */
   limiterDb: Decibels;
   /** Current time scale as the engine evaluates it. */

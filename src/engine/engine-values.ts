@@ -25,4 +25,5 @@ export function copyTargets(from: Voice['targets'], to: Voice['targets']): void 
   to.radialSpeed = from.radialSpeed;
   to.distance = from.distance;
   to.frozen = from.frozen;
+  to.pitch = from.pitch;
 }

@@ -3,7 +3,7 @@
 import type { Hz, Seconds } from '../units';
 import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, TimeScaleRequest, VoiceMonitor } from './engine-types';
 import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
-import { KernelTable, WasmKernel } from '../dsp';
+import { KernelTable, WasmKernel, aliasStopFraction } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
@@ -11,6 +11,7 @@ import { MasterBus } from './master-bus';
 import { KernelResidency } from './kernel-residency';
 import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
+import { StretchBank } from './stretch-stage';
 import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
 import { seededRandom } from '../random';
 import { sourceSpatialProblems, type SourceSpatial } from '../dilation';
@@ -26,6 +27,8 @@ export const engineDefaults = Object.freeze({
   maxSounds: 256,
   maxBlockFrames: 128,
   maxSources: 256,
+  /** Voices of 'stretch' groups that can play at once (more play tape-style, counted in clamps). */
+  maxStretchVoices: 32,
   /** Default fade-in of a voice, s. */
   fadeInSeconds: 0.003,
   /** Default fade-out of `stop`, s. */
@@ -51,6 +54,7 @@ export class Engine {
   private readonly mapper: TargetMapper;
   private readonly bus: MasterBus;
   private readonly scratch: VoiceScratch;
+  private readonly stretches: StretchBank;
   /** Module-memory bookkeeping when the voices run on the WebAssembly kernel, else null (TypeScript kernel). */
   private readonly resident: KernelResidency | null;
   private readonly input: VoiceInput;
@@ -65,6 +69,9 @@ export class Engine {
   private readonly random: () => number;
   private readonly routes: GroupRoutes;
   private routeCeiling = 1;
+  /** Tables handed in by the host (by tier name), or null: the engine designs its own (`KernelTable.forTier`). */
+  private readonly given: Map<string, KernelTable> | null;
+  private table: KernelTable;
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
   constructor(options: EngineOptions) {
@@ -80,12 +87,20 @@ export class Engine {
     this.mapper = new TargetMapper({ tuning: t });
     this.snapshots = new SnapshotStore({ maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
     this.bus = new MasterBus({ sampleRate: sr, maxBlockFrames: this.maxBlock, ceilingDb: t.master.ceilingDb, limiter: t.master.limiter, gainDb: t.master.gainDb });
-    const table = KernelTable.forTier(t.resampler.tier);
+    for (const k of options.tables ?? []) {
+      // A table designed for another output rate would fold or image into the audible band here.
+      if (!(k instanceof KernelTable) || Math.abs(k.aliasStop - aliasStopFraction(sr)) > 1e-12) throw new RangeError(`EngineOptions.tables: "${String(k?.name)}" was not designed for ${sr} Hz output`);
+    }
+    this.given = options.tables === undefined ? null : new Map(options.tables.map((k) => [k.name, k]));
+    const table = this.tableFor(t.resampler.tier) ?? options.tables?.[0] ?? KernelTable.forTier(t.resampler.tier, sr);
+    this.table = table;
     for (let i = 0; i < 2 * this.capacity; i++) {
       const v = new Voice(table, sr, this.smoothing(t), options.kernel ?? 'auto');
       v.index = i;
       this.voices.push(v);
     }
+    const stretchCount = checkRange('maxStretchVoices', options.maxStretchVoices ?? engineDefaults.maxStretchVoices, 0, 1024);
+    this.stretches = new StretchBank(stretchCount, table, sr, t.smoothing.ratioSeconds, options.kernel ?? 'auto');
     this.pool = new VoicePool({ voices: this.voices, capacity: this.capacity, bank: this.bank, events: this.events });
     this.routes = new GroupRoutes(options.groupOutputs ?? [], this.maxBlock);
     this.routeCeiling = Math.pow(10, t.master.ceilingDb / 20);
@@ -100,8 +115,8 @@ export class Engine {
     this.resident?.bind(this.scratch, this.bus);
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null, spatial: null };
     this.stats = {
-      activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0,
-      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: t.resampler.tier, kernel: this.voices[0].reader.kernelName,
+      activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
+      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: table.name as Tuning['resampler']['tier'], kernel: this.voices[0].reader.kernelName,
     };
   }
 
@@ -195,7 +210,14 @@ export class Engine {
     v.releaseStep = v.fadeStep(engineDefaults.stopFadeSeconds);
     copyTargets(this.probe, v.targets);
     const offset = clampNumber((options.offsetSeconds ?? 0) * rate, 0, this.bank.frames[slot], 0);
-    v.reader.setSource(this.bank.channels[slot]!, { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset });
+    const from = { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset };
+    v.reader.setSource(this.bank.channels[slot]!, from);
+    v.stretch = null;
+    if (compiled.stretches) {
+      v.stretch = this.stretches.claim(v.index, this.voices);
+      if (v.stretch === null) this.engineClamps++; // every stage busy: this voice plays tape-style
+      else v.stretch.start(this.bank.channels[slot]!, from);
+    }
     this.bank.release(slot, 1);
     return this.pool.handleOf(v);
   }
@@ -221,17 +243,37 @@ export class Engine {
     this.snapshots.configure(t.doppler.velocitySmoothingSeconds, t.doppler.teleportSpeed);
     this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
     this.routeCeiling = Math.pow(10, t.master.ceilingDb / 20);
-    const table = KernelTable.forTier(t.resampler.tier);
+    this.switchTable(this.tableFor(t.resampler.tier));
     const sm = this.smoothing(t);
+    this.stretches.configure(this.table, t.smoothing.ratioSeconds);
     for (const v of this.voices) {
-      v.reader.setTable(table);
       v.setSmoothing(sm);
       if (v.state === VOICE_FREE) continue;
       if (!this.mapper.hasGroup(v.group)) v.group = DEFAULT_GROUP;
       v.followsTime = this.mapper.group(v.group).followsSpeed;
       this.controls.rebind(v, this.mapper.group(v.group).policy === 'exempt');
     }
-    this.stats.tier = t.resampler.tier;
+  }
+
+  /** Adds tables designed elsewhere (by tier name, replacing any of the same name); switches at once if the tuning's tier was waiting for one. */
+  useTables(tables: readonly KernelTable[]): void {
+    if (this.given === null) return;
+    for (const k of tables) this.given.set(k.name, k);
+    this.switchTable(this.tableFor(this.tuning.resampler.tier));
+  }
+
+  /** The table for `tier` at this engine's rate: a given one, else (no tables given) the shared design; null while a given set lacks it. */
+  private tableFor(tier: Tuning['resampler']['tier']): KernelTable | null {
+    if (this.given === null) return KernelTable.forTier(tier, this.sampleRate);
+    return this.given.get(tier) ?? null;
+  }
+
+  private switchTable(table: KernelTable | null): void {
+    if (table === null || table === this.table) return;
+    this.table = table;
+    for (const v of this.voices) v.reader.setTable(table);
+    this.stretches.configure(table, this.tuning.smoothing.ratioSeconds);
+    this.stats.tier = table.name as Tuning['resampler']['tier'];
     this.resident?.bind(this.scratch, this.bus); // a new tier's tables may have grown module memory
   }
 
@@ -274,7 +316,7 @@ export class Engine {
       if (groupOutputs !== undefined) for (const g of groupOutputs) for (const o of g) o.fill(0, 0, Math.min(frames, o.length));
     }
     const readerClamps = this.pool.count(st);
-    st.clamps = this.engineClamps + this.routes.clamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.limiter.nonFinite + readerClamps;
+    st.clamps = this.engineClamps + this.routes.clamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps + this.stretches.clampCount;
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
     st.limiterDb = this.bus.limiter.reductionDb;
@@ -344,7 +386,8 @@ export class Engine {
   /** A voice's read position in seconds of source time, or −1 once it has ended. */
   voicePosition(voice: number): Seconds {
     const v = this.pool.resolve(voice);
-    return v === null ? -1 : v.reader.position / (v.rateFactor * this.sampleRate);
+    if (v === null) return -1;
+    return (v.stretch !== null ? v.stretch.reader.position : v.reader.position) / (v.rateFactor * this.sampleRate);
   }
 
   /** Source seconds a voice advances per output second now (its smoothed ratio; 0 while held), or 0 once ended. */

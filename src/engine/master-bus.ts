@@ -1,9 +1,11 @@
 // The engine's stereo master bus: the mix buffers voices sum into, a master gain ramped linearly across each block,
 // peak metering before and after the safety limiter, and the write to the host's outputs (mono hosts get the mid).
+// The blast guard and the 0 dBFS hard ceiling always run; the tuning switches only the limiter.
 import type { Decibels, Hz } from '../units';
 import type { EngineStats } from './engine-types';
 import type { MixBus } from './kernel-residency';
 import { PeakLimiter } from './peak-limiter';
+import { BlastGuard } from './blast-guard';
 
 /** Construction options of a MasterBus. */
 export interface MasterBusOptions {
@@ -27,6 +29,8 @@ export class MasterBus implements MixBus {
   right: Float32Array;
   /** The safety limiter. */
   readonly limiter: PeakLimiter;
+  /** The blast guard (mutes a sustained blast or non-finite mix; cannot be switched off). */
+  readonly guard: BlastGuard;
   private master: number;
   private masterPrev: number;
 
@@ -36,6 +40,7 @@ export class MasterBus implements MixBus {
     this.right = new Float32Array(options.maxBlockFrames);
     this.limiter = new PeakLimiter({ sampleRate: options.sampleRate, ceilingDb: options.ceilingDb });
     this.limiter.enabled = options.limiter;
+    this.guard = new BlastGuard({ sampleRate: options.sampleRate });
     this.master = this.masterPrev = Math.pow(10, options.gainDb / 20);
   }
 
@@ -44,6 +49,11 @@ export class MasterBus implements MixBus {
     this.limiter.setCeiling(ceilingDb);
     this.limiter.enabled = limiter;
     this.master = Math.pow(10, gainDb / 20);
+  }
+
+  /** Samples clamped or replaced on the bus: non-finite samples and hard-ceiling clips. */
+  get clamps(): number {
+    return this.guard.nonFinite + this.limiter.nonFinite + this.limiter.hardClips;
   }
 
   /** Zeroes the first `n` frames of the mix. */
@@ -72,6 +82,8 @@ export class MasterBus implements MixBus {
       if (b > peakIn) peakIn = b;
     }
     stats.peakIn = peakIn;
+    this.guard.process(mixL, mixR, n);
+    stats.blasts = this.guard.trips;
     this.limiter.process(mixL, mixR, 0, n);
     let peakOut = stats.peakOut;
     const outL = outputs[0];

@@ -8,7 +8,7 @@ export interface PeakLimiterOptions {
   sampleRate: Hz;
   /** Output ceiling in dBFS (−24…0), default −1. */
   ceilingDb?: Decibels;
-  /** Knee width in dB (0…12), default 4: limiting starts softly this far below the ceiling. */
+  /** Knee width in dB (0…12), default 4: the knee is centred on the ceiling, so limiting starts softly half of it below. */
   kneeDb?: Decibels;
   /** Release time constant in seconds (0.001…2), default 0.08. */
   releaseSeconds?: Seconds;
@@ -18,14 +18,17 @@ export interface PeakLimiterOptions {
 export const peakLimiterDefaults = Object.freeze({ ceilingDb: -1, kneeDb: 4, releaseSeconds: 0.08 });
 
 /**
- * Stereo peak limiter with instant attack (no overshoot, no lookahead latency) and exponential release.
- * Non-finite samples become 0 (counted); with `enabled` false only that sanitising is done.
+ * Stereo sample-peak limiter with instant attack (look-ahead 0: no overshoot, no latency) and exponential release;
+ * a sustained loud input settles exactly at the ceiling. Non-finite samples become 0 (counted). With `enabled`
+ * false a hard ceiling at 0 dBFS still holds (samples beyond it are clipped and counted in `hardClips`).
  */
 export class PeakLimiter {
   /** Whether limiting is applied (sanitising of non-finite samples always is). */
   enabled = true;
   /** Non-finite samples replaced by 0 since construction. */
   nonFinite = 0;
+  /** Samples clipped to ±1 (0 dBFS) while limiting was off, since construction. */
+  hardClips = 0;
   /** Current gain (linear, ≤ 1). */
   gain = 1;
   private ceiling = 1;
@@ -46,13 +49,15 @@ export class PeakLimiter {
     this.ceilingDb = Number.isFinite(ceilingDb) ? Math.min(0, Math.max(-24, ceilingDb)) : -1;
     this.kneeDb = Number.isFinite(kneeDb) ? Math.min(12, Math.max(0, kneeDb)) : 4;
     this.ceiling = Math.pow(10, this.ceilingDb / 20);
-    this.kneeStart = Math.pow(10, (this.ceilingDb - this.kneeDb) / 20);
+    this.kneeStart = Math.pow(10, (this.ceilingDb - this.kneeDb / 2) / 20);
   }
 
-  /** Static curve: output level in dB for input level `x` dB (soft knee of width W ending at the ceiling). */
+  /** Static curve: output level in dB for input level `x` dB (soft knee of width W centred on the ceiling, ratio ∞). */
   curveDb(x: Decibels): Decibels {
     const w = this.kneeDb;
-    const t = this.ceilingDb - w / 2; // threshold: the knee spans t − W/2 … t + W/2 = ceiling
+    // Threshold T = ceiling: with an infinite ratio the knee's output rises to T and stays there, so the output
+    // settles at the ceiling. (Placing T at ceiling − W/2 made a −1 dBFS ceiling settle at −3 dBFS.)
+    const t = this.ceilingDb;
     if (x <= t - w / 2) return x;
     if (w > 0 && x < t + w / 2) return x - ((x - t + w / 2) * (x - t + w / 2)) / (2 * w);
     return t;
@@ -82,6 +87,15 @@ export class PeakLimiter {
         this.nonFinite++;
       }
       if (!this.enabled) {
+        // Hard ceiling at 0 dBFS: cannot be switched off.
+        if (l > 1 || l < -1) {
+          l = l > 1 ? 1 : -1;
+          this.hardClips++;
+        }
+        if (r > 1 || r < -1) {
+          r = r > 1 ? 1 : -1;
+          this.hardClips++;
+        }
         left[i] = l;
         right[i] = r;
         continue;

@@ -89,6 +89,7 @@ export class VoiceControls {
     const f = this.seekFrame[v.index];
     if (f >= 0 && v.env === 0) {
       v.reader.position = f;
+      if (v.stretch !== null) v.stretch.reader.seek(f); // 'stretch' groups read through their stretch stage
       this.seekFrame[v.index] = -1;
     }
   }

@@ -4,6 +4,7 @@ import { BiquadLowpass, OnePoleSmoother, KernelTable, StreamReader, MAX_RATIO, M
 import { createVoiceTargets, type VoiceTargets } from '../dilation';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { Hz, Seconds } from '../units';
+import type { StretchStage } from './stretch-stage';
 
 /** Voice state: the slot is free. */
 export const VOICE_FREE = 0;
@@ -89,6 +90,8 @@ export class Voice {
   index = 0;
   readonly targets: VoiceTargets = createVoiceTargets();
   readonly reader: StreamReader;
+  /** The time-stretch stage reading in place of `reader` ('stretch' groups), or null (tape-style). */
+  stretch: StretchStage | null = null;
   readonly filter = new BiquadLowpass({ channels: 2 });
   readonly ratioCents: OnePoleSmoother;
   readonly dopplerCents: OnePoleSmoother;
@@ -253,12 +256,14 @@ export class Voice {
       this.filter.reset();
     }
     if (this.virtual) {
-      this.reader.skip(frames, ratioStart, ratioEnd);
+      if (this.stretch !== null) this.stretch.skip(frames, ratioStart, ratioEnd, t, this.dopplerCents.value);
+      else this.reader.skip(frames, ratioStart, ratioEnd);
       this.advanceCutoff(cutoffTarget, frames);
       return this.alive(envEnd);
     }
     const bufs = this.channels === 1 ? scratch.mono : scratch.stereo;
-    this.reader.read(bufs, 0, frames, ratioStart, ratioEnd);
+    if (this.stretch !== null) this.stretch.read(bufs, frames, ratioStart, ratioEnd, t, this.dopplerCents.value);
+    else this.reader.read(bufs, 0, frames, ratioStart, ratioEnd);
     this.tone(bufs, scratch.dry, frames, cutoffTarget);
 
     const x0 = bufs[0];
@@ -288,7 +293,7 @@ export class Voice {
 
   private alive(envEnd: number): boolean {
     if (this.state === VOICE_RELEASING && envEnd === 0) return false;
-    return !this.reader.finished;
+    return !(this.stretch !== null ? this.stretch.finished : this.reader.finished);
   }
 
   private advanceCutoff(target: number, frames: number): void {

@@ -1,5 +1,6 @@
 // The built-in tuning: values that sound right on the sample scene; the starting point of every tuning file.
 import type { CurveSpec, GroupTuning, Tuning } from './tuning-types';
+import { groupOptionalDefaults } from './tuning-limits';
 
 /** Current schema version of the tuning document. */
 export const TUNING_VERSION = 1;
@@ -20,8 +21,9 @@ const openTone = curve('linear', [[0, 20000]]);
 /** Level unchanged. */
 const flatLevel = curve('linear', [[0, 0]]);
 
-function group(g: GroupTuning): GroupTuning {
-  return g;
+/** A built-in group: the optional fields take their defaults unless given. */
+function group(g: Omit<GroupTuning, keyof typeof groupOptionalDefaults> & Partial<GroupTuning>): GroupTuning {
+  return { ...g, stretchPitch: g.stretchPitch ?? groupOptionalDefaults.stretchPitch, stretchFreeze: g.stretchFreeze ?? groupOptionalDefaults.stretchFreeze };
 }
 
 function deepFreeze<T>(value: T): T {
@@ -118,6 +120,21 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
       level: flatLevel,
       doppler: false,
       priority: 200,
+    }),
+    radio: group({
+      // Slows with the time scale but keeps its pitch (docs/time-stretch.md): dialogue stays intelligible.
+      policy: 'stretch',
+      pitch: identityPitch,
+      stretchPitch: curve('linear', [[0, 0]]),
+      stretchFreeze: 'silence',
+      tone: curve('monotone', [
+        [0, 4000],
+        [0.35, 9000],
+        [1, 20000],
+      ]),
+      level: flatLevel,
+      doppler: true,
+      priority: 150,
     }),
     music: group({
       policy: 'tone-only',

@@ -3,11 +3,14 @@ import type { CurveSpec, GroupTuning, Tuning } from './tuning-types';
 import { DEFAULT_GROUP, TUNING_VERSION, defaultTuning } from './default-tuning';
 import { TuningError, type TuningIssue } from './tuning-error';
 import { childPath, itemPath } from './json-path';
+import { findDuplicateKeys, MAX_TUNING_TEXT } from './json-text';
+import { describe, isPlainObject, scanTree } from './scan-tree';
 import { migrateVersion0, type IssueSink } from './migrate-tuning';
 import {
   curveLimits,
-  forbiddenKeys,
   groupLimits,
+  groupOptionalLimits,
+  groupOptionalDefaults,
   groupsLimits,
   sectionLimits,
   topLevelKeys,
@@ -18,7 +21,6 @@ import {
 const MAX_ISSUES = 100;
 /** Optional top-level key naming the JSON Schema for editors; accepted and not kept. */
 const SCHEMA_KEY = '$schema';
-const MAX_DEPTH = 32;
 
 type Json = unknown;
 type Obj = Record<string, Json>;
@@ -28,47 +30,6 @@ class Issues implements IssueSink {
   readonly list: TuningIssue[] = [];
   add(path: string, message: string): void {
     if (this.list.length < MAX_ISSUES) this.list.push({ path, message });
-  }
-}
-
-function describe(value: Json): string {
-  if (value === null) return 'null';
-  if (Array.isArray(value)) return 'an array';
-  if (typeof value === 'number') return Number.isNaN(value) ? 'NaN' : String(value);
-  if (typeof value === 'string') return `the string ${JSON.stringify(value.length > 40 ? value.slice(0, 40) + '…' : value)}`;
-  return `a ${typeof value}`;
-}
-
-function isPlainObject(value: Json): value is Obj {
-  if (value === null || typeof value !== 'object' || Array.isArray(value)) return false;
-  const proto = Object.getPrototypeOf(value);
-  return proto === Object.prototype || proto === null;
-}
-
-/** Rejects forbidden keys and non-JSON values anywhere in the tree, before anything reads it. */
-function scanTree(value: Json, path: string, depth: number, issues: IssueSink): void {
-  if (value === null || typeof value !== 'object') {
-    if (typeof value === 'function' || typeof value === 'symbol' || typeof value === 'bigint' || typeof value === 'undefined') {
-      issues.add(path, `expected a JSON value, got ${describe(value)}`);
-    }
-    return;
-  }
-  if (depth > MAX_DEPTH) {
-    issues.add(path, `nested deeper than ${MAX_DEPTH} levels`);
-    return;
-  }
-  if (Array.isArray(value)) {
-    for (let i = 0; i < value.length; i++) scanTree(value[i], itemPath(path, i), depth + 1, issues);
-    return;
-  }
-  if (!isPlainObject(value)) {
-    issues.add(path, 'expected a plain JSON object');
-    return;
-  }
-  for (const key of Object.keys(value)) {
-    const p = childPath(path, key);
-    if (forbiddenKeys.includes(key)) issues.add(p, `forbidden key "${key}"`);
-    else scanTree(value[key], p, depth + 1, issues);
   }
 }
 
@@ -131,7 +92,7 @@ function parseSection(name: SectionName, value: Json, issues: IssueSink): Obj {
   return out;
 }
 
-function parseCurve(value: Json, kind: 'pitch' | 'tone' | 'level', path: string, issues: IssueSink): CurveSpec | undefined {
+function parseCurve(value: Json, kind: keyof typeof curveLimits.y, path: string, issues: IssueSink): CurveSpec | undefined {
   const obj = objectAt(value, path, issues);
   if (!obj) return undefined;
   checkKeys(obj, ['interpolation', 'keys'], path, issues);
@@ -173,7 +134,7 @@ function parseGroup(value: Json, path: string, issues: IssueSink): GroupTuning |
   const obj = objectAt(value, path, issues);
   if (!obj) return undefined;
   const keys = Object.keys(groupLimits);
-  checkKeys(obj, keys, path, issues);
+  checkKeys(obj, [...keys, ...Object.keys(groupOptionalLimits)], path, issues);
   const out: Obj = {};
   for (const key of keys) {
     const limit = groupLimits[key as keyof typeof groupLimits];
@@ -184,6 +145,12 @@ function parseGroup(value: Json, path: string, issues: IssueSink): GroupTuning |
     } else {
       out[key] = field(obj, key, limit, path, issues);
     }
+  }
+  for (const key of Object.keys(groupOptionalLimits) as (keyof typeof groupOptionalLimits)[]) {
+    const limit = groupOptionalLimits[key];
+    if (!Object.prototype.hasOwnProperty.call(obj, key)) out[key] = groupOptionalDefaults[key];
+    else if (limit === 'curve') out[key] = parseCurve(obj[key], key as 'stretchPitch', childPath(path, key), issues);
+    else out[key] = field(obj, key, limit, path, issues);
   }
   return out as unknown as GroupTuning;
 }
@@ -259,23 +226,30 @@ function deepFreeze<T>(value: T): T {
  * Parses a tuning document (an object, or its JSON text) into a complete, deeply frozen Tuning.
  * Whole sections (and `groups`) may be omitted and take the built-in values; a present section must be
  * complete. A top-level "$schema" string (for editors) is accepted and dropped. Version 0 documents are migrated. Throws TuningError listing every problem with its JSON path.
+ * Text input is refused above MAX_TUNING_TEXT (4 MiB) before parsing, and keys repeated within one object are problems.
  */
 export function parseTuning(json: unknown): Tuning {
   const issues: IssueSink = new Issues();
   let input = json;
   if (typeof json === 'string') {
+    // Text: size first (before any parsing), then syntax, then keys repeated within an object.
+    if (json.length > MAX_TUNING_TEXT) {
+      throw new TuningError([{ path: '', message: `the text is ${json.length} characters; a tuning file is at most ${MAX_TUNING_TEXT} (4 MiB)` }]);
+    }
     try {
       input = JSON.parse(json);
     } catch (e) {
       throw new TuningError([{ path: '', message: `not valid JSON: ${(e as Error).message}` }]);
     }
+    const dups = findDuplicateKeys(json);
+    if (dups.length > 0) throw new TuningError(dups.map((d) => ({ path: d.path, message: `duplicate key "${d.key}" (JSON would keep only the last one)` })));
   }
   let result: Tuning | undefined;
   try {
     if (!isPlainObject(input)) {
       issues.add('', `expected a tuning object, got ${describe(input)}`);
     } else {
-      scanTree(input, '', 0, issues);
+      scanTree(input, issues);
       if (issues.list.length === 0) {
         const version = parseVersion(input, issues);
         if (version === 0) {

@@ -1,7 +1,7 @@
 // Canonical JSON text of a tuning: fixed key order, two-space indent, trailing newline.
 import type { CurveSpec, GroupTuning, Tuning } from './tuning-types';
 import { parseTuning } from './parse-tuning';
-import { groupLimits, sectionLimits } from './tuning-limits';
+import { groupLimits, groupOptionalLimits, sectionLimits } from './tuning-limits';
 
 function ordered(source: Record<string, unknown>, keys: readonly string[]): Record<string, unknown> {
   const out: Record<string, unknown> = {};
@@ -15,8 +15,11 @@ function curve(c: CurveSpec): Record<string, unknown> {
 
 function group(g: GroupTuning): Record<string, unknown> {
   const out: Record<string, unknown> = {};
-  for (const k of Object.keys(groupLimits) as (keyof GroupTuning)[]) {
+  for (const k of Object.keys(groupLimits) as (keyof typeof groupLimits)[]) {
     out[k] = groupLimits[k] === 'curve' ? curve(g[k] as CurveSpec) : g[k];
+  }
+  for (const k of Object.keys(groupOptionalLimits) as (keyof typeof groupOptionalLimits)[]) {
+    out[k] = groupOptionalLimits[k] === 'curve' ? curve(g[k] as CurveSpec) : g[k];
   }
   return out;
 }

@@ -72,7 +72,7 @@ export type SectionName = keyof typeof sectionLimits;
 
 /** Fields of one group, in serialization order ('pitch', 'tone' and 'level' are curves). */
 export const groupLimits = {
-  policy: oneOf('follow-time', 'exempt', 'tone-only'),
+  policy: oneOf('follow-time', 'exempt', 'tone-only', 'stretch'),
   pitch: 'curve',
   tone: 'curve',
   level: 'curve',
@@ -80,7 +80,19 @@ export const groupLimits = {
   priority: num(0, 255, { integer: true }),
 } as const;
 
-/** Curve limits: x is the time scale; y ranges per curve kind (pitch: speed multiplier, tone: Hz, level: dB). */
+/** Optional fields of one group (files may omit them; the parser fills `groupOptionalDefaults`), in serialization order. */
+export const groupOptionalLimits = {
+  stretchPitch: 'curve',
+  stretchFreeze: oneOf('silence', 'hold'),
+} as const;
+
+/** Values of the optional group fields when a file omits them: pitch kept (0 cents), silence at time scale 0. */
+export const groupOptionalDefaults = Object.freeze({
+  stretchPitch: Object.freeze({ interpolation: 'linear' as const, keys: Object.freeze([Object.freeze({ x: 0, y: 0 })]) }),
+  stretchFreeze: 'silence' as const,
+});
+
+/** Curve limits: x is the time scale; y ranges per curve kind (pitch: speed multiplier, tone: Hz, level: dB, stretchPitch: cents). */
 export const curveLimits = {
   interpolation: oneOf('linear', 'monotone'),
   minKeys: 1,
@@ -92,6 +104,7 @@ export const curveLimits = {
     pitch: num(0, 4),
     tone: num(20, OPEN_CUTOFF_HZ),
     level: num(-96, 24),
+    stretchPitch: num(-2400, 2400),
   },
 } as const;
 
@@ -113,6 +126,7 @@ export const topLevelKeys: readonly string[] = ['version', ...Object.keys(sectio
 export const tuningLimits = Object.freeze({
   sections: sectionLimits,
   group: groupLimits,
+  groupOptional: groupOptionalLimits,
   curve: curveLimits,
   groups: groupsLimits,
   forbiddenKeys,

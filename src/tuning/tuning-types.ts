@@ -21,8 +21,13 @@ export interface CurveSpec {
  * - 'follow-time': speed and pitch follow the pitch curve; tone and level curves apply.
  * - 'exempt': untouched by the time scale (interface sounds).
  * - 'tone-only': speed unchanged; tone and level curves apply (music).
+ * - 'stretch': voices advance through their sound at the pitch curve's speed while their pitch follows the
+ *   stretchPitch curve (time-scale modification, src/stretch); tone and level curves apply.
  */
-export type GroupPolicy = 'follow-time' | 'exempt' | 'tone-only';
+export type GroupPolicy = 'follow-time' | 'exempt' | 'tone-only' | 'stretch';
+
+/** What a 'stretch' group does at time scale 0: fade to silence and resume, or hold its sound (grains repeat in place). */
+export type StretchFreeze = 'silence' | 'hold';
 
 /** Tuning of one group of sounds. */
 export interface GroupTuning {
@@ -37,6 +42,10 @@ export interface GroupTuning {
   readonly doppler: boolean;
   /** Stealing priority: higher survives longer; integer 0…255. */
   readonly priority: number;
+  /** time scale → pitch shift in cents for 'stretch' groups, −2400…2400 (0 = pitch kept); optional in files (default 0). */
+  readonly stretchPitch: CurveSpec;
+  /** Time scale 0 in 'stretch' groups; optional in files (default 'silence'). */
+  readonly stretchFreeze: StretchFreeze;
 }
 
 /** Easing of a time-scale transition. */

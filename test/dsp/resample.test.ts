@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { DspArgumentError, resample, qualityTiers, defaultQualityTier, type QualityTierName } from '../../src/dsp';
+import { DspArgumentError, resample, resampleChunks, qualityTiers, defaultQualityTier, type QualityTierName } from '../../src/dsp';
 import * as root from '../../src/index';
 import { powerSpectrum, seededRandom, sine, METRIC } from './resampler-metric';
 import { libsamplerateResample } from '../../bench/resampler-reference';
@@ -101,5 +101,25 @@ describe('agreement with libsamplerate (SRC_SINC_BEST_QUALITY) in the passband',
       s += ours[i] ** 2;
     }
     expect(10 * Math.log10(e / s)).toBeLessThan(-figure[q]);
+  });
+});
+
+describe('resampleChunks', () => {
+  it.each([[1.7, 4096], [0.37, 1000], [4, 1]])('yields exactly resample()’s samples in bounded chunks at ratio %f, chunk %i', (r, chunk) => {
+    const x = sine(700, 22050, 0.2);
+    const whole = resample(x, r, { sampleRate: 22050 });
+    const parts: Float32Array[] = [];
+    for (const c of resampleChunks(x, r, { sampleRate: 22050 }, chunk)) {
+      expect(c.length).toBeLessThanOrEqual(chunk);
+      parts.push(c.slice());
+    }
+    const joined = new Float32Array(parts.reduce((n, p) => n + p.length, 0));
+    parts.reduce((at, p) => (joined.set(p, at), at + p.length), 0);
+    expect(joined).toEqual(whole);
+    expect(joined.length).toBe(Math.floor(x.length / r));
+  });
+
+  it('throws a RangeError naming "chunkFrames" for a chunk outside 1…65536', () => {
+    expect(() => [...resampleChunks(new Float32Array(10), 1, {}, 0)]).toThrow(/chunkFrames/);
   });
 });

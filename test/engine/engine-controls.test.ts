@@ -171,6 +171,15 @@ describe('Engine voice handles', () => {
     expect(e.voicePosition(v)).toBeCloseTo(0.5 + (80 * B - jump) / SR, 9);
   });
 
+  it('seeks a voice of a stretch group through its stretch stage', () => {
+    const e = engineAt();
+    const v = e.play(e.addSound([marker()], SR), { group: 'radio', loop: true, fadeInSeconds: 0 });
+    blocks(e, 10, (k) => k === 2 && e.seek(v, 0.6));
+    // 2 blocks, the seek's fade (one block past FREEZE_FADE_SECONDS), then the rest at speed 1 from 0.6 s.
+    const after = (10 - 2 - Math.ceil((FREEZE_FADE_SECONDS * SR) / B)) * B;
+    expect(e.voicePosition(v)).toBeCloseTo(0.6 + after / SR, 3);
+  });
+
   it('reports states and ordered events: stopping then ended after stop, stolen then ended after a steal, ended for a finished one-shot', () => {
     const e = engineAt({ capacity: 1 });
     const s = e.addSound([sine(300, SR, 0.05)], SR);

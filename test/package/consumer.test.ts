@@ -3,6 +3,7 @@
 // Node imports of every entry, strict type checks under three module resolutions, esbuild and Vite builds, the built
 // game in headless Chromium with a real AudioContext, and the `ralenti` program as installed.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
 import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -15,6 +16,7 @@ import { CHROMIUM_ARGS, CHROMIUM_PATH, browserSuiteMode } from '../browser/brows
 // @ts-expect-error: plain ESM script without declarations
 import { serveStatic } from '../../scripts/static-server.mjs';
 import { folderBytes, installed, makeGame, npmEnv, packFromAwkwardPath, repo, run, sineWav, versionMatrix, type Packed } from './consumer-setup';
+import { ENGINE_HAS_PROPAGATION } from '../runtime/check/engine-switch';
 
 const work = mkdtempSync(join(tmpdir(), 'ralenti-consumer-'));
 const www = join(work, 'www');
@@ -119,6 +121,14 @@ describe('the packed tarball, installed in a fresh game', () => {
       bake: ['bake', 'tone.wav', '--speed', '0.5', '-o', 'tone slow.wav', '-q'],
       check: ['check', join(examples, 'flyby.json'), '-q'],
     };
+    if (verb === 'check') {
+      // A check exits with its verdict; today's default engine fails the fly-by (docs/checker.md, engine-switch.ts).
+      const c = spawnSync('npx', ['--no-install', 'ralenti', ...args.check], { cwd: dir, encoding: 'utf8', env: { ...process.env, ...npmEnv } });
+      expect(c.stderr).toBe('');
+      expect(c.stdout).toMatch(/^judged an offline re-render of the script$/m);
+      expect(c.status).toBe(ENGINE_HAS_PROPAGATION ? 0 : 1);
+      return;
+    }
     const r = run('npx', ['--no-install', 'ralenti', ...args[verb]], dir, npmEnv);
     if (verb === '--version') expect(r.stdout.trim()).toBe(JSON.parse(readFileSync(join(repo, 'package.json'), 'utf8')).version);
     else expect(r.stderr).toBe('');

@@ -23,7 +23,7 @@ symlinkSync(base, join(root, 'up'));
 /** One raw HTTP/1.1 request; resolves to status and body. */
 function raw(port: number, target: string, method = 'GET', host = '127.0.0.1'): Promise<{ status: number; body: string }> {
   return new Promise((done, fail) => {
-    const socket = connect(port, host, () => socket.write(`${method} ${target} HTTP/1.1\r\nHost: 127.0.0.1\r\nConnection: close\r\n\r\n`));
+    const socket = connect(port, host, () => socket.write(`${method} ${target} HTTP/1.1\r\nHost: 127.0.0.1:${port}\r\nConnection: close\r\n\r\n`));
     let text = '';
     socket.setTimeout(10_000, () => socket.destroy(new Error('timeout')));
     socket.on('data', (d) => (text += d.toString('latin1')));

@@ -26,12 +26,19 @@ function host(clock?: RenderClock) {
   return { h, out, loads };
 }
 
-/** A clock that reads `start` on the first call of each block and `start + busy` on the second, optionally floored. */
+/** Clock reads taken by host()'s two setup messages (each handle() reads the clock twice); they read zero time. */
+const SETUP_CALLS = 4;
+
+/** A clock that reads `start` on the first call of each block and `start + busy` on the second, optionally floored (after SETUP_CALLS reads of starts[0]). */
 function scriptedClock(starts: number[], busyMs: number, step: 'exact' | 'whole-ms'): RenderClock {
-  let call = 0;
+  let call = -SETUP_CALLS;
   return {
     name: step === 'exact' ? 'performance.now' : 'Date.now',
     now: () => {
+      if (call < 0) {
+        call++;
+        return starts[0];
+      }
       const block = call >> 1;
       const t = starts[block] + (call & 1 ? busyMs : 0);
       call++;
@@ -90,5 +97,23 @@ describe('EngineHost render load', () => {
     const { h, out, loads } = host(scriptedClock(starts, -0.5, 'exact'));
     for (let b = 0; b < blocks; b++) h.process(out);
     expect((loads().at(-1) as RenderLoad).fraction).toBe(0);
+  });
+
+  it('counts time spent handling messages on the audio thread, and reports the longest single call', () => {
+    // Each block: process() takes 0.5 ms, then one message takes 2 ms: (0.5 + 2) / (8/3) of the audio time.
+    const readings: number[] = [0, 0, 0, 0]; // host()'s setup messages
+    for (let b = 0; b < 400; b++) {
+      const start = 1000 + b * BLOCK_MS;
+      readings.push(start, start + 0.5, start + 0.5, start + 2.5);
+    }
+    let k = 0;
+    const { h, out, loads } = host({ name: 'performance.now', now: () => readings[k++] });
+    for (let b = 0; b < 400; b++) {
+      h.process(out);
+      h.handle({ type: 'set-voice', voice: 1, gain: 0.5 });
+    }
+    const last = loads().at(-1) as RenderLoad;
+    expect(last.fraction).toBeCloseTo(2.5 / BLOCK_MS, 6);
+    expect(last.peakMs).toBeCloseTo(2, 9);
   });
 });

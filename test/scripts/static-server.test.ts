@@ -18,7 +18,7 @@ writeFileSync(join(base, 'secret.txt'), 'outside the root');
 function rawStatus(port: number, target: string): Promise<number> {
   return new Promise((done, fail) => {
     const socket = connect(port, '127.0.0.1', () => {
-      socket.write(`GET ${target} HTTP/1.1\r\nHost: 127.0.0.1\r\nConnection: close\r\n\r\n`);
+      socket.write(`GET ${target} HTTP/1.1\r\nHost: 127.0.0.1:${port}\r\nConnection: close\r\n\r\n`);
     });
     let text = '';
     socket.on('data', (d) => (text += d.toString('latin1')));

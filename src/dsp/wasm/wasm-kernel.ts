@@ -34,6 +34,14 @@ export interface KernelExports {
   render(table: number, x0: number, x1: number, spanBase: number, out0: number, out1: number, pos: number, iStart: number, iEnd: number, frames: number, rs: number, dr: number, ratios: number, loopEnd: number, state: number): number;
 }
 
+/** A placed table's bytes copied out of one module instance (`WasmKernel.imageOf`), transferable to another. */
+export interface KernelImage {
+  /** The region from the table header to the end of its last stride layout. */
+  readonly bytes: Uint8Array;
+  /** Byte offset the region had in the instance that built it (pointers inside are relative to that placement). */
+  readonly origin: number;
+}
+
 /** Output samples per kernel call; the source span copied for one call covers at most RUN_FRAMES · MAX_RATIO frames plus the window. */
 export const RUN_FRAMES = 512;
 
@@ -85,8 +93,13 @@ export class WasmKernel {
   spanFloats = 0;
   /** Counts discards of resident sources: a reader re-reads its pointers when this changed since its setSource. */
   residentEpoch = 0;
+  /** Stride layouts built by this instance (`buildStride` calls); an installed image builds none. */
+  stridesBuilt = 0;
   private top: number;
   private readonly tables = new Map<KernelTable, number>();
+  /** Byte end of each table's region (header … last stride), for `imageOf`. */
+  private readonly tableEnds = new Map<KernelTable, number>();
+  private readonly installs = new Map<KernelTable, { at: number; copied: number; image: KernelImage }>();
   private readonly resident = new Map<Float32Array, { at: number; bytes: number; users: number }>();
   private readonly freeAt: number[] = [];
   private readonly freeBytes: number[] = [];
@@ -148,16 +161,84 @@ export class WasmKernel {
       const diffs = rows + align(4 * this.exports.rowFloats(total, s));
       at = diffs + align(4 * this.exports.diffFloats(halfDense, s));
       this.exports.buildStride(header, dense, total, s, desc, rows, diffs);
+      this.stridesBuilt++;
     }
+    this.tableEnds.set(table, at);
+    this.ensureSpans(table);
+    this.tables.set(table, header);
+    return header;
+  }
+
+  /** True when `table` is placed in module memory (built or installed): `tablePointer` then costs a map lookup. */
+  hasTable(table: KernelTable): boolean {
+    return this.tables.has(table);
+  }
+
+  /** A copy of `table`'s placed region (built here first if needed), to install into another instance of the module. */
+  imageOf(table: KernelTable): KernelImage {
+    const header = this.tablePointer(table);
+    const end = this.tableEnds.get(table) ?? header;
+    return { bytes: new Uint8Array(this.exports.memory.buffer).slice(header, end), origin: header };
+  }
+
+  /**
+   * Installs an image from `imageOf` (of the same module and table) by copying at most `maxBytes` per call; true once
+   * installed (pointers relocated, `tablePointer` ready without building). Grows memory only as far as the copy has got,
+   * so that each call's cost stays bounded (for the audio thread: one call per render quantum).
+   */
+  installStep(table: KernelTable, image: KernelImage, maxBytes: number): boolean {
+    if (this.tables.has(table)) return true;
+    let job = this.installs.get(table);
+    if (job === undefined || job.image !== image) {
+      job = { at: this.top, copied: 0, image };
+      this.top = align(this.top + image.bytes.length);
+      this.installs.set(table, job);
+    }
+    const n = Math.min(image.bytes.length - job.copied, Math.max(16, maxBytes));
+    const end = job.at + job.copied + n;
+    const have = this.exports.memory.buffer.byteLength;
+    // Grow a few slices ahead (at most to the image's end), so that views are renewed once per 1 MB rather than per slice.
+    const ahead = Math.min(job.at + image.bytes.length, Math.max(end, have + (1 << 20)));
+    if (end > have) this.exports.memory.grow(Math.ceil((ahead - have) / 65536));
+    this.refresh();
+    new Uint8Array(this.exports.memory.buffer, job.at + job.copied, n).set(image.bytes.subarray(job.copied, job.copied + n));
+    job.copied += n;
+    if (job.copied < image.bytes.length) return false;
+    this.installs.delete(table);
+    this.relocate(table, job.at, job.at - image.origin);
+    this.tableEnds.set(table, job.at + image.bytes.length);
+    this.ensureSpans(table);
+    this.tables.set(table, job.at);
+    return true;
+  }
+
+  /** Adds `delta` to every pointer of the table region at `header` (header fields, stride descriptors and their rows). */
+  private relocate(table: KernelTable, header: number, delta: number): void {
+    const i32 = this.i32;
+    const h = header >> 2;
+    i32[h + 4] += delta;
+    i32[h + 5] += delta;
+    const byStride = i32[h + 5] >> 2;
+    for (const s of table.strideGrid) {
+      i32[byStride + s] += delta;
+      const d0 = i32[byStride + s] >> 2;
+      for (let ci = 0; ci < s; ci++) {
+        const d = d0 + 8 * ci;
+        i32[d] += delta;
+        i32[d + 1] += delta;
+        i32[d + 4] += delta;
+      }
+    }
+  }
+
+  private ensureSpans(table: KernelTable): void {
     const smallest = table.strideGrid[table.strideGrid.length - 1];
-    const need = spanFloatsFor(table.halfTaps * p, smallest);
+    const need = spanFloatsFor(table.halfTaps * table.phases, smallest);
     if (need > this.spanFloats) {
       this.span0 = this.alloc(4 * need);
       this.span1 = this.alloc(4 * need);
       this.spanFloats = need;
     }
-    this.tables.set(table, header);
-    return header;
   }
 
   /**

@@ -43,10 +43,11 @@ describe('ralenti command line', () => {
 
   it.each(Object.keys(runs).map((v) => [v]))('`ralenti %s` shows progress on stderr, and nothing there with -q', async (verb) => {
     const loud = await runCli(runs[verb](join(dir, `${verb}-loud.wav`)));
-    expect(loud.code).toBe(0);
+    // A check exits with its verdict: 0 pass, 1 fail (today's default engine fails the fly-by; docs/checker.md).
+    expect(verb === 'check' ? [0, 1] : [0]).toContain(loud.code);
     expect(loud.err).toMatch(/100%/);
     const quiet = await runCli([...runs[verb](join(dir, `${verb}-quiet.wav`)), '-q']);
-    expect(quiet.code).toBe(0);
+    expect(quiet.code).toBe(loud.code);
     expect(quiet.err).toBe('');
     expect(quiet.out).toBe(loud.out.replaceAll('-loud.wav', '-quiet.wav'));
   }, 60_000);

@@ -75,18 +75,18 @@ describe('readWav', () => {
 
 describe('writeWav', () => {
   const signal = [new Float32Array([0, 0.5, -0.5, 0.999, -1, 0.123456]), new Float32Array([1, -1, 0.25, 0, 0.3, -0.3])];
-  it.each<[WavEncoding, number]>([
-    ['pcm16', 1 / 32768],
-    ['pcm24', 1 / 8388608],
-    ['float32', 0],
-  ])('round-trips %s within half a quantisation step (+1 within one step: it clamps to the largest code)', (encoding, step) => {
+  it.each<[WavEncoding, number, number]>([
+    ['pcm16', 1 / 32768, 1], // TPDF dither adds at most ±1 step before rounding
+    ['pcm24', 1 / 8388608, 0],
+    ['float32', 0, 0],
+  ])('round-trips %s within half a quantisation step plus its dither (+1 within one step more: it clamps to the largest code)', (encoding, step, dither) => {
     const back = readWav(writeWav({ sampleRate: 22050, channels: signal, encoding }));
     expect(back.encoding).toBe(encoding);
     expect(back.sampleRate).toBe(22050);
     for (let c = 0; c < 2; c++)
       for (let i = 0; i < signal[c].length; i++) {
         // Rounding to the nearest code errs by at most step/2; +1 clamps to the largest code, 1 − step.
-        const bound = signal[c][i] === 1 ? step : step / 2;
+        const bound = (signal[c][i] === 1 ? step : step / 2) + dither * step;
         expect(Math.abs(back.channels[c][i] - signal[c][i])).toBeLessThanOrEqual(bound + 1e-12);
       }
   });
@@ -100,8 +100,63 @@ describe('writeWav', () => {
     expect(v.getUint32(40, true)).toBe(6);
   });
 
-  it('clamps integer encodings and writes NaN as silence', () => {
-    const back = readWav(writeWav({ sampleRate: 8000, channels: [new Float32Array([4, -4, NaN])], encoding: 'pcm16' }));
-    expect(Array.from(back.channels[0])).toEqual([32767 / 32768, -1, 0]);
+  it('clamps integer encodings and writes NaN as silence (pcm16: within its ±1-step dither)', () => {
+    const back = readWav(writeWav({ sampleRate: 8000, channels: [new Float32Array([4, -4, NaN])], encoding: 'pcm24' }));
+    expect(Array.from(back.channels[0])).toEqual([8388607 / 8388608, -1, 0]);
+    const b16 = readWav(writeWav({ sampleRate: 8000, channels: [new Float32Array([4, -4, NaN])], encoding: 'pcm16' }));
+    expect(Array.from(b16.channels[0]).slice(0, 2)).toEqual([32767 / 32768, -1]);
+    expect(Math.abs(b16.channels[0][2])).toBeLessThanOrEqual(1 / 32768);
+  });
+
+  // TPDF dither of ±1 step makes the first two moments of the total error independent of the signal: mean 0 and
+  // variance Δ²/12 + Δ²/6 = Δ²/4 (Lipshitz, Wannamaker & Vanderkooy, JAES 40(5) 1992; docs/references.md §19.1).
+  it.each([0, 0.3, 0.5, -0.77])('dithers 16-bit output by TPDF: error mean 0 and variance Δ²/4 for a constant %s step off a code', (offset) => {
+    const n = 200_000;
+    const step = 1 / 32768;
+    const x = new Float32Array(n).fill((1000 + offset) * step);
+    const back = readWav(writeWav({ sampleRate: 8000, channels: [x], encoding: 'pcm16' })).channels[0];
+    let sum = 0;
+    let sq = 0;
+    for (let i = 0; i < n; i++) {
+      const e = (back[i] - x[i]) / step;
+      sum += e;
+      sq += e * e;
+    }
+    const mean = sum / n;
+    expect(Math.abs(mean)).toBeLessThan(0.01);
+    expect(sq / n - mean * mean).toBeCloseTo(0.25, 1);
+  });
+});
+
+describe('WAV input sanity', () => {
+  it.each([1, 7999, 384001, 4294967295])('refuses a file at %i Hz, naming the supported range', (rate) => {
+    expect(() => readWav(handMade(1, 1, rate, 16, [0, 0]))).toThrow(/outside the supported 8000…384000 Hz/);
+  });
+
+  it.each([8000, 384000])('reads a file at %i Hz', (rate) => {
+    expect(readWav(handMade(1, 1, rate, 16, [0, 0])).sampleRate).toBe(rate);
+  });
+
+  it.each([44100.5, 0, 5e9, NaN])('refuses to write sample rate %s', (rate) => {
+    expect(() => writeWav({ sampleRate: rate, channels: [new Float32Array(2)] })).toThrow(WavError);
+  });
+
+  it('clamps float samples beyond ±16 (+24 dBFS) and replaces non-finite ones by 0, counting both', () => {
+    const f = new Uint8Array(new Float32Array([1e30, -1e30, NaN, Infinity, 15.5, -0.25]).buffer);
+    const wav = readWav(handMade(3, 1, 48000, 32, Array.from(f)));
+    expect(Array.from(wav.channels[0])).toEqual([16, -16, 0, 16, 15.5, -0.25]);
+    expect(wav.clamped).toBe(4);
+  });
+});
+
+describe('WAV chunk walking', () => {
+  it('refuses a file with more than 4096 chunks before its data instead of crawling them', () => {
+    const head = new Uint8Array(12 + 5000 * 8);
+    const v = new DataView(head.buffer);
+    head.set([0x52, 0x49, 0x46, 0x46], 0); // RIFF
+    v.setUint32(4, head.length - 8, true);
+    head.set([0x57, 0x41, 0x56, 0x45], 8); // WAVE
+    for (let i = 0; i < 5000; i++) head.set([0x4a, 0x55, 0x4e, 0x4b], 12 + 8 * i); // empty "JUNK" chunks
+    expect(() => readWav(head)).toThrow(/more than 4096 chunks/);
   });
 });
