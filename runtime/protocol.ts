@@ -90,6 +90,11 @@ export interface TablesCommand {
   type: 'tables';
   tables: PackedKernelTable[];
 }
+/** Declare that a source jumps: its next snapshot restarts its track (no Doppler sweep across the jump). */
+export interface TeleportCommand {
+  type: 'teleport';
+  source: number;
+}
 /** Ask for a 'synced' report once every earlier command has been handled. */
 export interface SyncCommand {
   type: 'sync';
@@ -107,6 +112,7 @@ export type Command =
   | TimeScaleCommand
   | TuningCommand
   | TablesCommand
+  | TeleportCommand
   | SyncCommand
   | ControlCommand;
 
@@ -219,6 +225,8 @@ export function decodeCommand(data: unknown): Command | string {
       return Array.isArray(data.tables) && data.tables.every(isPackedKernelTable) ? (data as unknown as TablesCommand) : 'tables.tables: expected packed kernel tables';
     case 'sync':
       return isHandle(data.id) ? (data as unknown as SyncCommand) : 'sync.id: expected a handle';
+    case 'teleport':
+      return typeof data.source === 'number' && Number.isFinite(data.source) ? (data as unknown as TeleportCommand) : 'teleport.source: expected a source id';
     default:
       return decodeControlCommand(data) ?? `command: unknown type "${String(data.type)}"`;
   }

@@ -21,11 +21,19 @@ export class RalentiSource {
   spatialChanged = false;
   private spatial: SourceSpatial | null = null;
   private readonly state: SourceState;
+  private readonly onTeleport: ((id: number) => void) | null;
 
   /** Created by Ralenti.createSource(); not meant to be built directly. */
-  constructor(id: number) {
+  constructor(id: number, onTeleport: ((id: number) => void) | null = null) {
     this.id = id;
     this.state = { id, position: this.position };
+    this.onTeleport = onTeleport;
+  }
+
+  /** Declares a jump (respawn, portal): the next position starts the source's track afresh, with no Doppler sweep. */
+  teleport(): this {
+    this.onTeleport?.(this.id);
+    return this;
   }
 
   /** Sets the position in metres. */

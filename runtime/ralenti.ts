@@ -285,7 +285,7 @@ export class Ralenti {
   /** A new positioned source; voices follow it via `play(sound, { source })`. */
   createSource(): RalentiSource {
     this.alive('createSource');
-    const s = new RalentiSource(this.nextSource++);
+    const s = new RalentiSource(this.nextSource++, (source) => this.send({ type: 'teleport', source }));
     this.sources.add(s);
     s.onDispose = () => {
       this.sources.delete(s);

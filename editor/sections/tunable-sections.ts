@@ -56,6 +56,10 @@ export function addGroupsSection(pane: Pane, ctx: TunableContext): FolderApi {
       options: { 'follows time': 'follow-time', 'tone only': 'tone-only', exempt: 'exempt', 'stretch (keeps pitch)': 'stretch' },
     }).on('change', (e) => ctx.changed(e.last));
     page.addBinding(g, 'doppler', { label: 'Doppler' }).on('change', (e) => ctx.changed(e.last));
+    page.addBinding(g, 'motion', {
+      label: 'motion',
+      options: { 'sound travels': 'propagation', 'same instant': 'instant', off: 'off' },
+    }).on('change', (e) => ctx.changed(e.last));
     page.addBinding(g, 'priority', { label: 'priority', min: 0, max: 255, step: 1 }).on('change', (e) => ctx.changed(e.last));
     const curves = g as unknown as { [k: string]: CurveSpec };
     addCurve(page, ctx, curves, 'pitch', { title: `${name} · speed & pitch ×`, unit: '×', yMin: 0, yMax: 4, yKnee: 1 });
@@ -77,6 +81,8 @@ export function addDopplerSection(pane: Pane, ctx: TunableContext): FolderApi {
     ctx.changed(e.last);
   });
   f.addBinding(shown, 'c', { label: 'sound (m/s)', readonly: true, format: (v: number) => v.toFixed(1) });
+  f.addBinding(air, 'relativeHumidity', { label: 'humidity (%)', min: 0, max: 100, step: 1 }).on('change', (e) => ctx.changed(e.last));
+  f.addBinding(air, 'pressureKilopascals', { label: 'pressure (kPa)', min: 50, max: 120, step: 0.1 }).on('change', (e) => ctx.changed(e.last));
   const d = ctx.draft.doppler;
   f.addBinding(d, 'factor', { label: 'Doppler factor', min: 0, max: 4, step: 0.05 }).on('change', (e) => ctx.changed(e.last));
   f.addBinding(d, 'maxShiftCents', { label: 'max shift (¢)', min: 0, max: 2400, step: 10 }).on('change', (e) => ctx.changed(e.last));

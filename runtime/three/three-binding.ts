@@ -20,14 +20,17 @@ export interface SnapshotTarget {
 export interface ThreeBindingOptions {
   /** The runtime to feed. */
   target: SnapshotTarget;
-  /** Estimate velocities here from world positions (default true); false leaves estimation to the engine. */
+  /**
+   * Estimate velocities here from world positions and send them (default false: positions only, and the engine
+   * derives velocities from its trajectory history without lag; true sends smoothed finite differences, which lag).
+   */
   estimateVelocity?: boolean;
   /** Call updateWorldMatrix on bound objects before reading them (default false: read after the renderer or scene.updateMatrixWorld()). */
   updateMatrices?: boolean;
 }
 
 /** Frozen defaults of ThreeBindingOptions. */
-export const threeBindingDefaults = Object.freeze({ estimateVelocity: true, updateMatrices: false });
+export const threeBindingDefaults = Object.freeze({ estimateVelocity: false, updateMatrices: false });
 
 interface Bound {
   readonly object: Object3D;
@@ -79,6 +82,11 @@ export class ThreeBinding {
   /** The source bound to `object`, if any. */
   sourceOf(object: Object3D): RalentiSource | undefined {
     return this.bound.get(object)?.source;
+  }
+
+  /** Declares that `object` jumped (respawn, portal): its next position restarts its track, with no Doppler sweep. */
+  teleport(object: Object3D): void {
+    this.bound.get(object)?.source.teleport();
   }
 
   /** Unbinds `object` and disposes its source (voices on it keep their last position). */

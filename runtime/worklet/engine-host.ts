@@ -189,6 +189,9 @@ export class EngineHost {
         this.relay.flush(this.timeOffset + e.time, true);
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
         return;
+      case 'teleport':
+        e.teleport(c.source);
+        return;
       default:
         this.relay.apply(c);
         return;
@@ -301,7 +304,9 @@ export class EngineHost {
         this.voices.delete(mainVoice);
       }
       this.relay.flush(this.timeOffset + this.engine.time, true);
-      const stats: EngineStats = { ...this.engine.stats, errors: this.engine.stats.errors + this.errors };
+      // The last shockwave's time goes out in context time, as every time the main thread sees.
+      const st = this.engine.stats;
+      const stats: EngineStats = { ...st, errors: st.errors + this.errors, lastShockwaveTime: this.timeOffset + st.lastShockwaveTime };
       this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad(), tables: this.tables.counters() });
     } catch (err) {
       this.fail('stats', errorMessage(err));

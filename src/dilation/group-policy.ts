@@ -1,5 +1,5 @@
 // Group policies: how a group's voices respond to the time scale, compiled once from the tuning.
-import type { GroupPolicy, GroupTuning } from '../tuning';
+import type { GroupPolicy, GroupTuning, MotionModel } from '../tuning';
 import { Curve } from './curve';
 
 /** Whether voices of a policy change speed with the time scale: 'follow-time' (pitch too) and 'stretch' (pitch apart). */
@@ -28,8 +28,10 @@ export class CompiledGroup {
   readonly tone: Curve;
   /** s → level in dB. */
   readonly level: Curve;
-  /** Doppler applies to positioned voices of this group. */
+  /** The same-instant Doppler ratio (motion 'instant') applies to positioned voices of this group. */
   readonly doppler: boolean;
+  /** How positioned voices hear motion: 'off' also when the tuning's `doppler` is false. */
+  readonly motion: MotionModel;
   /** Stealing priority 0…255. */
   readonly priority: number;
   /** Voices keep their pitch apart from their speed (time-scale modification, src/stretch). */
@@ -75,7 +77,8 @@ export class CompiledGroup {
     this.pitch = new Curve(group.pitch);
     this.tone = new Curve(group.tone);
     this.level = new Curve(group.level);
-    this.doppler = group.doppler;
+    this.motion = group.doppler ? (group.motion ?? 'propagation') : 'off';
+    this.doppler = this.motion === 'instant';
     this.priority = group.priority;
     this.stretches = group.policy === 'stretch';
     this.stretchPitch = new Curve(group.stretchPitch ?? { interpolation: 'linear', keys: [{ x: 0, y: 0 }] });

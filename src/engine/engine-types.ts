@@ -14,6 +14,8 @@ export interface EngineOptions {
   maxSounds?: number;
   /** Source slots for positions and velocities from snapshots (1…4096), default 256. */
   maxSources?: number;
+  /** Trajectory knots kept per source for the propagation model (16…4096, default 256: ≈ 4.3 s of 60 Hz snapshots). */
+  trackKnots?: number;
   /** Largest block `render` accepts in one call without splitting (default 128, the Web Audio render quantum). */
   maxBlockFrames?: number;
   /** A parsed tuning; defaults to the built-in tuning. */
@@ -89,6 +91,24 @@ export interface EngineStats {
   tier: QualityTierName;
   /** Resampler inner loop in use: 'wasm-simd' or 'typescript' (the fallback where WebAssembly SIMD is unavailable). */
   kernel: KernelName;
+  /** Per-sample read ratios of propagating voices clamped to the resampler's range (e.g. at a Mach cone); also in `clamps`. */
+  ratioClamps: number;
+  /** Source teleports: jumps away from the position predicted from the recent motion, and explicit `teleport` calls. */
+  teleports: number;
+  /** Mach-cone arrivals (shockwaves) so far; the last one's engine time (s, NaN before any) and source id (−1 before any). */
+  shockwaves: number;
+  lastShockwaveTime: Seconds;
+  lastShockwaveSource: number;
+}
+
+/** A supersonic source's Mach cone reached the listener (read with `Engine.drainShockwaves`). */
+export interface ShockwaveEvent {
+  /** Engine time of the arrival, s. */
+  time: Seconds;
+  /** Game time of the arrival (∫ time scale dt), s. */
+  gameTime: Seconds;
+  /** The source's id. */
+  sourceId: number;
 }
 
 /** Per-voice state for monitors (editor), filled without allocation into caller-owned objects. */

@@ -1,9 +1,14 @@
 // The voice engine: a fixed pool of voices over decoded sounds, rendered block by block (control rate = block),
 // mixed to a stereo master bus with a safety limiter. One engine, two hosts (AudioWorklet and Node).
 import type { Hz, Seconds } from '../units';
-import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, TimeScaleRequest, VoiceMonitor } from './engine-types';
+import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, ShockwaveEvent, TimeScaleRequest, VoiceMonitor } from './engine-types';
+import type { SourceState } from '../dilation';
+import type { Vec3Like } from '../units';
+import { AirAbsorption, speedOfSound } from '../motion';
+import { PropagationStage } from './propagation-stage';
+import { airStage, propagateVoice } from './voice-propagation';
 import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
-import { KernelTable, WasmKernel, aliasStopFraction } from '../dsp';
+import { KernelTable, WasmKernel, aliasStopFraction, MAX_RATIO, MIN_RATIO } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
@@ -59,6 +64,11 @@ export class Engine {
   private readonly resident: KernelResidency | null;
   private readonly input: VoiceInput;
   private readonly probe: Voice['targets'] = createVoiceTargets();
+  private readonly stage: PropagationStage;
+  private readonly air: AirAbsorption;
+  /** Emission-time state of a propagating voice's source, handed to the mapper (velocity 0: the Doppler is in the read). */
+  private readonly emission: SourceState & { velocity: Vec3Like } = { id: 0, position: { x: 0, y: 0, z: 0 }, velocity: { x: 0, y: 0, z: 0 } };
+  private readonly slotOf = (id: number): number => this.snapshots.find(id);
   private tuning: Tuning;
   private frameCount = 0;
   private sequence = 0;
@@ -86,6 +96,9 @@ export class Engine {
     this.tuning = t;
     this.mapper = new TargetMapper({ tuning: t });
     this.snapshots = new SnapshotStore({ maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
+    this.stage = new PropagationStage({ maxSources, knots: checkRange('trackKnots', options.trackKnots ?? 256, 16, 4096) });
+    this.stage.speedOfSound = propagationSpeed(t);
+    this.air = new AirAbsorption(t.air);
     this.bus = new MasterBus({ sampleRate: sr, maxBlockFrames: this.maxBlock, ceilingDb: t.master.ceilingDb, limiter: t.master.limiter, gainDb: t.master.gainDb });
     for (const k of options.tables ?? []) {
       // A table designed for another output rate would fold or image into the audible band here.
@@ -108,7 +121,7 @@ export class Engine {
     this.random = seededRandom(options.seed ?? 1);
     const buf = () => new Float32Array(this.maxBlock);
     const stereo = [buf(), buf()];
-    this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()], wasm: null };
+    this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()], wasm: null, ratios: new Float32Array(this.maxBlock), stage: this.stage };
     const wasm = this.voices[0].reader.kernelName === 'wasm-simd' ? WasmKernel.shared() : null;
     // Voice scratch and mix bus in module memory: the kernel writes and the module mixes there, with no copies.
     this.resident = wasm === null ? null : new KernelResidency({ kernel: wasm, maxBlockFrames: this.maxBlock, bank: this.bank, owner: this });
@@ -117,6 +130,7 @@ export class Engine {
     this.stats = {
       activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
       limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: table.name as Tuning['resampler']['tier'], kernel: this.voices[0].reader.kernelName,
+      ratioClamps: 0, teleports: 0, shockwaves: 0, lastShockwaveTime: NaN, lastShockwaveSource: -1,
     };
   }
 
@@ -199,6 +213,15 @@ export class Engine {
     v.sourceId = sourceId;
     v.sourceSlot = src;
     v.sequence = this.sequence++;
+    // Stretched voices read through their own stage at the same-instant ratio (propagation reads the sound itself).
+    v.propagating = sourceId !== -1 && compiled.motion === 'propagation' && !compiled.stretches;
+    v.airEngaged = false;
+    v.arrived = !v.propagating;
+    v.startTime = this.time;
+    v.arrivalFrames = 0;
+    v.arrivalSkipFrames = 0;
+    v.dopplerStart = 1;
+    v.dopplerEnd = 1;
     v.virtual = false;
     v.fresh = true;
     v.thawing = false;
@@ -241,6 +264,8 @@ export class Engine {
     this.tuning = t;
     this.mapper.setTuning(t);
     this.snapshots.configure(t.doppler.velocitySmoothingSeconds, t.doppler.teleportSpeed);
+    this.stage.speedOfSound = propagationSpeed(t);
+    this.air.configure(t.air);
     this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
     this.routeCeiling = Math.pow(10, t.master.ceilingDb / 20);
     this.switchTable(this.tableFor(t.resampler.tier));
@@ -250,8 +275,16 @@ export class Engine {
       v.setSmoothing(sm);
       if (v.state === VOICE_FREE) continue;
       if (!this.mapper.hasGroup(v.group)) v.group = DEFAULT_GROUP;
-      v.followsTime = this.mapper.group(v.group).followsSpeed;
-      this.controls.rebind(v, this.mapper.group(v.group).policy === 'exempt');
+      const g = this.mapper.group(v.group);
+      v.followsTime = g.followsSpeed;
+      const propagating = v.sourceId !== -1 && g.motion === 'propagation' && v.stretch === null;
+      if (propagating !== v.propagating) {
+        // A model switch mid-voice: keep playing from where the read is (no new delay).
+        v.propagating = propagating;
+        v.arrived = true;
+        v.dopplerStart = v.dopplerEnd = 1;
+      }
+      this.controls.rebind(v, g.policy === 'exempt');
     }
   }
 
@@ -282,6 +315,7 @@ export class Engine {
     try {
       if (s.timeScale !== undefined) this.flow.jump(s.timeScale, this.controls.flowTime(this.time));
       this.snapshots.push(s, this.time);
+      this.stage.push(s, this.time, this.snapshots.snapshotInterval, this.slotOf);
     } catch {
       this.stats.errors++;
     }
@@ -293,6 +327,19 @@ export class Engine {
     // In time-flow time, which stops while the world is paused: a ramp asked for during a pause starts on resume.
     const startTime = this.controls.clock.requestTime(request.startTime ?? now, now);
     this.flow.set({ target: request.target, rampSeconds: request.rampSeconds, easing: request.easing, startTime }, this.controls.flowTime(now));
+  }
+
+  /**
+   * Declares that source `sourceId` jumps: its next snapshot restarts its track (no Doppler sweep across the jump;
+   * voices on it keep playing without a jump in their read). Unknown ids are ignored.
+   */
+  teleport(sourceId: number): void {
+    this.stage.teleport(sourceId);
+  }
+
+  /** Copies pending Mach-cone arrivals (oldest first, up to out.length) into `out`; returns how many. */
+  drainShockwaves(out: ShockwaveEvent[]): number {
+    return this.stage.drainShockwaves(out);
   }
 
   /**
@@ -316,7 +363,15 @@ export class Engine {
       if (groupOutputs !== undefined) for (const g of groupOutputs) for (const o of g) o.fill(0, 0, Math.min(frames, o.length));
     }
     const readerClamps = this.pool.count(st);
-    st.clamps = this.engineClamps + this.routes.clamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps + this.stretches.clampCount;
+    const stage = this.stage;
+    st.clamps = this.engineClamps + this.routes.clamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps + this.stretches.clampCount + stage.ratioClamps + stage.tracks.dropped;
+    st.ratioClamps = stage.ratioClamps;
+    st.teleports = stage.tracks.teleports;
+    if (stage.shockwaves !== st.shockwaves) {
+      st.shockwaves = stage.shockwaves;
+      st.lastShockwaveTime = stage.lastShockwaveTime;
+      st.lastShockwaveSource = stage.lastShockwaveSource;
+    }
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
     st.limiterDb = this.bus.limiter.reductionDb;
@@ -420,8 +475,10 @@ export class Engine {
       m.voice = this.pool.handleOf(v);
       m.sourceId = v.sourceId;
       m.group = v.group;
-      m.ratioCents = 1200 * Math.log2(v.currentRatio);
-      m.dopplerCents = v.dopplerCents.value;
+      // The ratio in use: a propagating voice's read includes the Doppler factor, clamped as fillRatios clamps it.
+      const r = v.propagating ? v.currentRatio * v.dopplerEnd : v.currentRatio;
+      m.ratioCents = 1200 * Math.log2(r < MIN_RATIO ? MIN_RATIO : r > MAX_RATIO ? MAX_RATIO : r);
+      m.dopplerCents = v.propagating ? 1200 * Math.log2(v.dopplerEnd) : v.dopplerCents.value;
       m.radialSpeed = v.targets.radialSpeed;
       m.distance = v.targets.distance;
       m.cutoffHz = v.currentCutoff;
@@ -437,18 +494,30 @@ export class Engine {
     this.bus.clear(n);
     const routes = this.routes;
     routes.clear(n);
-    // Control values at the block's midpoint: the smoothers then follow a moving target without a half-block lead.
-    const tMid = (this.frameCount + n / 2) / this.sampleRate;
-    this.snapshots.interpolate(tMid);
-    const s = this.flow.valueAt(this.controls.flowTime(tMid));
     const controls = this.controls;
     this.events.now = this.time;
-    for (let i = 0; i < this.voices.length; i++) {
-      const v = this.voices[i];
+    // Control values at the block's end, reached there by per-sample ramps from the block's start (no half-block lag).
+    // The time flow runs on the pause clock: it holds while the world is paused.
+    const tStart = this.frameCount / this.sampleRate;
+    const tEnd = (this.frameCount + n) / this.sampleRate;
+    this.snapshots.interpolate(tEnd);
+    const s = this.flow.valueAt(controls.flowTime(tEnd));
+    const voices = this.voices;
+    for (let i = 0; i < voices.length; i++) {
+      const v = voices[i];
+      if (v.state === VOICE_FREE || v.sourceId === -1) continue;
+      if (!this.snapshots.holds(v.sourceSlot, v.sourceId)) v.sourceSlot = this.snapshots.find(v.sourceId);
+      if (v.propagating) this.stage.need(v.sourceSlot);
+    }
+    this.stage.advance(tStart, tEnd, this.flow.valueAt(controls.flowTime(0.5 * (tStart + tEnd))));
+    for (let i = 0; i < voices.length; i++) {
+      const v = voices[i];
       if (v.state === VOICE_FREE) continue;
-      if (v.sourceId !== -1 && !this.snapshots.holds(v.sourceSlot, v.sourceId)) v.sourceSlot = this.snapshots.find(v.sourceId);
+      const slot = v.sourceId === -1 ? -1 : v.sourceSlot;
+      const source = v.propagating ? propagateVoice(this.stage, v, slot, n, this.time, this.sampleRate, this.emission) : slot >= 0 ? this.snapshots.sourceAt(slot) : null;
       this.input.spatial = controls.spatialOf(v);
-      this.mapInto(v.targets, v.group, v.ratio * v.rateFactor, v.gain, v.sourceId === -1 ? -1 : v.sourceSlot, s);
+      this.mapSource(v.targets, v.group, v.ratio * v.rateFactor, v.gain, source, s);
+      if (v.propagating && source !== null) airStage(v, this.air);
       controls.beforeRender(v);
       const wasVirtual = v.virtual;
       const route = controls.routeOf(v);
@@ -463,12 +532,16 @@ export class Engine {
   }
 
   private mapInto(out: Voice['targets'], group: string, baseRatio: number, gain: number, sourceSlot: number, timeScale = this.flow.valueAt(this.controls.flowTime(this.time))): void {
+    this.mapSource(out, group, baseRatio, gain, sourceSlot >= 0 ? this.snapshots.sourceAt(sourceSlot) : null, timeScale);
+  }
+
+  private mapSource(out: Voice['targets'], group: string, baseRatio: number, gain: number, source: (SourceState & { velocity: Vec3Like }) | null, timeScale: number): void {
     const inp = this.input;
     inp.timeScale = timeScale;
     inp.group = group;
     inp.baseRatio = baseRatio;
     inp.gain = gain;
-    inp.source = sourceSlot >= 0 ? this.snapshots.sourceAt(sourceSlot) : null;
+    inp.source = source;
     this.mapper.map(out, inp);
   }
 
@@ -479,3 +552,16 @@ export class Engine {
 
 /** Freeze fade of groups at time scale 0, s (re-exported for hosts and tests). */
 export const ENGINE_FREEZE_FADE_SECONDS = FREEZE_FADE_SECONDS;
+
+/** Largest propagation speed used (a Doppler factor near 0): sound then arrives at once with no shift, m/s. */
+const MAX_PROPAGATION_SPEED = 1e9;
+
+/**
+ * Speed of sound for the propagation model, m/s: the air's, divided by the tuning's Doppler factor — the factor scales
+ * the velocities against c as in OpenAL 1.1 §3.5.2 (docs/references.md §1c), so 2 doubles the shift and 0 removes it.
+ */
+function propagationSpeed(t: Tuning): number {
+  const c = t.air.speedOfSound ?? speedOfSound(t.air.temperatureCelsius);
+  const f = t.doppler.factor;
+  return f > c / MAX_PROPAGATION_SPEED ? c / f : MAX_PROPAGATION_SPEED;
+}

@@ -25,7 +25,7 @@ export class GroupRoutes {
     this.names = unique;
     this.left = unique.map(() => new Float32Array(maxBlockFrames));
     this.right = unique.map(() => new Float32Array(maxBlockFrames));
-    this.scratch = { stereo: [], mono: [], dry: [], wasm: null };
+    this.scratch = { stereo: [], mono: [], dry: [], wasm: null, ratios: new Float32Array(0), stage: null };
   }
 
   /** Route index of `group`, or −1 when it mixes into the master bus. */
@@ -49,6 +49,8 @@ export class GroupRoutes {
     s.mono[0] = main.mono[0];
     s.dry[0] = main.dry[0];
     s.dry[1] = main.dry[1];
+    s.ratios = main.ratios;
+    s.stage = main.stage;
     return s;
   }
 

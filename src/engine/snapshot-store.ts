@@ -108,6 +108,11 @@ export class SnapshotStore {
     }
   }
 
+  /** Snapshot-time gap between the last two snapshots, s (0 for the first or a non-increasing time). */
+  get snapshotInterval(): Seconds {
+    return this.interval;
+  }
+
   /** Sets the interpolation point to engine time `now` and fills `listener`. */
   interpolate(now: Seconds): void {
     const a = this.interval > 0 ? (now - this.arrival) / this.interval : 1;

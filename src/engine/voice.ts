@@ -5,6 +5,7 @@ import { createVoiceTargets, type VoiceTargets } from '../dilation';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { Hz, Seconds } from '../units';
 import type { StretchStage } from './stretch-stage';
+import type { PropagationStage } from './propagation-stage';
 
 /** Voice state: the slot is free. */
 export const VOICE_FREE = 0;
@@ -54,6 +55,10 @@ export interface VoiceScratch {
   dry: Float32Array[];
   /** The WebAssembly kernel when `stereo` and the mix bus are views of its memory (the mix then runs in the module), else null. */
   wasm: WasmKernel | null;
+  /** Per-sample read ratios of a propagating voice (maxBlockFrames). */
+  ratios: Float32Array;
+  /** The engine's propagation stage (fills and counts the ratios), or null. */
+  stage: PropagationStage | null;
 }
 
 /** A voice slot: state, resampler, filter and smoothers, all allocated once. */
@@ -88,6 +93,22 @@ export class Voice {
   held = false;
   /** Slot index in the engine's pool. */
   index = 0;
+  /** Propagation model: the read follows the emission time (delay and emission-time Doppler). */
+  propagating = false;
+  /** The air-absorption low-pass has engaged for this voice (it then stays engaged). */
+  airEngaged = false;
+  /** Whether the sound has reached the listener (propagating voices are silent and hold until it does). */
+  arrived = true;
+  /** Engine time the voice started (its sound's emission began), s. */
+  startTime: Seconds = 0;
+  /** Game-clock Doppler factor at the block's start and end (propagating voices). */
+  dopplerStart = 1;
+  dopplerEnd = 1;
+  /** Mean Doppler factor over the block (NaN: unknown, ramp linearly). */
+  dopplerMean = NaN;
+  /** Frames of the arrival block before the sound arrives, or emission frames the arrival jumped over (a Mach cone). */
+  arrivalFrames = 0;
+  arrivalSkipFrames = 0;
   readonly targets: VoiceTargets = createVoiceTargets();
   readonly reader: StreamReader;
   /** The time-stretch stage reading in place of `reader` ('stretch' groups), or null (tape-style). */
@@ -164,6 +185,8 @@ export class Voice {
    * Returns false when the voice has ended (released to silence or a finished one-shot) and should be freed.
    */
   render(mixL: Float32Array, mixR: Float32Array, offset: number, frames: number, scratch: VoiceScratch): boolean {
+    // Not yet arrived (propagation delay, or outside a Mach cone): silent, read head at the start.
+    if (!this.arrived) return this.state !== VOICE_RELEASING;
     const t = this.targets;
     const frozen = (t.frozen === true && this.followsTime) || this.held;
     if (this.state === VOICE_PLAYING) {
@@ -242,6 +265,13 @@ export class Voice {
     this.startLeft = leftEnd;
     this.startRight = rightEnd;
 
+    let advance = 0;
+    const ratios = scratch.ratios;
+    const silentFrames = this.arrivalFrames;
+    if (this.propagating && scratch.stage !== null) {
+      advance = scratch.stage.fillRatios(ratios, frames, ratioStart, ratioEnd, this.dopplerStart, this.dopplerEnd, this.dopplerMean);
+      this.arrive(ratios);
+    }
     if (envStart === 0 && envEnd === 0) {
       // Held (frozen group) or silent: the read head stays where it is.
       if (this.state === VOICE_RELEASING) return false;
@@ -257,13 +287,18 @@ export class Voice {
     }
     if (this.virtual) {
       if (this.stretch !== null) this.stretch.skip(frames, ratioStart, ratioEnd, t, this.dopplerCents.value);
+      else if (this.propagating) this.reader.position = this.reader.position + advance;
       else this.reader.skip(frames, ratioStart, ratioEnd);
       this.advanceCutoff(cutoffTarget, frames);
       return this.alive(envEnd);
     }
     const bufs = this.channels === 1 ? scratch.mono : scratch.stereo;
     if (this.stretch !== null) this.stretch.read(bufs, frames, ratioStart, ratioEnd, t, this.dopplerCents.value);
-    else this.reader.read(bufs, 0, frames, ratioStart, ratioEnd);
+    else if (this.propagating) {
+      this.reader.readRatios(bufs, 0, frames, ratios, 0);
+      // Before the arrival sample nothing has reached the listener yet.
+      for (let c = 0; c < bufs.length; c++) bufs[c].fill(0, 0, silentFrames);
+    } else this.reader.read(bufs, 0, frames, ratioStart, ratioEnd);
     this.tone(bufs, scratch.dry, frames, cutoffTarget);
 
     const x0 = bufs[0];
@@ -289,6 +324,20 @@ export class Voice {
     }
     if (!(check - check === 0)) this.filter.reset(); // non-finite input: do not let it live on in the filter state
     return this.alive(envEnd);
+  }
+
+  /** In the block the sound arrives: start the read so that the sound's first frame plays at the arrival sample. */
+  private arrive(ratios: Float32Array): void {
+    if (this.arrivalFrames > 0) {
+      let early = 0;
+      for (let i = 0; i < this.arrivalFrames; i++) early += ratios[i];
+      this.reader.position = this.reader.position - early;
+      this.arrivalFrames = 0;
+    }
+    if (this.arrivalSkipFrames > 0) {
+      this.reader.position = this.reader.position + this.arrivalSkipFrames * ratios[0];
+      this.arrivalSkipFrames = 0;
+    }
   }
 
   private alive(envEnd: number): boolean {

@@ -12,3 +12,5 @@ export {
 export type { DopplerStats, DopplerOptions, MovingPoint } from './doppler';
 export { VelocityEstimator, velocityEstimatorDefaults } from './velocity-estimator';
 export type { VelocityEstimatorOptions } from './velocity-estimator';
+export { airAbsorptionDbPerMeter, AirAbsorption, AIR_CUTOFF_LOSS_DB, REFERENCE_PRESSURE_KPA } from './air-absorption';
+export type { AirState } from './air-absorption';

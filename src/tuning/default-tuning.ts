@@ -37,7 +37,7 @@ function deepFreeze<T>(value: T): T {
 /** The built-in tuning (schema version 1), deeply frozen. */
 export const defaultTuning: Tuning = deepFreeze<Tuning>({
   version: TUNING_VERSION,
-  air: { temperatureCelsius: 20, speedOfSound: null },
+  air: { temperatureCelsius: 20, speedOfSound: null, relativeHumidity: 50, pressureKilopascals: 101.325 },
   doppler: {
     factor: 1,
     maxShiftCents: 1200,
@@ -48,7 +48,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
   },
   distance: { model: 'inverse', refDistance: 1, maxDistance: 10000, rolloffFactor: 1 },
   timeFlow: { slowMotionScale: 0.35, rampInSeconds: 0.25, rampOutSeconds: 0.4, easing: 'smooth' },
-  smoothing: { ratioSeconds: 0.03, cutoffSeconds: 0.02, gainSeconds: 0.01 },
+  smoothing: { ratioSeconds: 0, cutoffSeconds: 0.02, gainSeconds: 0.01 },
   resampler: { tier: 'standard' },
   master: { limiter: true, ceilingDb: -1, gainDb: 0 },
   groups: {
@@ -68,6 +68,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 100,
     }),
     vehicles: group({
@@ -86,6 +87,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 120,
     }),
     ambience: group({
@@ -111,6 +113,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: true,
+      motion: 'propagation',
       priority: 60,
     }),
     interface: group({
@@ -119,6 +122,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
       tone: openTone,
       level: flatLevel,
       doppler: false,
+      motion: 'propagation',
       priority: 200,
     }),
     radio: group({
@@ -127,6 +131,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
       pitch: identityPitch,
       stretchPitch: curve('linear', [[0, 0]]),
       stretchFreeze: 'silence',
+      motion: 'propagation',
       tone: curve('monotone', [
         [0, 4000],
         [0.35, 9000],
@@ -151,6 +156,7 @@ export const defaultTuning: Tuning = deepFreeze<Tuning>({
         [1, 0],
       ]),
       doppler: false,
+      motion: 'propagation',
       priority: 180,
     }),
   },

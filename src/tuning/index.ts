@@ -6,7 +6,7 @@ export type { DuplicateKey } from './json-text';
 export { serializeTuning } from './serialize-tuning';
 export { TuningError } from './tuning-error';
 export type { TuningIssue } from './tuning-error';
-export { tuningLimits, sectionLimits, groupLimits, groupOptionalLimits, groupOptionalDefaults, curveLimits, groupsLimits, forbiddenKeys, topLevelKeys } from './tuning-limits';
+export { tuningLimits, sectionLimits, groupLimits, groupOptionalLimits, groupOptionalDefaults, curveLimits, groupsLimits, forbiddenKeys, topLevelKeys, isOptionalField } from './tuning-limits';
 export type { FieldLimit, NumberField, EnumField, BooleanField, SectionName } from './tuning-limits';
 export { version0Keys } from './migrate-tuning';
 export { OPEN_CUTOFF_HZ, MAX_TIME_SCALE } from './tuning-types';

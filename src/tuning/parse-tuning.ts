@@ -49,6 +49,7 @@ function objectAt(value: Json, path: string, issues: IssueSink): Obj | undefined
 function field(obj: Obj, key: string, limit: FieldLimit, path: string, issues: IssueSink): Json {
   const p = childPath(path, key);
   if (!Object.prototype.hasOwnProperty.call(obj, key)) {
+    if (limit.kind !== 'boolean' && limit.optional !== undefined) return limit.optional;
     issues.add(p, 'missing field');
     return undefined;
   }

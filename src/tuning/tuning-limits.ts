@@ -9,11 +9,15 @@ export interface NumberField {
   readonly max: number;
   readonly integer?: boolean;
   readonly nullable?: boolean;
+  /** Value taken when the field is absent (fields added after schema version 1 shipped); absent = required. */
+  readonly optional?: number;
 }
 /** A string field taking one of `values`. */
 export interface EnumField {
   readonly kind: 'enum';
   readonly values: readonly string[];
+  /** Value taken when the field is absent; absent = required. */
+  readonly optional?: string;
 }
 /** A true/false field. */
 export interface BooleanField {
@@ -31,6 +35,8 @@ export const sectionLimits = {
   air: {
     temperatureCelsius: num(-50, 60),
     speedOfSound: num(1, 10000, { nullable: true }),
+    relativeHumidity: num(0, 100, { optional: 50 }),
+    pressureKilopascals: num(50, 120, { optional: 101.325 }),
   },
   doppler: {
     factor: num(0, 10),
@@ -67,6 +73,11 @@ export const sectionLimits = {
   },
 } as const satisfies Record<string, Record<string, FieldLimit>>;
 
+/** Whether a scalar field may be absent (it then takes its `optional` value). */
+export function isOptionalField(limit: FieldLimit): boolean {
+  return limit.kind !== 'boolean' && limit.optional !== undefined;
+}
+
 /** Name of a section described by sectionLimits. */
 export type SectionName = keyof typeof sectionLimits;
 
@@ -77,6 +88,7 @@ export const groupLimits = {
   tone: 'curve',
   level: 'curve',
   doppler: bool,
+  motion: { kind: 'enum', values: ['propagation', 'instant', 'off'], optional: 'propagation' } as EnumField,
   priority: num(0, 255, { integer: true }),
 } as const;
 

@@ -38,8 +38,10 @@ export interface GroupTuning {
   readonly tone: CurveSpec;
   /** time scale → level in dB (0 = unchanged). */
   readonly level: CurveSpec;
-  /** Whether voices of this group get the Doppler shift. */
+  /** Whether positioned voices of this group move with their sources (false: no delay and no Doppler, as motion 'off'). */
   readonly doppler: boolean;
+  /** How positioned voices hear motion (when `doppler` is true); absent in older files: 'propagation'. */
+  readonly motion: MotionModel;
   /** Stealing priority: higher survives longer; integer 0…255. */
   readonly priority: number;
   /** time scale → pitch shift in cents for 'stretch' groups, −2400…2400 (0 = pitch kept); optional in files (default 0). */
@@ -47,6 +49,15 @@ export interface GroupTuning {
   /** Time scale 0 in 'stretch' groups; optional in files (default 'silence'). */
   readonly stretchFreeze: StretchFreeze;
 }
+
+/**
+ * How a group's positioned voices hear their sources' motion.
+ * - 'propagation': sound travels at the speed of sound on the game clock: arrival delay, emission-time Doppler,
+ *   silence before a supersonic source's Mach cone (the default).
+ * - 'instant': the same-instant Doppler ratio of OpenAL 1.1 §3.5.2, no delay (stylised games).
+ * - 'off': no delay and no Doppler (panning and distance only).
+ */
+export type MotionModel = 'propagation' | 'instant' | 'off';
 
 /** Easing of a time-scale transition. */
 export type Easing = 'linear' | 'smooth' | 'exponential';
@@ -68,6 +79,10 @@ export interface Tuning {
     readonly temperatureCelsius: Celsius;
     /** Explicit speed of sound override in m/s (1…10000), or null to derive from temperature. */
     readonly speedOfSound: MetersPerSecond | null;
+    /** Relative humidity for air absorption (ISO 9613-1), 0…100 %; absent in older files: 50. */
+    readonly relativeHumidity: number;
+    /** Atmospheric pressure for air absorption (ISO 9613-1), 50…120 kPa; absent in older files: 101.325. */
+    readonly pressureKilopascals: number;
   };
   readonly doppler: {
     /** Scales the Doppler effect (OpenAL's DOPPLER_FACTOR), 0…10; 0 disables it. */
@@ -99,7 +114,7 @@ export interface Tuning {
     readonly easing: Easing;
   };
   readonly smoothing: {
-    /** Time constant for per-voice ratio changes (smoothed in cents), 0…1 s. */
+    /** Time constant for per-voice ratio changes (smoothed in cents), 0…1 s; default 0: the time-scale ramp is the smoothing. */
     readonly ratioSeconds: Seconds;
     /** Time constant for cutoff changes (smoothed in log frequency), 0…1 s. */
     readonly cutoffSeconds: Seconds;

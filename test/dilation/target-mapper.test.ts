@@ -11,16 +11,20 @@ function input(over: Partial<VoiceInput> = {}): VoiceInput {
   return { timeScale: 1, group: 'effects', baseRatio: 1, gain: 1, listener: listener(), source: null, ...over };
 }
 
+/** The mapper's Doppler ratio is the 'instant' motion model (OpenAL 1.1 §3.5.2); 'propagation' lives in the engine. */
 function tuningWith(patch: (doc: Record<string, any>) => void): Tuning {
   const doc = JSON.parse(JSON.stringify(defaultTuning));
+  for (const g of Object.values(doc.groups) as Record<string, unknown>[]) g.motion = 'instant';
   patch(doc);
   return parseTuning(doc);
 }
 
+const instantTuning = tuningWith(() => {});
+
 const db = (x: number) => Math.pow(10, x / 20);
 
 describe('TargetMapper: time scale and group policies', () => {
-  const m = new TargetMapper({ tuning: defaultTuning });
+  const m = new TargetMapper({ tuning: instantTuning });
 
   it('is transparent at time scale 1 for a non-positional voice', () => {
     const out = m.map(createVoiceTargets(), input());
@@ -66,7 +70,7 @@ describe('TargetMapper: time scale and group policies', () => {
   });
 
   it('maps an unknown group as effects and counts it', () => {
-    const mm = new TargetMapper({ tuning: defaultTuning });
+    const mm = new TargetMapper({ tuning: instantTuning });
     const out = mm.map(createVoiceTargets(), input({ timeScale: 0.35, group: 'no-such-group' }));
     expect(out.ratio).toBeCloseTo(0.35, 12);
     expect(mm.unknownGroups).toBe(1);
@@ -79,7 +83,7 @@ describe('TargetMapper: Doppler settings', () => {
   const approaching = () => ({ id: 1, position: v(0, 0, -100), velocity: v(0, 0, 30) });
 
   it('applies Doppler only to groups that have it on', () => {
-    const m = new TargetMapper({ tuning: defaultTuning });
+    const m = new TargetMapper({ tuning: instantTuning });
     expect(m.map(createVoiceTargets(), input({ group: 'music', source: approaching() })).doppler).toBe(1);
     expect(m.map(createVoiceTargets(), input({ group: 'interface', source: approaching() })).ratio).toBe(1);
     expect(m.map(createVoiceTargets(), input({ group: 'vehicles', source: approaching() })).doppler).toBeGreaterThan(1.09);
@@ -87,7 +91,7 @@ describe('TargetMapper: Doppler settings', () => {
 
   it('measures velocities on the game clock when tuned so (wall ÷ time scale)', () => {
     const game = new TargetMapper({ tuning: tuningWith((d) => (d.doppler.velocityClock = 'game')) });
-    const wall = new TargetMapper({ tuning: defaultTuning });
+    const wall = new TargetMapper({ tuning: instantTuning });
     const s = 0.5;
     const g = game.map(createVoiceTargets(), input({ timeScale: s, source: approaching() })).doppler;
     const w = wall.map(createVoiceTargets(), input({ timeScale: s, source: approaching() })).doppler;
@@ -124,7 +128,7 @@ describe('TargetMapper: Doppler settings', () => {
 });
 
 describe('TargetMapper: spatial gains', () => {
-  const m = new TargetMapper({ tuning: defaultTuning });
+  const m = new TargetMapper({ tuning: instantTuning });
   it.each([
     // Web Audio inverse model (ref 1, rolloff 1) × equal-power pan; values COMPUTED from the spec formulas (docs/references.md §5).
     ['right at 10 m', v(10, 0, 0), 0, 0.1],
@@ -176,7 +180,7 @@ describe('TargetMapper: bad input is clamped and counted', () => {
     ['zero forward vector', input({ listener: { ...listener(), forward: v() }, source: { id: 1, position: v(3, 0, 0), velocity: v() } }), { left: 0 }],
     ['up parallel to forward', input({ listener: { ...listener(), up: v(0, 0, -1) }, source: { id: 1, position: v(3, 0, 0), velocity: v() } }), { left: 0 }],
   ] as [string, VoiceInput, Record<string, number | boolean>][])('handles a %s', (_name, inp, expected) => {
-    const m = new TargetMapper({ tuning: defaultTuning });
+    const m = new TargetMapper({ tuning: instantTuning });
     const out = m.map(createVoiceTargets(), inp);
     for (const [k, val] of Object.entries(expected)) {
       if (typeof val === 'number') expect((out as unknown as Record<string, number>)[k]).toBeCloseTo(val, 9);
@@ -186,14 +190,14 @@ describe('TargetMapper: bad input is clamped and counted', () => {
   });
 
   it('caps a supersonic approach at the max shift and counts it in the Doppler stats', () => {
-    const m = new TargetMapper({ tuning: defaultTuning });
+    const m = new TargetMapper({ tuning: instantTuning });
     const out = m.map(createVoiceTargets(), input({ source: { id: 1, position: v(0, 0, -10), velocity: v(0, 0, 5000) } }));
     expect(out.doppler).toBeCloseTo(2, 12);
     expect(m.dopplerStats.capped).toBe(1);
   });
 
   it('counts nothing for good input', () => {
-    const m = new TargetMapper({ tuning: defaultTuning });
+    const m = new TargetMapper({ tuning: instantTuning });
     m.map(createVoiceTargets(), input({ timeScale: 0.35, source: { id: 1, position: v(3, 1, -4), velocity: v(5, 0, 1) } }));
     expect(m.clamps).toBe(0);
   });
@@ -250,7 +254,7 @@ describe('TargetMapper: property tests over arbitrary snapshots', () => {
   });
 
   it('maps into the caller’s object and returns it', () => {
-    const m = new TargetMapper({ tuning: defaultTuning });
+    const m = new TargetMapper({ tuning: instantTuning });
     const out = createVoiceTargets();
     expect(m.map(out, input())).toBe(out);
   });

@@ -160,7 +160,7 @@ describe('Engine voice pool', () => {
         engine.render([l, r], 128);
       }
     };
-    blocks(600);
+    blocks(1800); // warm-up long enough for every path (propagation solves, ramps) to be compiled
     gc();
     const before = process.memoryUsage().heapUsed;
     blocks(1200);

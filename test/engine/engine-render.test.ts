@@ -139,7 +139,8 @@ describe('Engine snapshots', () => {
   const mon = () => [{ voice: 0, sourceId: 0, group: '', ratioCents: 0, dopplerCents: 0, radialSpeed: 0, distance: 0, cutoffHz: 0, gainDb: 0, virtual: false }];
 
   it('glides a source linearly from the previous snapshot to the latest over their interval', () => {
-    const engine = engineAt({ maxBlockFrames: 480 });
+    // The same-instant model: the monitor shows the snapshot glide itself (propagation would show emission-time distances).
+    const engine = engineAt({ maxBlockFrames: 480, tuning: tuningWith((t) => { for (const g of Object.values(t.groups) as any[]) g.motion = 'instant'; }) });
     const s = engine.addSound([sine(300, SR, 1)], SR);
     engine.play(s, { loop: true, sourceId: 9 });
     engine.pushSnapshot({ time: 10, listener, sources: [{ id: 9, position: { x: 0, y: 0, z: -10 } }] });
@@ -150,9 +151,9 @@ describe('Engine snapshots', () => {
       engine.monitor(m);
       distances.push(m[0].distance);
     });
-    // Blocks of 480 frames (10 ms), evaluated at their midpoints 5, 15, 25 … ms after the second snapshot arrived.
+    // Blocks of 480 frames (10 ms), evaluated at their ends 10, 20, 30 … ms after the second snapshot arrived.
     distances.shift();
-    const expected = [10.5, 11.5, 12.5, 13.5, 14.5, 15.5, 16.5, 17.5, 18.5, 19.5, 20];
+    const expected = [11, 12, 13, 14, 15, 16, 17, 18, 19, 20, 20];
     distances.slice(0, expected.length).forEach((d, i) => expect(d).toBeCloseTo(expected[i], 9));
   });
 });

@@ -13,6 +13,32 @@ function setup(estimateVelocity = true) {
   return { node, ralenti, binding, last };
 }
 
+describe('ThreeBinding defaults for the propagation model', () => {
+  it('sends positions only by default (the engine derives velocities from its trajectory history)', () => {
+    const node = new FakeWorkletNode();
+    const ralenti = new Ralenti({ context: fakeContext(), node: node as unknown as AudioWorkletNode, tuning: defaultTuning, capacity: 8 });
+    const binding = new ThreeBinding({ target: ralenti, updateMatrices: true });
+    const car = new Object3D();
+    binding.bindSource(car);
+    binding.bindListener(new PerspectiveCamera());
+    for (let f = 0; f <= 3; f++) {
+      car.position.set(25 * (f / 60), 0, -5);
+      binding.update(f / 60);
+    }
+    const s = decodeSnapshot(node.commands('snapshot').at(-1)!.data)!;
+    expect('velocity' in s.sources[0]).toBe(false);
+    expect('velocity' in s.listener).toBe(false);
+  });
+
+  it('sends an explicit teleport for a bound object', () => {
+    const { node, binding } = setup(false);
+    const car = new Object3D();
+    const src = binding.bindSource(car);
+    binding.teleport(car);
+    expect(node.commands('teleport')).toEqual([{ type: 'teleport', source: src.id }]);
+  });
+});
+
 describe('ThreeBinding', () => {
   it('reads the listener position and −z forward / +y up from a rotated camera\'s world matrix', () => {
     const { binding, last } = setup(false);

@@ -4,6 +4,9 @@ import { loadScene } from '../../../runtime/offline/render-scene';
 import { defaultTuning, serializeTuning } from '../../../src/tuning';
 import { engineTuning, withDopplerModel } from './engine-switch';
 
+/** The built-in groups with motion 'instant' (the model the checker's expectation follows). */
+const instantGroups = Object.fromEntries(Object.entries(defaultTuning.groups).map(([k, g]) => [k, { ...g, motion: 'instant' }]));
+
 const cents = (a: number, b: number) => 1200 * Math.log2(a / b);
 
 // A straight-line pass: a 440 Hz tone on a source running along x at v m/s, d m from a listener at rest at the origin,
@@ -22,17 +25,21 @@ function passScript(p: { v: number; d: number; c: number }) {
     duration: 6,
     sampleRate: 24000,
     // The same-instant model and no smoothing until the engine has propagation (engine-switch.ts).
-    tuning: JSON.parse(serializeTuning({ ...engineTuning(defaultTuning), air: { temperatureCelsius: 20, speedOfSound: p.c } })),
+    tuning: JSON.parse(serializeTuning({ ...engineTuning(defaultTuning), air: { ...defaultTuning.air, temperatureCelsius: 20, speedOfSound: p.c } })),
     sounds: { tone: { type: 'tone', frequency: f0, seconds: 1 } },
     sources: { car: { motion: { type: 'line', from: [-p.v * t0, 0, -p.d], velocity: [p.v, 0, 0] } } },
     voices: [{ sound: 'tone', source: 'car', group: 'vehicles', loop: true, gain: 4 }],
   };
 }
 
-/** These checks compare with the same-instant closed form, so the scene asks every group for the instant model. */
+/**
+ * These checks compare with the same-instant closed form, so the scene asks every group for the instant model, with
+ * no Doppler or ratio smoothing (the checker never expects smoothing; a smoothed render would fail, rightly).
+ */
 function instant(scene: ReturnType<typeof loadScene>): ReturnType<typeof loadScene> {
   let tuning = scene.tuning;
   for (const g of Object.keys(tuning.groups)) tuning = withDopplerModel(tuning, g, 'instant');
+  tuning = { ...tuning, doppler: { ...tuning.doppler, smoothingSeconds: 0 }, smoothing: { ...tuning.smoothing, ratioSeconds: 0 } };
   return { ...scene, tuning };
 }
 
@@ -89,6 +96,7 @@ describe('checkScene on a rendered straight-line pass', () => {
 
   it('fails a tonal voice whose sound never reaches the listener, saying nothing could be judged', () => {
     const tuning = JSON.parse(serializeTuning(defaultTuning));
+    tuning.groups = instantGroups;
     tuning.distance = { ...tuning.distance, model: 'linear', maxDistance: 50 };
     const result = checkScene(
       instant(loadScene({

@@ -53,7 +53,7 @@ const slowMotion = loadScene({
   voices: [{ sound: 'hum', group: 'ambience', loop: true, gain: 1 }],
 });
 
-const air = { temperatureCelsius: 20, speedOfSound: 343.3 };
+const air = { ...defaultTuning.air, temperatureCelsius: 20, speedOfSound: 343.3 };
 /** The tuning the checker expects: the default one with the fly-by's speed of sound; propagation once the engine has it. */
 const expectedTuning: Tuning = ENGINE_HAS_PROPAGATION ? { ...defaultTuning, air } : withDopplerModel({ ...defaultTuning, air }, 'vehicles', 'instant');
 /** The tuning the unmodified engine renders with (see engine-switch.ts). */

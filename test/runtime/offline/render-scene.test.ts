@@ -17,15 +17,22 @@ describe('renderScene', () => {
     for (let i = 0; i < mono.length; i++) mono[i] = 0.5 * (left[i] + right[i]);
     const track = trackPitch(mono, sampleRate, { hopSeconds: 0.02, minHz: 300, maxHz: 700 });
     // Moving source, listener at rest: f = f0 · c / (c − v_s), v_s the speed toward the listener
-    // (OpenStax University Physics 1, §17.7, VERIFIED; docs/references.md §1a). c = 343.3 m/s set in the script.
+    // (OpenStax University Physics 1, §17.7, VERIFIED; docs/references.md §1a) taken at the emission time τ of the
+    // sound heard at t: |S(τ)| = c·(t − τ), a quadratic on this straight path (docs/references.md §11).
+    // c = 343.3 m/s set in the script.
     const c = 343.3;
     const f0 = 440;
     let checked = 0;
     let worst = 0;
     for (let k = 0; k < track.times.length; k++) {
       const t = track.times[k];
-      if (t < 0.5 || t > 9.5 || Math.abs(t - 5) < 1.5) continue; // steady parts only
-      const x = -200 + 40 * t;
+      if (t < 1 || t > 9.5 || Math.abs(t - 5) < 1.5) continue; // steady parts only
+      // x(τ) = −200 + 40τ, z = 10: (40² − c²)τ² + 2(c²t − 200·40)τ + 200² + 10² − c²t² = 0, latest root ≤ t.
+      const a = 1600 - c * c;
+      const b = 2 * (c * c * t - 8000);
+      const q = 40100 - c * c * t * t;
+      const tau = (-b + Math.sqrt(b * b - 4 * a * q)) / (2 * a);
+      const x = -200 + 40 * tau;
       const vs = (40 * -x) / Math.hypot(x, 10);
       const expected = (f0 * c) / (c - vs);
       const cents = 1200 * Math.log2(track.frequencies[k] / expected);

@@ -39,7 +39,8 @@ function record(seconds = 4.5, rampIn = 0.25, rampOut = 0.4, slowUntil = 3) {
 }
 
 const content = {
-  tuning: JSON.parse(serializeTuning(defaultTuning)),
+  // Same-instant motion: the checker's expectation follows that model (until its emission-time expectation lands).
+  tuning: { ...JSON.parse(serializeTuning(defaultTuning)), groups: Object.fromEntries(Object.entries(defaultTuning.groups).map(([k, g]) => [k, { ...g, motion: 'instant' }])) },
   sounds: { hum: { type: 'hum', frequency: 150, partials: [1, 0.5, 0.3], seconds: 2, gain: 0.5 }, buzz: { type: 'hum', frequency: 330, seconds: 2 } },
   voices: [
     { sound: 'hum', source: 'drone', group: 'vehicles', gain: 2 },

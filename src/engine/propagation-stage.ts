@@ -1,0 +1,265 @@
+// The propagation stage: sources tracked from their first snapshot (trajectory rings on the engine clock), the game
+// clock, the emission-time solution per source and block (delay, emission-time position, game-clock Doppler factor),
+// Mach-cone arrivals reported as shockwave events, and each propagating voice's per-sample read ratios.
+import type { Seconds, Vec3Like } from '../units';
+import type { EngineSnapshot, ShockwaveEvent } from './engine-types';
+import { MAX_RATIO, MIN_RATIO } from '../dsp';
+import { GameClock } from './game-clock';
+import { SourceTracks, APPEND_TELEPORT, TRACK_KNOTS } from './source-tracks';
+import { EmissionSolver, createEmissionSolution, EMISSION_HISTORY, EMISSION_NONE, type EmissionSolution } from './emission-solver';
+
+/** Shockwave events kept until read (older ones are dropped and counted). */
+export const SHOCKWAVE_QUEUE = 64;
+/** Snapshots after which a source no longer sent is no longer solved for. */
+const LIVE_PUSHES = 120;
+/** Offset corrections larger than this re-synchronise snapshot time to engine time at once, s. */
+const RESYNC_SECONDS = 0.25;
+/** Share of the offset error corrected per snapshot (a slow slew keeps knot spacing, hence velocities, exact). */
+const OFFSET_SLEW = 0.02;
+
+/** Options of PropagationStage. */
+export interface PropagationStageOptions {
+  /** Source slots, as the engine's snapshot store (1…4096). */
+  maxSources: number;
+  /** Knots per source history (default TRACK_KNOTS). */
+  knots?: number;
+}
+
+/** Tracks, clock and emission-time solutions for an engine; allocation-free after construction. */
+export class PropagationStage {
+  /** The game clock over engine time. */
+  readonly clock = new GameClock();
+  /** Trajectories: one slot per source plus the listener's (slot `listenerSlot`). */
+  readonly tracks: SourceTracks;
+  /** Slot of the listener's track. */
+  readonly listenerSlot: number;
+  /** Solution per source slot at the end of the last block, and at its start. */
+  readonly now: EmissionSolution[] = [];
+  readonly before: EmissionSolution[] = [];
+  /** Ratios clamped to the resampler's range (e.g. at a Mach cone), counted, never silent. */
+  ratioClamps = 0;
+  /** Shockwaves detected, and events dropped because the queue was full. */
+  shockwaves = 0;
+  droppedEvents = 0;
+  /** The last shockwave's engine time (s, NaN before any) and source id (−1 before any). */
+  lastShockwaveTime: Seconds = NaN;
+  lastShockwaveSource = -1;
+  private readonly solver = new EmissionSolver();
+  private readonly ids: Float64Array;
+  private readonly lastPush: Float64Array;
+  private readonly solvedEpoch: Int32Array;
+  private readonly needed: Uint8Array;
+  private readonly events: ShockwaveEvent[] = [];
+  private eventHead = 0;
+  private eventCount = 0;
+  private pushes = 0;
+  private offset = NaN;
+  private readonly lp: Vec3Like = { x: 0, y: 0, z: 0 };
+  private readonly lv: Vec3Like = { x: 0, y: 0, z: 0 };
+  private readonly sp: Vec3Like = { x: 0, y: 0, z: 0 };
+  private readonly sv: Vec3Like = { x: 0, y: 0, z: 0 };
+  private blockStart: Seconds = 0;
+
+  /** Preallocates the tracks of `maxSources` sources and the listener. */
+  constructor(options: PropagationStageOptions) {
+    const n = Math.max(1, Math.min(4096, Math.floor(options.maxSources)));
+    this.tracks = new SourceTracks(n + 1, options.knots ?? TRACK_KNOTS);
+    this.listenerSlot = n;
+    this.ids = new Float64Array(n).fill(NaN);
+    this.lastPush = new Float64Array(n).fill(-Infinity);
+    this.solvedEpoch = new Int32Array(n).fill(-1);
+    this.needed = new Uint8Array(n);
+    for (let i = 0; i < n; i++) {
+      this.now.push(createEmissionSolution());
+      this.before.push(createEmissionSolution());
+    }
+    for (let i = 0; i < SHOCKWAVE_QUEUE; i++) this.events.push({ time: 0, gameTime: 0, sourceId: 0 });
+  }
+
+  /** Speed of sound in metres per game second. */
+  set speedOfSound(c: number) {
+    this.solver.c = c;
+  }
+
+  /** Engine time of a snapshot stamped `time` pushed at engine time `now` to be reached after `interval` (s). */
+  knotTime(time: Seconds, now: Seconds, interval: Seconds): Seconds {
+    const target = now + interval - time;
+    if (!Number.isFinite(target)) return NaN;
+    if (!(Math.abs(target - this.offset) < RESYNC_SECONDS)) this.offset = target;
+    else this.offset += (target - this.offset) * OFFSET_SLEW;
+    return time + this.offset;
+  }
+
+  /** Records one snapshot's listener and sources; `slotOf` maps a source id to the snapshot store's slot (−1: none). */
+  push(s: EngineSnapshot, now: Seconds, interval: Seconds, slotOf: (id: number) => number): void {
+    this.pushes++;
+    const T = this.knotTime(s.time, now, interval);
+    if (!Number.isFinite(T)) {
+      this.tracks.dropped++;
+      return;
+    }
+    this.tracks.append(this.listenerSlot, T, s.listener.position, s.listener.velocity);
+    const list = s.sources;
+    for (let i = 0; i < list.length; i++) {
+      const src = list[i];
+      const slot = slotOf(src.id);
+      if (slot < 0 || slot >= this.ids.length) continue;
+      if (this.ids[slot] !== src.id) {
+        this.ids[slot] = src.id;
+        this.tracks.reset(slot);
+      }
+      this.lastPush[slot] = this.pushes;
+      this.tracks.append(slot, T, src.position, src.velocity);
+    }
+  }
+
+  /** Restarts source `id`'s track at its next snapshot (an explicit teleport); unknown ids are ignored. */
+  teleport(id: number): void {
+    for (let i = 0; i < this.ids.length; i++) if (this.ids[i] === id) this.tracks.requestTeleport(i);
+  }
+
+  /** Keeps source slot `slot` solved in the next `advance` even when its snapshots stopped (a voice still plays on it). */
+  need(slot: number): void {
+    if (slot >= 0 && slot < this.needed.length) this.needed[slot] = 1;
+  }
+
+  /** Advances the game clock over the block [start, end] at time scale `scale` and solves every live source at `end`. */
+  advance(start: Seconds, end: Seconds, scale: number): void {
+    this.blockStart = start;
+    const gStart = this.clock.game;
+    this.clock.advance(end, scale);
+    const tracks = this.tracks;
+    tracks.evaluate(this.listenerSlot, end, this.lp, this.lv);
+    const solver = this.solver;
+    solver.setListener(end, this.clock, this.lp, this.lv);
+    const c = solver.c;
+    for (let slot = 0; slot < this.ids.length; slot++) {
+      const wanted = this.needed[slot] === 1 || this.pushes - this.lastPush[slot] <= LIVE_PUSHES;
+      this.needed[slot] = 0;
+      if (!wanted || tracks.size(slot) === 0) continue;
+      const cur = this.now[slot];
+      const prev = this.before[slot];
+      copySolution(prev, cur);
+      const epoch = tracks.epoch[slot];
+      const same = this.solvedEpoch[slot] === epoch;
+      this.solvedEpoch[slot] = epoch;
+      const sNow = this.clock.slopeAt(end);
+      const sLow = same && prev.state !== EMISSION_NONE ? Math.min(sNow, this.clock.slopeAt(prev.tau)) : sNow;
+      const subsonic = same && prev.state !== EMISSION_NONE && tracks.maxSpeed[slot] < 0.9 * c * sLow;
+      solver.solve(tracks, this.clock, slot, same && prev.state !== EMISSION_NONE ? prev.tau : NaN, subsonic, cur);
+      cur.coneTime = NaN;
+      if (!same) {
+        // A new or teleported track: the block starts from this solution (no glide from elsewhere).
+        copySolution(prev, cur);
+        cur.meanDoppler = NaN;
+        continue;
+      }
+      const gBlock = this.clock.game - gStart;
+      cur.meanDoppler = prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9 ? (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock : NaN;
+      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur.tau)) {
+        let te = end - cur.scanResidual / cur.scanRate;
+        if (!(te >= start)) te = start;
+        cur.coneTime = te;
+        this.emit(te, this.ids[slot]);
+      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && this.supersonicAt(slot, cur.tau)) {
+        // The latest root jumped forward: a (second) cone arrived.
+        cur.coneTime = start;
+        this.emit(start, this.ids[slot]);
+      }
+    }
+  }
+
+  /** Copies up to out.length pending shockwave events (oldest first) into `out` and returns how many. */
+  drainShockwaves(out: ShockwaveEvent[]): number {
+    let k = 0;
+    while (this.eventCount > 0 && k < out.length) {
+      const e = this.events[this.eventHead];
+      const o = out[k++];
+      o.time = e.time;
+      o.gameTime = e.gameTime;
+      o.sourceId = e.sourceId;
+      this.eventHead = (this.eventHead + 1) % SHOCKWAVE_QUEUE;
+      this.eventCount--;
+    }
+    return k;
+  }
+
+  /**
+   * Writes one voice's per-sample read ratios for a block of `frames`: the time ratio ramped linearly from r0 to r1
+   * times the Doppler factor going from d0 to d1 (values at the block's start and end) with mean `mean`, clamped to
+   * the resampler's range (counted). Returns their sum (source frames advanced).
+   */
+  fillRatios(out: Float32Array, frames: number, r0: number, r1: number, d0: number, d1: number, mean: number): number {
+    const dr = (r1 - r0) / frames;
+    const dd = (d1 - d0) / frames;
+    const lo = d0 < d1 ? d0 : d1;
+    const hi = d0 < d1 ? d1 : d0;
+    // The Doppler factor over the block: the derivative of the cubic Hermite U with U(0) = 0, U(1) = mean, U'(0) = d0,
+    // U'(1) = d1, averaged over each sample, so that the read advances by exactly the emission-time span; linear
+    // when the mean is unknown or implausible (a new track, a Mach cone).
+    const cubic = mean >= 0.5 * lo && mean <= 2 * hi;
+    let uPrev = 0;
+    let sum = 0;
+    for (let i = 0; i < frames; i++) {
+      let d: number;
+      if (cubic) {
+        const x = (i + 1) / frames;
+        const x2 = x * x;
+        const x3 = x2 * x;
+        const u = (x3 - 2 * x2 + x) * d0 + (-2 * x3 + 3 * x2) * mean + (x3 - x2) * d1;
+        d = (u - uPrev) * frames;
+        uPrev = u;
+      } else d = d0 + dd * i;
+      let r = (r0 + dr * i) * d;
+      if (!(r >= MIN_RATIO)) {
+        r = MIN_RATIO;
+        this.ratioClamps++;
+      } else if (r > MAX_RATIO) {
+        r = MAX_RATIO;
+        this.ratioClamps++;
+      }
+      out[i] = r;
+      sum += out[i];
+    }
+    return sum;
+  }
+
+  /** Engine time of the start of the last solved block, s. */
+  get lastBlockStart(): Seconds {
+    return this.blockStart;
+  }
+
+  /** Whether source `slot` moved at least at the speed of sound (game clock) at engine time `tau`: a cone can only come from there. */
+  private supersonicAt(slot: number, tau: Seconds): boolean {
+    this.tracks.evaluate(slot, tau, this.sp, this.sv);
+    const v = this.sv;
+    return Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * this.clock.slopeAt(tau);
+  }
+
+  private emit(time: Seconds, sourceId: number): void {
+    this.shockwaves++;
+    this.lastShockwaveTime = time;
+    this.lastShockwaveSource = sourceId;
+    if (this.eventCount === SHOCKWAVE_QUEUE) {
+      this.droppedEvents++;
+      this.eventHead = (this.eventHead + 1) % SHOCKWAVE_QUEUE;
+      this.eventCount--;
+    }
+    const e = this.events[(this.eventHead + this.eventCount) % SHOCKWAVE_QUEUE];
+    e.time = time;
+    e.gameTime = this.clock.gameAt(time);
+    e.sourceId = sourceId;
+    this.eventCount++;
+  }
+}
+
+function copySolution(to: EmissionSolution, from: EmissionSolution): void {
+  to.state = from.state;
+  to.tau = from.tau;
+  to.doppler = from.doppler;
+  to.distance = from.distance;
+  to.position.x = from.position.x;
+  to.position.y = from.position.y;
+  to.position.z = from.position.z;
+}
+
