@@ -18,10 +18,16 @@ export interface CreateRalentiOptions {
   workletUrl?: string | URL;
   /** Interval between stats reports, 0.05…10 s (default 0.25). */
   statsIntervalSeconds?: number;
+  /** Source slots, 1…4096 (default 256): update() sends at most this many sources, those with voices first. */
+  maxSources?: number;
+  /** Groups of the tuning that get their own output node (`groupOutput(group)`), at most 8 (default none). */
+  groupOutputs?: string[];
+  /** Seed of the per-play pitch and gain variation, an integer 0…2³²−1 (default 1): the same seed replays the same variation. */
+  seed?: number;
 }
 
 /** Frozen defaults of CreateRalentiOptions. */
-export const createRalentiDefaults = Object.freeze({ capacity: 64, maxSounds: 256, statsIntervalSeconds: 0.25 });
+export const createRalentiDefaults = Object.freeze({ capacity: 64, maxSounds: 256, statsIntervalSeconds: 0.25, maxSources: 256, seed: 1 });
 
 const loaded = new WeakMap<BaseAudioContext, Map<string, Promise<void>>>();
 
@@ -49,6 +55,13 @@ export async function createRalenti(context: BaseAudioContext, options: CreateRa
   const statsIntervalSeconds = checkRange(
     'createRalenti.statsIntervalSeconds', options.statsIntervalSeconds ?? createRalentiDefaults.statsIntervalSeconds, 0.05, 10);
   const tuning = options.tuning === undefined ? defaultTuning : parseTuning(options.tuning);
+  const maxSources = checkInteger('createRalenti.maxSources', options.maxSources ?? createRalentiDefaults.maxSources, 1, 4096);
+  const seed = checkInteger('createRalenti.seed', options.seed ?? createRalentiDefaults.seed, 0, 2 ** 32 - 1);
+  const groupOutputs = [...new Set(options.groupOutputs ?? [])];
+  if (groupOutputs.length > 8) throw new RalentiOptionError('createRalenti.groupOutputs', `at most 8 groups, got ${groupOutputs.length}`);
+  for (const g of groupOutputs)
+    if (typeof g !== 'string' || !Object.prototype.hasOwnProperty.call(tuning.groups, g))
+      throw new RalentiOptionError('createRalenti.groupOutputs', `unknown group "${String(g)}" (tuning has: ${Object.keys(tuning.groups).join(', ')})`);
   if (!context || !context.audioWorklet) throw new RalentiOptionError('createRalenti.context', 'expected a BaseAudioContext with audioWorklet (secure context)');
   const url = String(options.workletUrl ?? defaultWorkletUrl());
   await addModuleOnce(context, url);
@@ -57,11 +70,11 @@ export async function createRalenti(context: BaseAudioContext, options: CreateRa
   const tier = tuning.resampler.tier;
   const simd = wasmSimdSupported();
   const tables = simd ? [packKernelTable(tier, context.sampleRate, true)] : packAllTiers(context.sampleRate, null);
-  const processorOptions: ProcessorOptions = { capacity, maxSounds, tuning, statsIntervalSeconds, tables };
+  const processorOptions: ProcessorOptions = { capacity, maxSounds, tuning, statsIntervalSeconds, tables, maxSources, groupOutputs, seed };
   const node = new AudioWorkletNode(context, PROCESSOR_NAME, {
     numberOfInputs: 0,
-    numberOfOutputs: 1,
-    outputChannelCount: [2],
+    numberOfOutputs: 1 + groupOutputs.length,
+    outputChannelCount: [2, ...groupOutputs.map(() => 2)],
     processorOptions,
   });
   const ready = new Promise<void>((resolve, reject) => {
@@ -73,5 +86,5 @@ export async function createRalenti(context: BaseAudioContext, options: CreateRa
     node.onprocessorerror = () => reject(new Error('ralenti processor failed to start'));
   });
   await ready;
-  return new Ralenti({ context, node, tuning, capacity, tableTiers: simd ? [tier] : tables.map((t) => t.table.name) });
+  return new Ralenti({ context, node, tuning, capacity, maxSources, groupOutputs, tableTiers: simd ? [tier] : tables.map((t) => t.table.name) });
 }

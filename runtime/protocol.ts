@@ -10,6 +10,7 @@ import type {
   Tuning,
   VoiceMonitor,
 } from '../src/index';
+import { decodeControlCommand, type ControlCommand, type VoiceEventsReport } from './control-commands';
 import { isPackedKernelTable, packedTransfer, type PackedKernelTable } from '../src/dsp/index';
 import type { TableCounters } from './worklet/table-installer';
 
@@ -26,6 +27,12 @@ export interface ProcessorOptions {
   tuning: Tuning;
   /** Interval between stats reports in seconds of rendered audio (0.05…10). */
   statsIntervalSeconds: Seconds;
+  /** Seed of the per-play variation draws (a 32-bit integer; default 1). */
+  seed?: number;
+  /** Source slots of the engine (1…4096; default 256). */
+  maxSources?: number;
+  /** Groups with their own output (node outputs 1…k, stereo), at most 8. */
+  groupOutputs?: string[];
   /** Kernel tables for the context's rate designed on the main thread (the tuning's tier with its WebAssembly layout, or every tier's samples where there is no SIMD); absent: the audio thread designs its own. */
   tables?: PackedKernelTable[];
 }
@@ -106,7 +113,8 @@ export type Command =
   | TuningCommand
   | TablesCommand
   | TeleportCommand
-  | SyncCommand;
+  | SyncCommand
+  | ControlCommand;
 
 /** The processor is constructed and its engine is running. */
 export interface ReadyReport {
@@ -154,7 +162,7 @@ export interface SyncedReport {
 }
 
 /** Everything the worklet sends back. */
-export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport;
+export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport | VoiceEventsReport;
 
 /** Transferable buffers of a command (a sound's channel buffers), for postMessage's transfer list. Snapshots are cloned, so the sender may reuse its array. */
 export function commandTransfer(command: Command): Transferable[] {
@@ -220,7 +228,7 @@ export function decodeCommand(data: unknown): Command | string {
     case 'teleport':
       return typeof data.source === 'number' && Number.isFinite(data.source) ? (data as unknown as TeleportCommand) : 'teleport.source: expected a source id';
     default:
-      return `command: unknown type "${String(data.type)}"`;
+      return decodeControlCommand(data) ?? `command: unknown type "${String(data.type)}"`;
   }
 }
 

@@ -1,5 +1,7 @@
 // A positioned sound source on the main thread: its latest position and optional explicit velocity.
-import type { SourceState, Vec3Like } from '../src/index';
+import type { SourceSpatial, SourceState, Vec3Like } from '../src/index';
+import { sourceSpatialProblems } from '../src/dilation/index';
+import { RalentiOptionError } from './runtime-error';
 
 /** A source that voices can follow; its state goes out with every `Ralenti.update()`. */
 export class RalentiSource {
@@ -11,6 +13,13 @@ export class RalentiSource {
   velocity: Vec3Like | null = null;
   /** False after dispose(): the source leaves the snapshots. */
   alive = true;
+  /** Voices following this source that have not ended (kept by the runtime). */
+  voiceCount = 0;
+  /** Called once by dispose() (set by the runtime). */
+  onDispose: (() => void) | null = null;
+  /** True when spatial settings or orientation changed since the last update(). */
+  spatialChanged = false;
+  private spatial: SourceSpatial | null = null;
   private readonly state: SourceState;
   private readonly onTeleport: ((id: number) => void) | null;
 
@@ -52,9 +61,43 @@ export class RalentiSource {
     return this;
   }
 
+  /**
+   * Sets this source's own distance model and sound cone (Web Audio PannerNode names and units: angles in degrees,
+   * coneOuterGain linear 0…1), overriding the tuning's distance settings; null goes back to the tuning's.
+   * Throws RalentiOptionError naming a bad field; sent with the next update().
+   */
+  setSpatial(spatial: SourceSpatial | null): this {
+    if (spatial !== null) {
+      const [problem] = sourceSpatialProblems(spatial);
+      if (problem) throw new RalentiOptionError(`setSpatial.${problem[0]}`, problem[1]);
+      const o = spatial.orientation ?? this.spatial?.orientation;
+      this.spatial = { ...spatial, ...(o ? { orientation: { x: o.x, y: o.y, z: o.z } } : {}) };
+    } else this.spatial = null;
+    this.spatialChanged = true;
+    return this;
+  }
+
+  /** Sets the direction the source faces (for its cone; any length, zero = no cone); sent with the next update() when changed. */
+  setOrientation(x: number, y: number, z: number): this {
+    if (![x, y, z].every(Number.isFinite)) throw new RalentiOptionError('setOrientation', 'expected finite numbers');
+    const o = this.spatial?.orientation;
+    if (o && o.x === x && o.y === y && o.z === z) return this;
+    this.spatial = { ...(this.spatial ?? {}), orientation: { x, y, z } };
+    this.spatialChanged = true;
+    return this;
+  }
+
+  /** The spatial settings to send (a copy), clearing the changed flag. */
+  takeSpatial(): SourceSpatial | null {
+    this.spatialChanged = false;
+    return this.spatial === null ? null : { ...this.spatial };
+  }
+
   /** Removes the source from later snapshots. */
   dispose(): void {
+    if (!this.alive) return;
     this.alive = false;
+    this.onDispose?.();
   }
 
   /** The source's snapshot entry (own object, refreshed in place). */

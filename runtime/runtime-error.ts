@@ -27,3 +27,12 @@ export function checkInteger(field: string, value: unknown, min: number, max: nu
   if (!Number.isInteger(value)) throw new RalentiOptionError(field, `expected an integer, got ${String(value)}`);
   return value as number;
 }
+
+/** Thrown by every call on a runtime after `dispose()` or after its AudioContext was closed; `field` names the call. */
+export class RalentiClosedError extends RalentiOptionError {
+  /** Creates the error for call `field` ('play', 'update', …); `why` is 'disposed' or 'closed'. */
+  constructor(field: string, why: 'disposed' | 'closed') {
+    super(field, why === 'disposed' ? 'the runtime was disposed' : 'the AudioContext was closed');
+    this.name = 'RalentiClosedError';
+  }
+}

@@ -3,6 +3,8 @@
 import { createRalenti, type Ralenti, type RalentiSource, type RalentiVoice, type Sound, type SoundData } from '../runtime';
 import { listeningGain, loadAutosaved, VoiceNames, type ComparisonSource, type DecodedAudioFile, type NamedVoice, type TuningProblem } from '../editor';
 import { SCENE_VOICES } from './script-sounds';
+import { sceneGroup } from './scene-groups';
+import { gainToDb } from '../src/dsp';
 import { radioMessageSound } from './radio-message';
 import { clickSound, droneSound, generatorSound, kartSound, musicLoopSound, orbSound, type GeneratedSound } from './procedural-sounds';
 
@@ -68,10 +70,11 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
   const voiceNames = new Map<number, string>();
   const comparison: ComparisonSource[] = [];
   const slots = new Map<string, SceneVoice>();
-  const groupOf = (g: string) => (Object.prototype.hasOwnProperty.call(ralenti.tuning.groups, g) ? g : 'effects');
+  // Looked up at each play: the editor may have switched to a tuning without the wanted group.
+  const groupOf = (g: string) => sceneGroup(ralenti.tuning, g);
   const start = (name: string, colour: string, made: GeneratedSound, group: string, gain: number, source: RalentiSource | null): void => {
     const sound = ralenti.load(made);
-    const voice = ralenti.play(sound, { group: groupOf(group), loop: true, gain, ...(source ? { source } : {}) });
+    const voice = ralenti.play(sound, { group: groupOf(group), loop: true, gainDb: gainToDb(gain), ...(source ? { source } : {}) });
     const named = names.nameVoice(voice.id, name, colour);
     voiceNames.set(voice.id, name);
     const c: ComparisonSource = { name, buffer: toBuffer(context, made), voiceId: voice.id, positional: source !== null, pan: () => panOf(source) };
@@ -91,8 +94,8 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
     const slot = [...slots.values()].find((s) => s.voice.id === voiceId || s.named.voiceId === voiceId);
     if (!slot) throw new Error('only the scene’s looping voices can take a dropped sound');
     const sound = ralenti.load({ channels: d.channels, sampleRate: d.sampleRate });
-    const voice = ralenti.play(sound, { group: groupOf(slot.group), loop: true, gain: slot.gain, fadeInSeconds: 0.05, ...(slot.source ? { source: slot.source } : {}) });
-    slot.voice.stop(0.05);
+    const voice = ralenti.play(sound, { group: groupOf(slot.group), loop: true, gainDb: gainToDb(slot.gain), fadeInSeconds: 0.05, ...(slot.source ? { source: slot.source } : {}) });
+    slot.voice.stop({ fade: 0.05 });
     const old = slot.sound;
     setTimeout(() => ralenti.unload(old), 500);
     voiceNames.delete(slot.voice.id);
@@ -113,7 +116,7 @@ export async function startSceneAudio(volumeDb: number, storage: Storage | undef
     restored: saved.tuning !== null,
     restoreProblems: saved.problems,
     playClick: () => {
-      ralenti.play(click, { group: groupOf('interface'), gain: 0.25 });
+      ralenti.play(click, { group: groupOf('interface'), gainDb: gainToDb(0.25) });
     },
     replaceSound,
     dropped: (name) => slots.get(name)?.dropped ?? null,

@@ -8,6 +8,9 @@ export { speedOfSound, dopplerRatio, VelocityEstimator, createDopplerStats, DOPP
 export type { DopplerStats, DopplerOptions, MovingPoint, VelocityEstimatorOptions } from './motion';
 export { TimeFlow, Curve, TargetMapper, createVoiceTargets, distanceGain, equalPowerGains, MIN_TARGET_RATIO, MAX_TARGET_RATIO } from './dilation';
 export type { VoiceInput, TargetMapperOptions, TimeFlowOptions } from './dilation';
+export { coneGain, PauseClock, sourceSpatialDefaults, sourceSpatialProblems } from './dilation';
+export type { SourceSpatial } from './dilation';
+export type { VoiceStateName, VoiceEventType } from './engine';
 export { parseTuning, serializeTuning, TuningError, defaultTuning, TUNING_VERSION, DEFAULT_GROUP, tuningLimits, OPEN_CUTOFF_HZ, MAX_TIME_SCALE } from './tuning';
 export type { TuningIssue } from './tuning';
 // Analysis (pitch tracking, spectrum, levels) needs fft.js: it is its own entry, 'ralenti/analysis' (src/analysis/index.ts).

@@ -46,6 +46,19 @@ class Reader {
     }
     return v;
   }
+  /** An optional [low, high] pair of numbers in min…max with low ≤ high, or null. */
+  optionalRange(o: Obj, key: string, path: string, min: number, max: number): [number, number] | null {
+    const v = o[key];
+    if (v === undefined || v === null) return null;
+    if (!Array.isArray(v) || v.length !== 2) {
+      this.fail(join(path, key), `expected [low, high], got ${describe(v)}`);
+      return null;
+    }
+    const pair = { low: v[0], high: v[1] } as Obj;
+    const low = this.number(pair, 'low', join(path, key), undefined, min, max);
+    const high = this.number(pair, 'high', join(path, key), undefined, low, max);
+    return [low, high];
+  }
   optionalNumber(o: Obj, key: string, path: string, min: number, max: number): number | null {
     return o[key] === undefined || o[key] === null ? null : this.number(o, key, path, undefined, min, max);
   }
@@ -188,7 +201,7 @@ export function parseSceneScript(json: unknown): SceneScript {
   const r = new Reader();
   const root = r.object(json, '');
   if (!root) throw new ScriptError(r.issues);
-  r.known(root, '', ['version', 'duration', 'sampleRate', 'velocities', 'snapshotRate', 'tuning', 'sounds', 'sources', 'listener', 'timeScale', 'voices', 'title']);
+  r.known(root, '', ['version', 'duration', 'sampleRate', 'velocities', 'snapshotRate', 'tuning', 'sounds', 'sources', 'listener', 'timeScale', 'voices', 'title', 'seed']);
   const version = r.number(root, 'version', '', SCENE_SCRIPT_VERSION, 1, 1);
   const duration = r.number(root, 'duration', '', undefined, 0, 3600, true);
   const sampleRate = r.number(root, 'sampleRate', '', 48000, 8000, 192000);
@@ -257,7 +270,7 @@ export function parseSceneScript(json: unknown): SceneScript {
       const p = join('voices', i);
       const o = r.object(v, p);
       if (!o) return;
-      r.known(o, p, ['sound', 'source', 'group', 'loop', 'loopStartSeconds', 'loopEndSeconds', 'offsetSeconds', 'gain', 'ratio', 'priority', 'start', 'stop', 'fadeOutSeconds']);
+      r.known(o, p, ['sound', 'source', 'group', 'loop', 'loopStartSeconds', 'loopEndSeconds', 'offsetSeconds', 'gain', 'ratio', 'priority', 'start', 'stop', 'fadeOutSeconds', 'pitchRange', 'gainRange']);
       const sound = r.string(o, 'sound', p);
       if (sound !== '' && !(sound in sounds)) r.fail(join(p, 'sound'), `no sound named "${sound}" in sounds`);
       const source = o.source === undefined || o.source === null ? null : r.string(o, 'source', p);
@@ -283,8 +296,12 @@ export function parseSceneScript(json: unknown): SceneScript {
         start,
         stop,
         fadeOutSeconds: r.number(o, 'fadeOutSeconds', p, 0.01, 0, 10),
+        pitchRange: r.optionalRange(o, 'pitchRange', p, -2400, 2400),
+        gainRange: r.optionalRange(o, 'gainRange', p, -60, 24),
       });
     });
+  const seed = r.number(root, 'seed', '', 1, 0, 2 ** 32 - 1);
+  if (!Number.isInteger(seed)) r.fail('seed', `expected an integer, got ${seed}`);
   if (r.issues.length > 0) throw new ScriptError(r.issues);
-  return { version: version as 1, duration, sampleRate, velocities, snapshotRate, tuning, sounds, sources, listener, timeScale, voices };
+  return { version: version as 1, duration, sampleRate, velocities, snapshotRate, tuning, sounds, sources, listener, timeScale, voices, seed };
 }

@@ -89,7 +89,7 @@ export class SceneRun {
     const t = options.tier && options.tier !== tuning.resampler.tier ? { ...tuning, resampler: { tier: options.tier } } : tuning;
     const voices = script.voices.map((v, i) => ({ spec: v, index: i })).filter(({ spec, index }) => options.voiceFilter?.(spec, index) ?? true);
     const sourceNames = Object.keys(script.sources);
-    const engine = new Engine({ sampleRate: sr, capacity: Math.min(1024, Math.max(64, voices.length)), maxSources: Math.max(16, sourceNames.length), tuning: t });
+    const engine = new Engine({ sampleRate: sr, capacity: Math.min(1024, Math.max(64, voices.length)), maxSources: Math.max(16, sourceNames.length), tuning: t, seed: script.seed });
     this.engine = engine;
     const soundIds = new Map<string, number>();
     for (const [name, buf] of Object.entries(sounds)) soundIds.set(name, engine.addSound(buf.channels, buf.sampleRate));
@@ -190,5 +190,7 @@ function startVoice(engine: Engine, v: VoiceSpec, sound: number, buf: SoundBuffe
     ratio: v.ratio,
     priority: v.priority ?? undefined,
     sourceId,
+    pitchRange: v.pitchRange ?? undefined,
+    gainRange: v.gainRange ?? undefined,
   });
 }

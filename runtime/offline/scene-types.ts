@@ -86,6 +86,10 @@ export interface VoiceSpec {
   readonly start: number;
   readonly stop: number | null;
   readonly fadeOutSeconds: number;
+  /** Per-play pitch variation [low, high] in cents, or null. */
+  readonly pitchRange: readonly [number, number] | null;
+  /** Per-play gain variation [low, high] in dB, or null. */
+  readonly gainRange: readonly [number, number] | null;
 }
 
 /** A parsed scene script (version 1). */
@@ -106,4 +110,6 @@ export interface SceneScript {
   readonly listener: ListenerSpec;
   readonly timeScale: readonly TimeScaleKey[];
   readonly voices: readonly VoiceSpec[];
+  /** Seed of the per-play variation (integer; default 1): the same script renders the same samples. */
+  readonly seed: number;
 }

@@ -9,6 +9,8 @@ import type { RalentiSource } from '../ralenti-source';
 /** What the binding drives: a Ralenti fits. */
 export interface SnapshotTarget {
   readonly tuning: Tuning;
+  /** True once the target was disposed or its context closed (its calls then throw): update() skips it. */
+  readonly closed?: boolean;
   createSource(): RalentiSource;
   setListener(listener: RalentiListener): void;
   update(time?: Seconds): void;
@@ -115,6 +117,8 @@ export class ThreeBinding {
    * updates positions and velocities, and sends one snapshot (stamped by the target, context time).
    */
   update(time: Seconds): void {
+    // Between a dispose and retarget() (e.g. while the howler bridge rebuilds) there is nothing to drive.
+    if (this.target.closed === true) return;
     if (this.target.tuning !== this.tuning) this.retune();
     const lo = this.listenerObject;
     if (lo) {

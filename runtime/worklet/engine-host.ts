@@ -5,6 +5,7 @@ import { parseTuning } from '../../src/tuning/index';
 import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
 import { WasmKernel } from '../../src/dsp/index';
 import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type RenderLoad, type Report } from '../protocol';
+import { VoiceEventRelay } from './voice-event-relay';
 import { TableInstaller } from './table-installer';
 
 /** A millisecond clock for timing process(), and its name (reported with the load). */
@@ -67,6 +68,9 @@ export class EngineHost {
   /** Largest peakIn / peakOut of every render since the last stats report (the engine resets its own per call). */
   private intervalPeakIn = 0;
   private intervalPeakOut = 0;
+  private readonly relay: VoiceEventRelay;
+  /** The node's routed group outputs of the current block (outputs 1…k; refilled each block, never reallocated). */
+  private readonly routed: Float32Array[][];
   /** Longest single call (process or message) since the last stats report, ms. */
   private peakMs = 0;
   private readonly tables: TableInstaller;
@@ -80,7 +84,12 @@ export class EngineHost {
     // Tables designed on the main thread: the tuning's tier is installed here, before any audio; others follow in slices.
     this.tables = new TableInstaller(WasmKernel.shared());
     const tables = Array.isArray(p.tables) ? this.tables.receive(p.tables, true) : undefined;
-    this.engine = new Engine({ sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, tables });
+    this.engine = new Engine({
+      sampleRate: options.sampleRate, capacity: p.capacity, maxSounds: p.maxSounds, tuning: p.tuning, tables, seed: p.seed,
+      maxSources: p.maxSources, groupOutputs: p.groupOutputs,
+    });
+    this.routed = (p.groupOutputs ?? []).map(() => []);
+    this.relay = new VoiceEventRelay(this.engine, { voices: this.voices, owners: this.voiceOwners }, this.post);
     this.scratch = [new Float32Array(128), new Float32Array(128)];
     for (let i = 0; i < p.capacity; i++) this.monitors.push(emptyMonitor());
     const interval = Math.min(10, Math.max(0.05, Number(p.statsIntervalSeconds) || 0.25));
@@ -144,15 +153,14 @@ export class EngineHost {
         if (v >= 0) {
           this.voices.set(c.voice, v);
           this.voiceOwners.set(v, c.voice);
-        }
+        } else this.relay.refuse(c.voice);
         return;
       }
       case 'stop': {
         const v = this.voices.get(c.voice);
         if (v === undefined) return;
+        // The handle stays mapped until the engine reports the voice ended (after its fade).
         e.stop(v, c.fadeSeconds);
-        this.voices.delete(c.voice);
-        this.voiceOwners.delete(v);
         return;
       }
       case 'set-voice': {
@@ -181,10 +189,14 @@ export class EngineHost {
         return;
       }
       case 'sync':
+        this.relay.flush(this.timeOffset + e.time, true);
         this.post({ type: 'synced', id: c.id, contextTime: this.timeOffset + e.time });
         return;
       case 'teleport':
         e.teleport(c.source);
+        return;
+      default:
+        this.relay.apply(c);
         return;
     }
   }
@@ -193,8 +205,9 @@ export class EngineHost {
    * Renders one block into `output` (the node's first output, one Float32Array per channel).
    * Never throws: on failure the block is silent, the error counted and reported. Returns true (keep alive).
    */
-  process(output: Float32Array[] | undefined): boolean {
+  process(output: Float32Array[] | undefined, all?: Float32Array[][]): boolean {
     if (!output || output.length === 0) return true;
+    for (let k = 0; k < this.routed.length; k++) this.routed[k] = all?.[k + 1] ?? EMPTY;
     const started = this.clock ? this.clock.now() : 0;
     const frames = output[0].length;
     try {
@@ -205,7 +218,7 @@ export class EngineHost {
       if (this.faulted) {
         silence(output);
       } else if (output.length === 2) {
-        this.engine.render(output, frames);
+        this.engine.render(output, frames, this.routed);
       } else {
         this.renderVia(output, frames);
       }
@@ -224,6 +237,11 @@ export class EngineHost {
     const st = this.engine.stats;
     if (st.peakIn > this.intervalPeakIn) this.intervalPeakIn = st.peakIn;
     if (st.peakOut > this.intervalPeakOut) this.intervalPeakOut = st.peakOut;
+    try {
+      this.relay.flush(this.timeOffset + this.engine.time);
+    } catch (err) {
+      this.fail('events', errorMessage(err));
+    }
     this.framesSinceStats += frames;
     if (this.framesSinceStats >= this.statsIntervalFrames) {
       this.framesSinceStats = 0;
@@ -291,6 +309,7 @@ export class EngineHost {
         this.voiceOwners.delete(engineVoice);
         this.voices.delete(mainVoice);
       }
+      this.relay.flush(this.timeOffset + this.engine.time, true);
       // Peaks over the whole report interval (true peak of every sample since the last report), not the last block's;
       // the last shockwave's time goes out in context time, as every time the main thread sees.
       const st = this.engine.stats;
@@ -319,6 +338,8 @@ export class EngineHost {
     }
   }
 }
+
+const EMPTY: Float32Array[] = [];
 
 function silence(output: Float32Array[]): void {
   for (const ch of output) ch.fill(0);

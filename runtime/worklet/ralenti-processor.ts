@@ -36,8 +36,8 @@ class RalentiProcessor extends AudioWorkletProcessor {
   }
 
   process(_inputs: Float32Array[][], outputs: Float32Array[][]): boolean {
-    if (this.host) return this.host.process(outputs[0]);
-    for (const ch of outputs[0] ?? []) ch.fill(0);
+    if (this.host) return this.host.process(outputs[0], outputs);
+    for (const out of outputs) for (const ch of out) ch.fill(0);
     return true;
   }
 }

@@ -17,3 +17,7 @@ export {
 } from './target-mapper';
 export type { VoiceInput, TargetMapperOptions } from './target-mapper';
 export type * from './snapshot-types';
+export { coneGain } from './cone-gain';
+export { PauseClock } from './pause-clock';
+export { sourceSpatialDefaults, sourceSpatialProblems } from './source-spatial';
+export type { SourceSpatial } from './source-spatial';

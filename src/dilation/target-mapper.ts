@@ -7,6 +7,8 @@ import { dopplerFromSpeeds, speedOfSound, createDopplerStats, type DopplerStats 
 import type { ListenerState, SourceState, VoiceTargets } from './snapshot-types';
 import { CompiledGroup } from './group-policy';
 import { distanceGain, equalPowerFromSine } from './spatial-gains';
+import { coneGain } from './cone-gain';
+import type { SourceSpatial } from './source-spatial';
 
 /** Largest target ratio (the resampler's maximum playback ratio). */
 export const MAX_TARGET_RATIO = 4;
@@ -37,6 +39,8 @@ export interface VoiceInput {
   listener: ListenerState & { velocity: Vec3Like };
   /** Positioned source with velocity, or null for a non-positional voice (centred, gains 1, no Doppler). */
   source: (SourceState & { velocity: Vec3Like }) | null;
+  /** The source's own distance model and cone (overriding the tuning's), or null/absent for the tuning's. */
+  spatial?: SourceSpatial | null;
 }
 
 /** Options of TargetMapper. */
@@ -86,6 +90,8 @@ export class TargetMapper {
   private readonly lastUp: Vec3Like = { x: Number.NaN, y: 0, z: 0 };
   private lastOrientationValid = true;
   private readonly pan = new Float64Array(2);
+  /** PannerNode's default orientation, for sources with a cone but no orientation. */
+  private readonly defaultOrientation: Vec3Like = { x: 1, y: 0, z: 0 };
   private readonly dir: Vec3Like = { x: 0, y: 0, z: 0 };
   private readonly fwd: Vec3Like = { x: 0, y: 0, z: -1 };
   private readonly right: Vec3Like = { x: 1, y: 0, z: 0 };
@@ -209,7 +215,8 @@ export class TargetMapper {
     const dy = sp.y - lp.y;
     const dz = sp.z - lp.z;
     const d = Math.sqrt(dx * dx + dy * dy + dz * dz);
-    const dist = distanceGain(this.distanceModel, d, this.refDistance, this.maxDistance, this.rolloff);
+    const own = input.spatial ?? null;
+    const dist = own === null ? distanceGain(this.distanceModel, d, this.refDistance, this.maxDistance, this.rolloff) : this.sourceGain(own, d, sp, lp);
     out.distance = d;
     const dir = this.dir;
     if (d > 0) {
@@ -250,6 +257,15 @@ export class TargetMapper {
     if (!g.doppler || factor === 0 || d === 0) return;
     const ratio = dopplerFromSpeeds(vls, vss, this.c, factor, this.dopplerStats);
     out.doppler = ratio < this.minDoppler ? this.minDoppler : ratio > this.maxDoppler ? this.maxDoppler : ratio;
+  }
+
+  /** Distance gain with the source's own model parameters (the tuning's where absent) times its cone gain. */
+  private sourceGain(sp: SourceSpatial, d: number, sourcePosition: Vec3Like, listenerPosition: Vec3Like): number {
+    const model = sp.distanceModel ?? this.distanceModel;
+    const g = distanceGain(model, d, sp.refDistance ?? this.refDistance, sp.maxDistance ?? this.maxDistance, sp.rolloffFactor ?? this.rolloff);
+    const o = sp.orientation;
+    if (o === undefined) return g * coneGain(sourcePosition, this.defaultOrientation, listenerPosition, sp.coneInnerAngle ?? 360, sp.coneOuterAngle ?? 360, sp.coneOuterGain ?? 0);
+    return g * coneGain(sourcePosition, o, listenerPosition, sp.coneInnerAngle ?? 360, sp.coneOuterAngle ?? 360, sp.coneOuterGain ?? 0);
   }
 
   /** Non-finite speeds → 0, beyond ±MAX_RADIAL_SPEED → clamped; both counted. */

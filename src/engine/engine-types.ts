@@ -1,5 +1,5 @@
 // The engine's public contract, shared by its two hosts (AudioWorklet and the Node offline renderer).
-import type { Decibels, Hz, Seconds } from '../units';
+import type { Cents, Decibels, Hz, Seconds } from '../units';
 import type { Easing, QualityTierName, Tuning } from '../tuning/tuning-types';
 import type { ListenerState, SourceState } from '../dilation/snapshot-types';
 import type { KernelName, KernelPreference, KernelTable } from '../dsp';
@@ -24,6 +24,10 @@ export interface EngineOptions {
   maxStretchVoices?: number;
   /** Resampler inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (reference), 'wasm-simd' (throws where unavailable). */
   kernel?: KernelPreference;
+  /** Groups that get their own stereo output (at most 8), in order: they leave after their bus gain, before the master gain and limiter. */
+  groupOutputs?: readonly string[];
+  /** Seed of the per-play variation draws (pitchRange, gainRange), a 32-bit integer; default 1. Same seed, same plays: same samples. */
+  seed?: number;
   /**
    * Kernel tables designed elsewhere (e.g. on the main thread, `KernelTable.fromData`), one per tier name. When given,
    * the engine designs none: a tier without a table here keeps the table in use until `useTables` brings one.
@@ -43,8 +47,14 @@ export interface PlayOptions {
   loopEnd?: number;
   /** Start offset into the sound in seconds of source time (default 0). */
   offsetSeconds?: Seconds;
-  /** Linear gain, 0…16 (default 1). */
+  /** Linear gain, 0…16 (default 1); the engine-level form of gainDb (gainDb wins when both are given). */
   gain?: number;
+  /** Gain in dB, −120…24 (default 0 dB); the runtime's unit. */
+  gainDb?: Decibels;
+  /** Per-play pitch variation: a ratio offset drawn uniformly in [low, high] cents (each −2400…2400), seeded. */
+  pitchRange?: readonly [Cents, Cents];
+  /** Per-play gain variation: a gain offset drawn uniformly in [low, high] dB (each −60…24), seeded. */
+  gainRange?: readonly [Decibels, Decibels];
   /** Base playback ratio before time scale and Doppler, (0, 4] (default 1). */
   ratio?: number;
   /** Stealing priority override (default: the group's priority). */

@@ -18,6 +18,13 @@ import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
 import { StretchBank } from './stretch-stage';
 import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
+import { seededRandom } from '../random';
+import { sourceSpatialProblems, type SourceSpatial } from '../dilation';
+import { VoiceControls, type VoiceStateName } from './voice-controls';
+import { EVENT_AUDIBLE, EVENT_VIRTUAL, VoiceEventRing } from './voice-events';
+import { drawVariation, MAX_PITCH_VARIATION_CENTS, MAX_GAIN_VARIATION_DB, MIN_GAIN_VARIATION_DB } from './play-variation';
+import { MAX_GROUP_VOLUME_DB, MIN_GROUP_VOLUME_DB } from './group-bus';
+import { GroupRoutes } from './group-routes';
 
 /** Frozen defaults of the engine's options and fades. */
 export const engineDefaults = Object.freeze({
@@ -66,6 +73,12 @@ export class Engine {
   private frameCount = 0;
   private sequence = 0;
   private engineClamps = 0;
+  /** Voice events (ended, stolen, virtual, audible) waiting for the host: drain with drainEvents. */
+  readonly events = new VoiceEventRing();
+  private readonly controls: VoiceControls;
+  private readonly random: () => number;
+  private readonly routes: GroupRoutes;
+  private routeCeiling = 1;
   /** Tables handed in by the host (by tier name), or null: the engine designs its own (`KernelTable.forTier`). */
   private readonly given: Map<string, KernelTable> | null;
   private table: KernelTable;
@@ -101,7 +114,11 @@ export class Engine {
     }
     const stretchCount = checkRange('maxStretchVoices', options.maxStretchVoices ?? engineDefaults.maxStretchVoices, 0, 1024);
     this.stretches = new StretchBank(stretchCount, table, sr, t.smoothing.ratioSeconds, options.kernel ?? 'auto');
-    this.pool = new VoicePool({ voices: this.voices, capacity: this.capacity, bank: this.bank });
+    this.pool = new VoicePool({ voices: this.voices, capacity: this.capacity, bank: this.bank, events: this.events });
+    this.routes = new GroupRoutes(options.groupOutputs ?? [], this.maxBlock);
+    this.routeCeiling = Math.pow(10, t.master.ceilingDb / 20);
+    this.controls = new VoiceControls(this.voices.length, this.events, this.routes);
+    this.random = seededRandom(options.seed ?? 1);
     const buf = () => new Float32Array(this.maxBlock);
     const stereo = [buf(), buf()];
     this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()], wasm: null, ratios: new Float32Array(this.maxBlock), stage: this.stage };
@@ -109,7 +126,7 @@ export class Engine {
     // Voice scratch and mix bus in module memory: the kernel writes and the module mixes there, with no copies.
     this.resident = wasm === null ? null : new KernelResidency({ kernel: wasm, maxBlockFrames: this.maxBlock, bank: this.bank, owner: this });
     this.resident?.bind(this.scratch, this.bus);
-    this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null };
+    this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null, spatial: null };
     this.stats = {
       activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
       limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: table.name as Tuning['resampler']['tier'], kernel: this.voices[0].reader.kernelName,
@@ -163,13 +180,18 @@ export class Engine {
     }
     const compiled = this.mapper.group(group);
     const priority = clampNumber(options.priority ?? compiled.priority, 0, 255, compiled.priority);
-    const gain = clampNumber(options.gain ?? 1, 0, 16, 1);
-    const ratio = options.ratio === undefined ? 1 : options.ratio > 0 && options.ratio <= 4 ? options.ratio : (this.engineClamps++, 1);
+    this.events.now = this.time;
+    let gain = options.gainDb !== undefined ? Math.pow(10, clampNumber(options.gainDb, MIN_GROUP_VOLUME_DB, MAX_GROUP_VOLUME_DB, 0) / 20) : clampNumber(options.gain ?? 1, 0, 16, 1);
+    let ratio = options.ratio === undefined ? 1 : options.ratio > 0 && options.ratio <= 4 ? options.ratio : (this.engineClamps++, 1);
+    // Per-play variation, drawn in a fixed order (pitch, then gain) so that both hosts draw the same numbers.
+    ratio = clampNumber(ratio * Math.pow(2, drawVariation(this.random, options.pitchRange, -MAX_PITCH_VARIATION_CENTS, MAX_PITCH_VARIATION_CENTS) / 1200), 1 / 1024, 4, 1);
+    gain = clampNumber(gain * Math.pow(10, drawVariation(this.random, options.gainRange, MIN_GAIN_VARIATION_DB, MAX_GAIN_VARIATION_DB) / 20), 0, 16, 1);
     const sourceId = options.sourceId !== undefined && Number.isFinite(options.sourceId) ? options.sourceId : -1;
     const rate = this.bank.rates[slot];
     // Targets now, for the stealing decision and so that the voice starts at its proper pitch.
     this.snapshots.interpolate(this.time);
     const src = sourceId === -1 ? -1 : this.snapshots.find(sourceId);
+    this.input.spatial = sourceId === -1 ? null : (this.controls.spatial.get(sourceId) ?? null);
     this.mapInto(this.probe, group, (ratio * rate) / this.sampleRate, gain, src);
     const audibility = targetAudibility(this.probe);
     if (this.pool.full) {
@@ -203,6 +225,7 @@ export class Engine {
     v.virtual = false;
     v.fresh = true;
     v.thawing = false;
+    this.controls.attach(v, compiled.policy === 'exempt');
     const fadeIn = options.fadeInSeconds ?? engineDefaults.fadeInSeconds;
     v.env = fadeIn > 0 ? 0 : 1;
     v.envTarget = 1;
@@ -244,6 +267,7 @@ export class Engine {
     this.stage.speedOfSound = propagationSpeed(t);
     this.air.configure(t.air);
     this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
+    this.routeCeiling = Math.pow(10, t.master.ceilingDb / 20);
     this.switchTable(this.tableFor(t.resampler.tier));
     const sm = this.smoothing(t);
     this.stretches.configure(this.table, t.smoothing.ratioSeconds);
@@ -260,6 +284,7 @@ export class Engine {
         v.arrived = true;
         v.dopplerStart = v.dopplerEnd = 1;
       }
+      this.controls.rebind(v, g.policy === 'exempt');
     }
   }
 
@@ -288,7 +313,7 @@ export class Engine {
   /** Stores a gameplay snapshot; positions glide from the previous one across the snapshot interval. */
   pushSnapshot(s: EngineSnapshot): void {
     try {
-      if (s.timeScale !== undefined) this.flow.jump(s.timeScale, this.time);
+      if (s.timeScale !== undefined) this.flow.jump(s.timeScale, this.controls.flowTime(this.time));
       this.snapshots.push(s, this.time);
       this.stage.push(s, this.time, this.snapshots.snapshotInterval, this.slotOf);
     } catch {
@@ -298,7 +323,10 @@ export class Engine {
 
   /** Starts a time-scale ramp (startTime defaults to now, engine time). */
   setTimeScale(request: TimeScaleRequest): void {
-    this.flow.set(request, this.time);
+    const now = this.time;
+    // In time-flow time, which stops while the world is paused: a ramp asked for during a pause starts on resume.
+    const startTime = this.controls.clock.requestTime(request.startTime ?? now, now);
+    this.flow.set({ target: request.target, rampSeconds: request.rampSeconds, easing: request.easing, startTime }, this.controls.flowTime(now));
   }
 
   /**
@@ -314,8 +342,11 @@ export class Engine {
     return this.stage.drainShockwaves(out);
   }
 
-  /** Renders `frames` stereo frames into outputs[0] (left) and outputs[1] (right); never throws, never allocates. */
-  render(outputs: readonly Float32Array[], frames: number): void {
+  /**
+   * Renders `frames` stereo frames into outputs[0] (left) and outputs[1] (right), and each routed group (EngineOptions
+   * .groupOutputs, in order) into groupOutputs[k][0|1] when given; never throws, never allocates.
+   */
+  render(outputs: readonly Float32Array[], frames: number, groupOutputs?: readonly (readonly Float32Array[])[]): void {
     const st = this.stats;
     try {
       if (this.resident !== null && this.resident.stale(this.bus)) this.resident.bind(this.scratch, this.bus); // memory grew elsewhere
@@ -323,16 +354,17 @@ export class Engine {
       st.peakOut = 0;
       for (let done = 0; done < frames; ) {
         const n = frames - done < this.maxBlock ? frames - done : this.maxBlock;
-        this.block(outputs, done, n);
+        this.block(outputs, done, n, groupOutputs);
         done += n;
       }
     } catch {
       st.errors++;
       for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
+      if (groupOutputs !== undefined) for (const g of groupOutputs) for (const o of g) o.fill(0, 0, Math.min(frames, o.length));
     }
     const readerClamps = this.pool.count(st);
     const stage = this.stage;
-    st.clamps = this.engineClamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps + this.stretches.clampCount + stage.ratioClamps + stage.tracks.dropped;
+    st.clamps = this.engineClamps + this.routes.clamps + this.mapper.clamps + this.flow.clamps + this.snapshots.clamps + this.bus.clamps + readerClamps + this.stretches.clampCount + stage.ratioClamps + stage.tracks.dropped;
     st.ratioClamps = stage.ratioClamps;
     st.teleports = stage.tracks.teleports;
     if (stage.shockwaves !== st.shockwaves) {
@@ -343,8 +375,94 @@ export class Engine {
     st.refused += this.snapshots.refused;
     this.snapshots.refused = 0;
     st.limiterDb = this.bus.limiter.reductionDb;
-    st.timeScale = this.flow.valueAt(this.time);
+    st.timeScale = this.flow.valueAt(this.controls.flowTime(this.time));
     st.time = this.time;
+  }
+
+  /** Pauses the whole world (no group: every pausable group, and the time scale's transitions) or one group; click-free. */
+  pause(group?: string): void {
+    if (group !== undefined) this.controls.buses.setPaused(group, true);
+    else if (!this.controls.buses.worldPaused) {
+      this.controls.buses.worldPaused = true;
+      this.controls.clock.pause(this.time);
+    }
+  }
+
+  /** Resumes the whole world (no group) or one group paused on its own; held voices fade back in where they were. */
+  resume(group?: string): void {
+    if (group !== undefined) this.controls.buses.setPaused(group, false);
+    else if (this.controls.buses.worldPaused) {
+      this.controls.buses.worldPaused = false;
+      this.controls.clock.resume(this.time);
+    }
+  }
+
+  /** Whether a world pause holds `group` (default: every group whose policy is not 'exempt'). */
+  setGroupPausable(group: string, pausable: boolean): void {
+    this.controls.buses.setPausable(group, pausable === true);
+  }
+
+  /** Sets a group's bus volume in dB (−120…24, clamped and counted); changes glide with the gain smoothing. */
+  setGroupVolume(group: string, db: number): void {
+    if (!this.controls.buses.setVolume(group, db)) this.engineClamps++;
+  }
+
+  /** Mutes or unmutes a group's bus (its voices go virtual and keep time). */
+  setGroupMute(group: string, muted: boolean): void {
+    this.controls.buses.setMute(group, muted);
+  }
+
+  /** Solos or unsolos a group's bus: while any group is soloed, only soloed groups are heard. */
+  setGroupSolo(group: string, solo: boolean): void {
+    this.controls.buses.setSolo(group, solo);
+  }
+
+  /** A group bus's state: volume in dB, mute, solo and its own pause. */
+  getGroupState(group: string): { volumeDb: number; muted: boolean; solo: boolean; paused: boolean } {
+    const b = this.controls.buses.bus(group);
+    return { volumeDb: b.volumeDb, muted: b.muted, solo: b.solo, paused: b.paused };
+  }
+
+  /** Moves a voice's read head to `seconds` of source time (clamped to the sound) after a short fade; stale handles are ignored. */
+  seek(voice: number, seconds: Seconds): void {
+    const v = this.pool.resolve(voice);
+    if (v === null || v.state !== VOICE_PLAYING) return;
+    const rate = v.rateFactor * this.sampleRate;
+    const frames = this.bank.frames[v.sound];
+    if (!(seconds >= 0 && seconds * rate <= frames)) this.engineClamps++;
+    this.controls.seek(v, clampNumber(seconds * rate, 0, frames, 0));
+  }
+
+  /** A voice's state: 'playing', 'virtual', 'stopping' (fading out after stop or steal) or 'ended'. */
+  voiceState(voice: number): VoiceStateName {
+    return this.controls.stateOf(this.pool.resolve(voice));
+  }
+
+  /** A voice's read position in seconds of source time, or −1 once it has ended. */
+  voicePosition(voice: number): Seconds {
+    const v = this.pool.resolve(voice);
+    if (v === null) return -1;
+    return (v.stretch !== null ? v.stretch.reader.position : v.reader.position) / (v.rateFactor * this.sampleRate);
+  }
+
+  /** Source seconds a voice advances per output second now (its smoothed ratio; 0 while held), or 0 once ended. */
+  voiceSpeed(voice: number): number {
+    const v = this.pool.resolve(voice);
+    return v === null || (v.held && v.env === 0) ? 0 : v.currentRatio / v.rateFactor;
+  }
+
+  /** Sets (null: clears) a source's own distance model and cone; an invalid object is refused whole (counted in refused). */
+  setSourceSpatial(sourceId: number, spatial: SourceSpatial | null): void {
+    if (spatial !== null && sourceSpatialProblems(spatial).length > 0) {
+      this.stats.refused++;
+      return;
+    }
+    this.controls.setSourceSpatial(sourceId, spatial, this.voices);
+  }
+
+  /** Moves waiting voice events into `out` as (code, voice handle, engine time) triples; returns the event count. */
+  drainEvents(out: Float64Array): number {
+    return this.events.drain(out);
   }
 
   /** Fills `out` with the playing voices (up to out.length) and returns how many were written. */
@@ -370,15 +488,20 @@ export class Engine {
     return k;
   }
 
-  private block(outputs: readonly Float32Array[], offset: number, n: number): void {
+  private block(outputs: readonly Float32Array[], offset: number, n: number, groupOutputs: readonly (readonly Float32Array[])[] | undefined): void {
     const mixL = this.bus.left;
     const mixR = this.bus.right;
     this.bus.clear(n);
+    const routes = this.routes;
+    routes.clear(n);
+    const controls = this.controls;
+    this.events.now = this.time;
     // Control values at the block's end, reached there by per-sample ramps from the block's start (no half-block lag).
+    // The time flow runs on the pause clock: it holds while the world is paused.
     const tStart = this.frameCount / this.sampleRate;
     const tEnd = (this.frameCount + n) / this.sampleRate;
     this.snapshots.interpolate(tEnd);
-    const s = this.flow.valueAt(tEnd);
+    const s = this.flow.valueAt(controls.flowTime(tEnd));
     const voices = this.voices;
     for (let i = 0; i < voices.length; i++) {
       const v = voices[i];
@@ -386,21 +509,29 @@ export class Engine {
       if (!this.snapshots.holds(v.sourceSlot, v.sourceId)) v.sourceSlot = this.snapshots.find(v.sourceId);
       if (v.propagating) this.stage.need(v.sourceSlot);
     }
-    this.stage.advance(tStart, tEnd, this.flow.valueAt(0.5 * (tStart + tEnd)));
+    this.stage.advance(tStart, tEnd, this.flow.valueAt(controls.flowTime(0.5 * (tStart + tEnd))));
     for (let i = 0; i < voices.length; i++) {
       const v = voices[i];
       if (v.state === VOICE_FREE) continue;
       const slot = v.sourceId === -1 ? -1 : v.sourceSlot;
       const source = v.propagating ? propagateVoice(this.stage, v, slot, n, this.time, this.sampleRate, this.emission) : slot >= 0 ? this.snapshots.sourceAt(slot) : null;
+      this.input.spatial = controls.spatialOf(v);
       this.mapSource(v.targets, v.group, v.ratio * v.rateFactor, v.gain, source, s);
       if (v.propagating && source !== null) airStage(v, this.air);
-      if (!v.render(mixL, mixR, 0, n, this.scratch)) this.pool.free(v);
+      controls.beforeRender(v);
+      const wasVirtual = v.virtual;
+      const route = controls.routeOf(v);
+      const alive = route < 0 ? v.render(mixL, mixR, 0, n, this.scratch) : v.render(routes.left[route], routes.right[route], 0, n, routes.scratchFor(this.scratch));
+      controls.afterRender(v);
+      if (v.virtual !== wasVirtual) this.events.push(v.virtual ? EVENT_VIRTUAL : EVENT_AUDIBLE, this.pool.handleOf(v));
+      if (!alive) this.pool.free(v);
     }
     this.bus.finish(outputs, offset, n, this.stats);
+    routes.finish(groupOutputs, offset, n, this.routeCeiling);
     this.frameCount += n;
   }
 
-  private mapInto(out: Voice['targets'], group: string, baseRatio: number, gain: number, sourceSlot: number, timeScale = this.flow.valueAt(this.time)): void {
+  private mapInto(out: Voice['targets'], group: string, baseRatio: number, gain: number, sourceSlot: number, timeScale = this.flow.valueAt(this.controls.flowTime(this.time))): void {
     this.mapSource(out, group, baseRatio, gain, sourceSlot >= 0 ? this.snapshots.sourceAt(sourceSlot) : null, timeScale);
   }
 

@@ -4,6 +4,7 @@ import type { Seconds } from '../units';
 import type { EngineStats } from './engine-types';
 import type { SoundBank } from './sound-bank';
 import { Voice, VOICE_FREE, VOICE_PLAYING, VOICE_RELEASING } from './voice';
+import { EVENT_ENDED, EVENT_STOLEN, type VoiceEventRing } from './voice-events';
 
 /** Voice slots a handle can address: handle = slot + HANDLE_SLOTS × generation. */
 const HANDLE_SLOTS = 2048;
@@ -17,6 +18,8 @@ export interface VoicePoolOptions {
   capacity: number;
   /** The sound bank whose slot references the voices hold. */
   bank: SoundBank;
+  /** Ring that receives 'stolen' and 'ended' events, if any. */
+  events?: VoiceEventRing;
 }
 
 /** Hands out, steals, releases and frees voice slots; never allocates. */
@@ -28,12 +31,14 @@ export class VoicePool {
   /** Playing (not releasing) voices: raised by `take`, lowered by `release` and `free`. */
   private owned = 0;
   private readonly bank: SoundBank;
+  private readonly events: VoiceEventRing | null;
 
   /** Takes the slots as given. */
   constructor(options: VoicePoolOptions) {
     this.voices = options.voices;
     this.capacity = options.capacity;
     this.bank = options.bank;
+    this.events = options.events ?? null;
   }
 
   /** True when `capacity` voices are playing. */
@@ -66,6 +71,7 @@ export class VoicePool {
     if (victim === null || victim.priority > priority || (victim.priority === priority && victim.audibility > audibility)) return false;
     // A sounding victim needs a fade slot; with every fade slot busy, making room would cut a voice (a click): refuse.
     if (victim.env !== 0 && !this.hasFreeSlot()) return false;
+    this.events?.push(EVENT_STOLEN, this.handleOf(victim));
     this.release(victim, fadeSeconds);
     return true;
   }
@@ -85,7 +91,10 @@ export class VoicePool {
   /** Frees a voice slot (its handle goes stale) and drops its reference to the sound. */
   free(v: Voice): void {
     if (v.state === VOICE_PLAYING) this.owned--;
-    if (v.state !== VOICE_FREE) this.bank.release(v.sound, -1);
+    if (v.state !== VOICE_FREE) {
+      this.bank.release(v.sound, -1);
+      this.events?.push(EVENT_ENDED, this.handleOf(v));
+    }
     v.state = VOICE_FREE;
     v.generation = (v.generation + 1) % GENERATIONS;
   }

@@ -89,6 +89,8 @@ export class Voice {
   readonly freezeStep: number;
   /** Set while frozen, until the resume fade has completed. */
   thawing = false;
+  /** Held by a pause or a pending seek (set by the engine each block): fades out and holds like a frozen voice. */
+  held = false;
   /** Slot index in the engine's pool. */
   index = 0;
   /** Propagation model: the read follows the emission time (delay and emission-time Doppler). */
@@ -186,7 +188,7 @@ export class Voice {
     // Not yet arrived (propagation delay, or outside a Mach cone): silent, read head at the start.
     if (!this.arrived) return this.state !== VOICE_RELEASING;
     const t = this.targets;
-    const frozen = t.frozen === true && this.followsTime;
+    const frozen = (t.frozen === true && this.followsTime) || this.held;
     if (this.state === VOICE_PLAYING) {
       this.envTarget = frozen ? 0 : 1;
       if (frozen) this.thawing = true;

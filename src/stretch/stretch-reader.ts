@@ -104,6 +104,12 @@ export class StretchReader {
     return this.pos;
   }
 
+  /** Moves the position to `frame` (source frames; non-finite → 0) and starts a fresh grain there at the next read (a seek). */
+  seek(frame: number): void {
+    this.pos = Number.isFinite(frame) ? frame : 0;
+    this.restart();
+  }
+
   /** Speeds or pitch ratios replaced or clamped on the audio path (non-finite or out of range), plus the readers'. */
   get clampCount(): number {
     return this.clamps + this.readers[0].clampCount + this.readers[1].clampCount;

@@ -1,6 +1,7 @@
 // Browser side of the parity suite: renders a ParityScene through createRalenti in an OfflineAudioContext,
 // applying each step at its frame with OfflineAudioContext.suspend() and waiting for the worklet to take it.
-import { createRalenti, type RalentiVoice } from '../../runtime/index';
+import { createRalenti, type RalentiPlayOptions, type RalentiVoice } from '../../runtime/index';
+import type { PlayOptions } from '../../src/index';
 import { createRalenti as createRalentiInline } from '../../runtime/inline';
 import { PARITY_RATE, type SceneAction, type SceneStep } from './parity-scene';
 
@@ -20,6 +21,19 @@ export interface PageRender {
   renderMs: number;
   /** Resampler kernel the worklet's engine reported ('wasm-simd' where WebAssembly SIMD loads in the audio thread). */
   kernel: string;
+  /** Voice events as delivered on the main thread, in order: '<scene voice> <type>'. */
+  events: string[];
+}
+
+/** The scene's engine-level play options in the runtime's units (gain in dB, loop points in seconds). */
+function runtimeOptions(o: PlayOptions, rate: number): RalentiPlayOptions {
+  const { gain, loopStart, loopEnd, sourceId: _sourceId, ...rest } = o;
+  return {
+    ...rest,
+    ...(gain === undefined ? {} : { gainDb: 20 * Math.log10(gain) }),
+    ...(loopStart === undefined ? {} : { loopStartSeconds: loopStart / rate }),
+    ...(loopEnd === undefined ? {} : { loopEndSeconds: loopEnd / rate }),
+  };
 }
 
 /** Renders with the processor from `workletUrl`, or from the inlined entry's Blob URL when it is null. */
@@ -32,12 +46,22 @@ async function renderScene(scene: WireScene, workletUrl: string | null): Promise
   const sounds = scene.sounds.map((s) => r.load({ channels: s.channels.map((c) => Float32Array.from(c)), sampleRate: s.sampleRate }));
   const sources = Array.from({ length: scene.sources }, () => r.createSource());
   const voices = new Map<number, RalentiVoice>();
+  const events: string[] = [];
+  r.onVoiceEvent((e) => events.push(`${[...voices].find(([, v]) => v === e.voice)?.[0]} ${e.type}`));
   const apply = (actions: SceneAction[], frame: number) => {
     for (const a of actions) {
-      if (a.kind === 'play') voices.set(a.voice, r.play(sounds[a.sound], { ...a.options, source: a.source ? sources[a.source - 1] : undefined }));
-      else if (a.kind === 'stop') voices.get(a.voice)?.stop(a.fadeSeconds);
+      if (a.kind === 'play') voices.set(a.voice, r.play(sounds[a.sound], { ...runtimeOptions(a.options, scene.sounds[a.sound].sampleRate), source: a.source ? sources[a.source - 1] : undefined }));
+      else if (a.kind === 'stop') voices.get(a.voice)?.stop({ fade: a.fadeSeconds });
       else if (a.kind === 'set-ratio') voices.get(a.voice)?.setRatio(a.ratio);
       else if (a.kind === 'time-scale') r.setTimeScale(a.target, { ramp: a.ramp, easing: a.easing });
+      else if (a.kind === 'pause') r.pause(a.group);
+      else if (a.kind === 'resume') r.resume(a.group);
+      else if (a.kind === 'group') {
+        if (a.volumeDb !== undefined) r.setGroupVolume(a.group, a.volumeDb);
+        if (a.muted !== undefined) r.setGroupMute(a.group, a.muted);
+        if (a.solo !== undefined) r.setGroupSolo(a.group, a.solo);
+      } else if (a.kind === 'seek') voices.get(a.voice)?.seek(a.seconds);
+      else if (a.kind === 'spatial') sources[a.source - 1].setSpatial(a.spatial);
       else {
         r.setListener(a.listener);
         for (const s of a.sources) {
@@ -70,7 +94,7 @@ async function renderScene(scene: WireScene, workletUrl: string | null): Promise
   await r.flush();
   const kernel = String(r.stats.kernel);
   r.dispose();
-  return { left: Array.from(buffer.getChannelData(0)), right: Array.from(buffer.getChannelData(1)), errors, renderMs, kernel };
+  return { left: Array.from(buffer.getChannelData(0)), right: Array.from(buffer.getChannelData(1)), errors, renderMs, kernel, events };
 }
 
 /** Sends a malformed command straight to the port mid-render; returns the reported errors, the last stats and the peak after it. */

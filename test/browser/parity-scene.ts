@@ -1,6 +1,6 @@
 // The scene both hosts render for the parity suite: invented content generated in code, and a list of
 // steps at render-quantum-aligned frames, expressed as main-thread runtime calls.
-import type { Easing, PlayOptions, Vec3Like } from '../../src/index';
+import type { Easing, PlayOptions, SourceSpatial, Vec3Like } from '../../src/index';
 
 /** Output sample rate of the parity renders, Hz. */
 export const PARITY_RATE = 48000;
@@ -13,7 +13,13 @@ export type SceneAction =
   | { kind: 'stop'; voice: number; fadeSeconds?: number }
   | { kind: 'set-ratio'; voice: number; ratio: number }
   | { kind: 'time-scale'; target: number; ramp: number; easing: Easing }
-  | { kind: 'snapshot'; listener: { position: Vec3Like; forward: Vec3Like; up: Vec3Like }; sources: { id: number; position: Vec3Like; velocity?: Vec3Like }[] };
+  | { kind: 'snapshot'; listener: { position: Vec3Like; forward: Vec3Like; up: Vec3Like }; sources: { id: number; position: Vec3Like; velocity?: Vec3Like }[] }
+  | { kind: 'pause'; group?: string }
+  | { kind: 'resume'; group?: string }
+  | { kind: 'group'; group: string; volumeDb?: number; muted?: boolean; solo?: boolean }
+  | { kind: 'seek'; voice: number; seconds: number }
+  /** A source's own distance model and cone: the runtime sends it with the next snapshot. */
+  | { kind: 'spatial'; source: number; spatial: SourceSpatial };
 
 /** Actions applied when the renders reach `frame` (a multiple of QUANTUM). */
 export interface SceneStep {

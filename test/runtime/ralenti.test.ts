@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { Ralenti, RalentiOptionError, TuningError, defaultTuning } from '../../runtime/index';
+import { Ralenti, RalentiOptionError, TuningError, defaultTuning, type RalentiPlayOptions } from '../../runtime/index';
 import { decodeSnapshot } from '../../runtime/protocol';
 import { FakeWorkletNode, fakeContext } from './fake-worklet-node';
 
@@ -28,14 +28,16 @@ describe('Ralenti main-thread API', () => {
   });
 
   it.each([
-    [{ gain: 17 }, 'play.gain'],
-    [{ gain: NaN }, 'play.gain'],
+    [{ gainDb: 25 }, 'play.gainDb'],
+    [{ gainDb: NaN }, 'play.gainDb'],
+    [{ pitchRange: [100, -100] }, 'play.pitchRange[1]'],
+    [{ gainRange: [-70, 0] }, 'play.gainRange[0]'],
     [{ ratio: 0 }, 'play.ratio'],
     [{ ratio: 5 }, 'play.ratio'],
     [{ group: 'weather' }, 'play.group'],
     [{ offsetSeconds: 1 }, 'play.offsetSeconds'],
-    [{ loopStart: 100, loopEnd: 50 }, 'play.loopEnd'],
-  ])('refuses play options %j with a RalentiOptionError naming %s and sends nothing', (options, field) => {
+    [{ loopStartSeconds: 0.002, loopEndSeconds: 0.001 }, 'play.loopEndSeconds'],
+  ] as [RalentiPlayOptions, string][])('refuses play options %j with a RalentiOptionError naming %s and sends nothing', (options, field) => {
     const { node, r } = setup();
     const s = r.load(tone());
     node.sent = [];
@@ -59,11 +61,12 @@ describe('Ralenti main-thread API', () => {
     expect(a.id).not.toBe(b.id);
     const plays = node.commands('play');
     expect(plays[0].options).toEqual({ group: 'vehicles', loop: true, sourceId: src.id });
-    a.setGain(0.5);
+    a.setGain(-20);
     a.setRatio(1.5);
-    a.stop(0.2);
+    a.stop({ fade: 0.2 });
+    expect(a.state).toBe('stopping');
     expect(node.commands('set-voice')).toEqual([
-      { type: 'set-voice', voice: a.id, gain: 0.5 },
+      { type: 'set-voice', voice: a.id, gain: Math.pow(10, -20 / 20) },
       { type: 'set-voice', voice: a.id, ratio: 1.5 },
     ]);
     expect(node.commands('stop')).toEqual([{ type: 'stop', voice: a.id, fadeSeconds: 0.2 }]);

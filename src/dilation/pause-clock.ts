@@ -1,0 +1,39 @@
+// The game clock of the time flow under pause: engine (or context) time minus the time spent paused, so that a
+// time-scale transition holds while the world is paused and continues where it was on resume.
+import type { Seconds } from '../units';
+
+/** Maps host time to time-flow time, stopping while paused; a pure function of the pause/resume calls. */
+export class PauseClock {
+  private pausedAt: Seconds = 0;
+  private offset: Seconds = 0;
+  private paused = false;
+
+  /** True while paused. */
+  get isPaused(): boolean {
+    return this.paused;
+  }
+
+  /** Stops the clock at host time `now` (s); a second pause is ignored. */
+  pause(now: Seconds): void {
+    if (this.paused || !Number.isFinite(now)) return;
+    this.paused = true;
+    this.pausedAt = now;
+  }
+
+  /** Restarts the clock at host time `now` (s) from where it stopped; ignored when not paused. */
+  resume(now: Seconds): void {
+    if (!this.paused) return;
+    this.paused = false;
+    if (Number.isFinite(now) && now > this.pausedAt) this.offset += now - this.pausedAt;
+  }
+
+  /** Time-flow time at host time `t` (s): t minus the paused time, held at the pause instant while paused. */
+  flowTime(t: Seconds): Seconds {
+    return (this.paused && t > this.pausedAt ? this.pausedAt : t) - this.offset;
+  }
+
+  /** Host time `t` (s) of a request → time-flow time: a request made while paused starts when the clock runs again. */
+  requestTime(t: Seconds, now: Seconds): Seconds {
+    return this.paused && t >= now ? this.flowTime(now) + (t - now) : this.flowTime(t);
+  }
+}
