@@ -99,6 +99,28 @@ describe('import direction', () => {
     expect(wrong).toEqual([]);
   });
 
+  it('reaches a folder of src/ from outside it only through its index.ts (DEVELOPERS.md), so no folder cycle hides', () => {
+    const srcRoot = resolve(root, 'src');
+    const wrong: string[] = [];
+    let checked = 0;
+    for (const layer of layers) {
+      for (const file of walk(join(root, layer))) {
+        if (resolve(file) === join(srcRoot, 'index.ts')) continue; // the package barrel re-exports the folders' type files
+        const rel = relative(srcRoot, file).split(/[\\/]/);
+        const ownFolder = rel[0] !== '..' && rel.length > 1 ? rel[0] : null;
+        for (const spec of importsOf(readFileSync(file, 'utf8'))) {
+          if (!spec.startsWith('.')) continue;
+          const target = relative(srcRoot, resolve(dirname(file), spec).replace(/\.(ts|js)$/, '')).split(/[\\/]/);
+          if (target[0] === '..' || target[0] === ownFolder) continue;
+          checked++;
+          if (target.length > 2 || (target.length === 2 && target[1] !== 'index')) wrong.push(`${relative(root, file)} → ${spec}`);
+        }
+      }
+    }
+    expect(checked).toBeGreaterThan(20);
+    expect(wrong).toEqual([]);
+  });
+
   it('tells a type-only import from a value import', () => {
     expect(importsWithKind("import type { A } from '../../src/engine';\nimport { b } from '../../src/motion';").map((i) => i.typeOnly)).toEqual([true, false]);
     expect(importsWithKind("export type { A } from '../src/dilation';\nimport { type A, type B } from '../src/engine';").map((i) => i.typeOnly)).toEqual([true, true]);

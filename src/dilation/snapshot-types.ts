@@ -1,5 +1,6 @@
 // What the game sends each frame, and what the mapping returns per voice.
 import type { Hz, MetersPerSecond, Meters, Seconds, Vec3Like } from '../units';
+import type { Easing } from '../tuning';
 
 /** Listener state in one snapshot. velocity is optional: estimated from positions when absent. */
 export interface ListenerState {
@@ -55,4 +56,13 @@ export interface VoiceTargets {
    * its read speed; equal to `ratio` for other policies.
    */
   pitch?: number;
+}
+
+/** A time-scale transition request: ramp from the current value to target. */
+export interface TimeScaleRequest {
+  target: number;
+  rampSeconds: Seconds;
+  easing: Easing;
+  /** Engine time the ramp starts at (default: now). */
+  startTime?: Seconds;
 }

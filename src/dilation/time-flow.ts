@@ -2,7 +2,7 @@
 // (3u² − 2u³, common practice) or exponentially (equal ratio per unit time); a pure function of time.
 import type { Easing } from '../tuning';
 import type { Seconds } from '../units';
-import type { TimeScaleRequest } from '../engine/engine-types';
+import type { TimeScaleRequest } from './snapshot-types';
 import { MAX_TIME_SCALE } from '../tuning';
 
 /** Lowest value used for the exponential easing's geometric interpolation (values below ramp linearly to 0). */

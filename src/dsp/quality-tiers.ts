@@ -1,5 +1,5 @@
 // Resampler quality tiers: each names a Kaiser-windowed sinc design; the measured figures are in docs/benchmarks.md.
-import type { QualityTierName } from '../tuning/tuning-types';
+import type { QualityTierName } from '../tuning';
 
 export type { QualityTierName };
 

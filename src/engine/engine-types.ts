@@ -1,7 +1,7 @@
 // The engine's public contract, shared by its two hosts (AudioWorklet and the Node offline renderer).
 import type { Cents, Decibels, Hz, Seconds } from '../units';
-import type { Easing, QualityTierName, Tuning } from '../tuning/tuning-types';
-import type { ListenerState, SourceState } from '../dilation/snapshot-types';
+import type { QualityTierName, Tuning } from '../tuning';
+import type { ListenerState, SourceState, TimeScaleRequest } from '../dilation';
 import type { KernelName, KernelPreference, KernelTable } from '../dsp';
 
 /** Engine construction options; capacities are fixed here for the engine's lifetime. */
@@ -124,15 +124,6 @@ export interface VoiceMonitor {
   cutoffHz: Hz;
   gainDb: Decibels;
   virtual: boolean;
-}
-
-/** A time-scale transition request: ramp from the current value to target. */
-export interface TimeScaleRequest {
-  target: number;
-  rampSeconds: Seconds;
-  easing: Easing;
-  /** Engine time the ramp starts at (default: now). */
-  startTime?: Seconds;
 }
 
 /** A gameplay snapshot as pushed to the engine: timeScale, when present, sets the time flow at once. */

@@ -1,8 +1,8 @@
 // The voice engine: a fixed pool of voices over decoded sounds, rendered block by block (control rate = block),
 // mixed to a stereo master bus with a safety limiter. One engine, two hosts (AudioWorklet and Node).
 import type { Hz, Seconds } from '../units';
-import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, ShockwaveEvent, TimeScaleRequest, VoiceMonitor } from './engine-types';
-import type { SourceState } from '../dilation';
+import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, ShockwaveEvent, VoiceMonitor } from './engine-types';
+import type { SourceState, TimeScaleRequest } from '../dilation';
 import type { Vec3Like } from '../units';
 import { AirAbsorption, speedOfSound } from '../motion';
 import { PropagationStage } from './propagation-stage';
