@@ -118,15 +118,21 @@ export class ExpectedVoice {
         const e = this.solver.emissionAt(t, this.L, this.vL);
         if (!Number.isFinite(e.tau)) return { hz: NaN, silentWhy: 'supersonic' };
         emitAt = e.tau;
-        dopplerCents = e.ratio > 0 ? cents(e.ratio) : -Infinity;
+        // The tuning's pitch curve acts at the listener and multiplies the propagation ratio on the game clock,
+        // dG(τ)/dG(t) = dτ/dt · s(τ)/s(t) (docs/physics.md, "Decision"): equal to dτ/dt at a steady time scale, and
+        // to the emission-time physics for the identity curve. A stopped clock at the listener holds sound in flight.
+        const sHere = this.clock.valueAt(t);
+        if (!(sHere > 0)) return { hz: NaN, silentWhy: 'frozen' };
+        const gameRatio = (e.ratio * this.clock.valueAt(e.tau)) / sHere;
+        dopplerCents = gameRatio > 0 ? cents(gameRatio) : -Infinity;
       } else {
-        dopplerCents = this.instantCents(t);
+        // maxShiftCents belongs to the same-instant formula only: propagation has no clamp but the ratio range's.
+        dopplerCents = Math.max(-this.maxShift, Math.min(this.maxShift, this.instantCents(t)));
       }
-      dopplerCents = Math.max(-this.maxShift, Math.min(this.maxShift, dopplerCents));
     }
     if (emitAt < this.voice.start) return { hz: NaN, silentWhy: 'not-started' };
     if (this.voice.stop !== null && emitAt > this.voice.stop) return { hz: NaN, silentWhy: 'ended' };
-    const s = this.clock.valueAt(emitAt);
+    const s = this.clock.valueAt(t);
     const speed = this.followsTime ? this.pitch.valueAt(s) : 1;
     const total = speed > 0 ? cents(speed) + dopplerCents : -Infinity;
     if (!(total >= cents(EXPECTED_RATIO_RANGE.min))) return { hz: NaN, silentWhy: 'frozen' };
