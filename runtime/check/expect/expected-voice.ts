@@ -75,13 +75,21 @@ export class ExpectedVoice {
   private readonly S: Vec = { x: 0, y: 0, z: 0 };
   private readonly vS: Vec = { x: 0, y: 0, z: 0 };
 
-  /** `fundamentalHz`: the sound's fundamental at ratio 1 (Hz, > 0). */
+  private readonly duration: number;
+  private endTime = NaN;
+
+  /**
+   * `fundamentalHz`: the sound's fundamental at ratio 1 (Hz, > 0); `soundSeconds`: the sound's length at ratio 1 (s),
+   * which ends a voice that does not loop once its playhead has read it all (null: never ends by itself).
+   */
   constructor(
     script: SceneScript,
     private readonly voice: VoiceSpec,
     tuning: Tuning,
-    fundamentalHz: number,
+    private readonly fundamentalHz: number,
+    private readonly soundSeconds: number | null = null,
   ) {
+    this.duration = script.duration;
     const group = tuning.groups[voice.group ?? DEFAULT_GROUP] ?? tuning.groups[DEFAULT_GROUP];
     this.pitch = new CheckCurve(group.pitch);
     this.level = new CheckCurve(group.level);
@@ -110,6 +118,33 @@ export class ExpectedVoice {
 
   /** Expected heard frequency at scene time t (s). */
   at(t: number): ExpectedSample {
+    if (!this.voice.loop && this.soundSeconds !== null && t > this.end()) return { hz: NaN, silentWhy: 'ended' };
+    return this.playing(t);
+  }
+
+  /**
+   * Reception time (s) at which a voice that does not loop has read its whole sound: the playhead advances by the
+   * heard over emitted-at-ratio-1 frequency, integrated on a 1 ms grid from the voice's start (Infinity: never).
+   */
+  private end(): number {
+    if (!Number.isNaN(this.endTime)) return this.endTime;
+    const left = Math.max(0, (this.soundSeconds ?? Infinity) - this.voice.offsetSeconds);
+    const dt = 0.001;
+    let read = 0;
+    this.endTime = Infinity;
+    for (let t = Math.max(0, this.voice.start); t <= this.duration + dt; t += dt) {
+      const hz = this.playing(t).hz;
+      if (hz > 0) read += (hz / this.fundamentalHz) * dt;
+      if (read >= left) {
+        this.endTime = t;
+        break;
+      }
+    }
+    return this.endTime;
+  }
+
+  /** Expected heard frequency at scene time t (s) of a voice still playing its sound. */
+  private playing(t: number): ExpectedSample {
     let emitAt = t;
     let dopplerCents = 0;
     if (this.source !== null && this.model !== 'off') {
