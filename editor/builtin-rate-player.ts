@@ -33,11 +33,13 @@ export class BuiltinRatePlayer {
   private readonly context: BaseAudioContext;
   private readonly output: AudioNode;
   private readonly sources: readonly ComparisonSource[];
+  private readonly tap: AudioNode | null;
   private chains: Chain[] = [];
 
-  /** Sets up the player; nothing plays until start(). */
-  constructor(options: { context: BaseAudioContext; output: AudioNode; sources: readonly ComparisonSource[] }) {
+  /** Sets up the player (`tap` also receives the copies, for metering); nothing plays until start(). */
+  constructor(options: { context: BaseAudioContext; output: AudioNode; sources: readonly ComparisonSource[]; tap?: AudioNode }) {
     this.context = options.context;
+    this.tap = options.tap ?? null;
     this.output = options.output;
     this.sources = options.sources;
   }
@@ -63,6 +65,7 @@ export class BuiltinRatePlayer {
       gain.gain.value = 0;
       const panner = this.context.createStereoPanner();
       node.connect(filter).connect(gain).connect(panner).connect(this.output);
+      if (this.tap) panner.connect(this.tap);
       node.start(now);
       return { source, node, filter, gain, panner };
     });

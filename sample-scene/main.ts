@@ -2,7 +2,7 @@
 import * as THREE from 'three';
 import { serializeTuning, type RalentiSource } from '../runtime';
 import type { Vec3Like } from '../src/units';
-import { EditorPanel } from '../editor';
+import { dropSound, mountEditor, type DecodedAudioFile, type MountedEditor } from '../editor';
 import { dronePosition, GENERATOR_POSITION, kartHeading, kartPosition, orbPosition } from './actor-paths';
 import { FlyCamera, isTyping } from './fly-camera';
 import { FlyThrough } from './fly-through';
@@ -11,9 +11,9 @@ import { startSceneAudio, type SceneAudio } from './scene-audio';
 import { installSceneHandle, type SceneState } from './scene-handle';
 import { showStartOverlay } from './start-overlay';
 import { createTestRange } from './test-range';
+import { labelAt, layoutLabels } from './label-layout';
 
 const rangeHost = document.getElementById('range') as HTMLElement;
-const panelHost = document.getElementById('panel') as HTMLElement;
 const hud = document.getElementById('hud') as HTMLElement;
 const range = createTestRange(rangeHost);
 const fly = new FlyCamera({ camera: range.camera, element: range.renderer.domElement });
@@ -21,7 +21,7 @@ fly.lookAt(-4, 0, -26);
 fly.setEnabled(false);
 showHelp(document.getElementById('help') as HTMLElement);
 
-let panel: EditorPanel | null = null;
+let editor: MountedEditor | null = null;
 let flyThrough: FlyThrough | null = null;
 const state: SceneState = {
   audio: null,
@@ -29,8 +29,9 @@ const state: SceneState = {
   slowMotion: false,
   gameTime: 0,
   tuningJson: () => (state.audio ? serializeTuning(state.audio.ralenti.tuning) : null),
-  lastLoadProblems: () => (panel ? [...panel.lastProblems] : []),
-  playbackPath: () => panel?.path.mode ?? 'engine',
+  lastLoadProblems: () => (editor ? [...editor.panel.lastProblems] : []),
+  playbackPath: () => editor?.panel.path.mode ?? 'engine',
+  editor: () => editor?.panel ?? null,
   flyThrough: () => (flyThrough ? { ...flyThrough.summary, listener: { x: range.camera.position.x, y: range.camera.position.y, z: range.camera.position.z } } : null),
 };
 installSceneHandle(state);
@@ -39,6 +40,8 @@ function resize(): void {
   range.resize(rangeHost.clientWidth, rangeHost.clientHeight);
 }
 window.addEventListener('resize', resize);
+// The range leaves room for the editor's dock (--rl-dock-width), which the designer can resize or fold.
+new ResizeObserver(resize).observe(rangeHost);
 resize();
 
 // Slow motion: hold Space (ramp in with the tuning's ramp, release to leave), or T to toggle.
@@ -110,17 +113,19 @@ overlay.started.then(async (volumeDb) => {
       return orientationNow;
     },
   });
-  panel = new EditorPanel({
+  // The same entry a game uses: the scene only adds its master chain, comparison copies, recording and sound drops.
+  editor = mountEditor(audio.ralenti, {
+    id: 'panel',
     recording: flyThrough,
-    ralenti: audio.ralenti,
-    container: panelHost,
     master: audio.master,
     engineBus: audio.engineBus,
-    voices: audio.voices,
+    names: audio.names,
     comparison: audio.comparison,
-    storage: window.localStorage,
     restored: audio.restored,
     restoreProblems: audio.restoreProblems,
+    restoreAutosave: false,
+    replaceSound: (id, sound) => replaceAndLabel(audio, id, sound),
+    autoUpdate: false,
   });
   audio.ralenti.onError((e) => console.warn(`ralenti audio thread: ${e.message}`));
   state.audio = audio;
@@ -206,12 +211,44 @@ function frame(ms: number): void {
       nextClick = wall + 2;
       a.playClick();
     }
-    panel?.update();
+    editor?.panel.update();
     updateLabels(a);
   }
   updateHud(s);
   range.render();
+  layoutLabels(rangeHost, labelElements);
   requestAnimationFrame(frame);
+}
+
+const labelElements = [range.drone, range.kart, range.orb, range.generator, range.music, range.console].map((b) => b.label);
+const soundBodies = (['drone', 'kart', 'orb', 'generator', 'music'] as const).map((name) => ({ label: range[name].label, value: name }));
+
+// Drop an audio file on a source's label (or near it) to replace that source's sound for the rest of the session.
+rangeHost.addEventListener('dragover', (e) => {
+  if (state.audio && e.dataTransfer?.types.includes('Files')) e.preventDefault();
+});
+rangeHost.addEventListener('drop', (e) => {
+  const file = e.dataTransfer?.files?.[0];
+  const a = state.audio;
+  if (!file || !a || !editor) return;
+  e.preventDefault();
+  const name = labelAt(e.clientX, e.clientY, soundBodies);
+  if (!name) return editor.panel.notice.say(`${file.name}: drop it on a source's label to replace its sound.`, 'warn');
+  const id = a.names.voices.find((v) => a.voiceNames.get(v.voiceId) === name)?.voiceId ?? -1;
+  void dropOnSource(file, id);
+});
+
+async function dropOnSource(file: File, voiceId: number): Promise<void> {
+  const a = state.audio!;
+  await dropSound(file, voiceId, a.context, (id, sound) => replaceAndLabel(a, id, sound), editor!.panel.notice);
+}
+
+/** Replaces a voice's sound (dropped on its label or on its readout row) and names the file on the body's label. */
+function replaceAndLabel(a: SceneAudio, voiceId: number, sound: DecodedAudioFile): string {
+  const name = a.voiceNames.get(voiceId) as (typeof soundBodies)[number]['value'] | undefined;
+  const shown = a.replaceSound(voiceId, sound);
+  if (name) range[name].label.querySelector('i')!.textContent = `${a.dropped(name)} (dropped)`;
+  return shown;
 }
 
 let labelFrame = 0;
@@ -219,7 +256,7 @@ function updateLabels(a: SceneAudio): void {
   if (++labelFrame % 6 !== 0) return;
   const bodies = { drone: range.drone, kart: range.kart, orb: range.orb, generator: range.generator, music: range.music };
   for (const m of a.ralenti.voices) {
-    const name = a.names.get(m.voice) as keyof typeof bodies | undefined;
+    const name = a.voiceNames.get(m.voice) as keyof typeof bodies | undefined;
     const body = name ? bodies[name] : undefined;
     if (body) body.readout.textContent = `${m.ratioCents >= 0 ? '+' : ''}${m.ratioCents.toFixed(0)} ¢`;
   }

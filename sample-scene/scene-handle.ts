@@ -1,6 +1,6 @@
 // window.ralentiScene: a small read-only inspection handle for tests and curious visitors.
 import { centsToRatio, type EngineStats, type VoiceMonitor } from '../src';
-import type { TuningProblem } from '../editor';
+import type { EditorPanel, TuningProblem } from '../editor';
 import type { RenderLoad } from '../runtime';
 import type { SceneAudio } from './scene-audio';
 import type { FlyThroughSummary } from './fly-through';
@@ -27,6 +27,8 @@ export interface RalentiSceneHandle {
   readonly tuningJson: string | null;
   readonly lastLoadProblems: TuningProblem[];
   readonly playbackPath: 'engine' | 'builtin';
+  /** The editor's session: which tuning plays (A/B), unsaved edits, undo/redo, the last notice; null before audio. */
+  readonly editor: { side: 'A' | 'B'; dirty: boolean; canUndo: boolean; canRedo: boolean; notice: string; autosave: string; autosavePending: boolean; savedText: string } | null;
   /** Fly-through recording and replay state plus the camera position (m), or null before audio starts. */
   readonly flyThrough: (FlyThroughSummary & { listener: { x: number; y: number; z: number } }) | null;
 }
@@ -40,6 +42,7 @@ export interface SceneState {
   tuningJson: () => string | null;
   lastLoadProblems: () => TuningProblem[];
   playbackPath: () => 'engine' | 'builtin';
+  editor: () => EditorPanel | null;
   flyThrough: () => (FlyThroughSummary & { listener: { x: number; y: number; z: number } }) | null;
 }
 
@@ -71,7 +74,7 @@ export function installSceneHandle(state: SceneState): RalentiSceneHandle {
     get voices() {
       const a = state.audio;
       if (!a) return [];
-      return a.ralenti.voices.map((v) => ({ ...v, name: a.names.get(v.voice) ?? v.group, ratio: centsToRatio(v.ratioCents) }));
+      return a.ralenti.voices.map((v) => ({ ...v, name: a.voiceNames.get(v.voice) ?? v.group, ratio: centsToRatio(v.ratioCents) }));
     },
     get tuningJson() {
       return state.tuningJson();
@@ -81,6 +84,12 @@ export function installSceneHandle(state: SceneState): RalentiSceneHandle {
     },
     get playbackPath() {
       return state.playbackPath();
+    },
+    get editor() {
+      const p = state.editor();
+      if (!p) return null;
+      const s = p.session;
+      return { side: s.side, dirty: s.dirty, canUndo: s.history.canUndo, canRedo: s.history.canRedo, notice: p.notice.last, autosave: s.lastAutosave, autosavePending: s.autosavePending, savedText: s.saved };
     },
     get flyThrough() {
       return state.flyThrough();

@@ -22,7 +22,12 @@ export const distEntries = Object.freeze({
   'runtime-inline': 'runtime/inline.ts',
   three: 'runtime/three/index.ts',
   howler: 'runtime/howler/index.ts',
+  // The tuning editor for development builds (ralenti/editor): tweakpane stays the page's; @tweakpane/core is bundled.
+  editor: 'editor/index.ts',
 });
+
+/** Packages left to the user's bundler (every package but @tweakpane/core, as before the editor entry existed). */
+export const externalPackages = Object.freeze(['three', 'three/*', 'howler', 'tweakpane', 'fft.js', 'node:*']);
 
 /** Removes what an earlier build wrote (root files and types/), leaving other folders such as dist/cli/ alone. */
 function cleanOwnOutputs(outdir) {
@@ -109,8 +114,10 @@ export async function buildDist({ outdir = join(repo, 'dist'), declarations = tr
     format: 'esm',
     platform: 'neutral',
     target: 'es2022',
-    // three and howler stay the game's own copies.
-    packages: 'external',
+    // three, howler and tweakpane stay the game's own copies; @tweakpane/core (a build-time dependency of the
+    // editor's curve blade) is bundled, so that the editor needs nothing beyond tweakpane.
+    external: [...externalPackages],
+    mainFields: ['module', 'main'],
     sourcemap: 'linked',
     // Chunks beside the entries: defaultWorkletUrl() resolves './ralenti-processor.js' against its chunk's URL.
     chunkNames: '[name]-[hash]',
@@ -131,6 +138,7 @@ export async function buildDist({ outdir = join(repo, 'dist'), declarations = tr
     'Ralenti build output (npm run build).',
     'index.js: core; analysis.js: pitch tracking and spectrum (needs fft.js); runtime.js: createRalenti (worklet URL: ralenti-processor.js beside this file, or options.workletUrl);',
     'runtime-inline.js: the same with the worklet embedded as a Blob URL; three.js, howler.js: adapters;',
+    'editor.js: the tuning editor (mountEditor) for development builds; needs tweakpane;',
     'types/: declarations mirroring the source tree.',
     '',
   ].join('\n'));

@@ -137,3 +137,9 @@ export function fromUnitY(u: number, range: CurveRange): number {
   }
   return range.yMin + u * (range.yMax - range.yMin);
 }
+
+/** How many times tighter the axis draws values beyond its knee than below it (1 = no knee: a linear axis). */
+export function kneeCompression(min: number, max: number, knee: number | undefined, share: number): number {
+  if (knee === undefined || !(knee > min && knee < max)) return 1;
+  return (share / (knee - min)) / ((1 - share) / (max - knee));
+}

@@ -9,6 +9,8 @@ export const curveBladeCss = `
 .tp-rlcurvev_gl { stroke: var(--grv-fg, rgba(255,255,255,0.1)); stroke-width: 1; opacity: 0.45; }
 .tp-rlcurvev_gl-one { opacity: 0.9; stroke-dasharray: 3 3; }
 .tp-rlcurvev_tx { fill: var(--lbl-fg); font-size: 9px; opacity: 0.7; font-family: var(--bs-ff, sans-serif); }
+.tp-rlcurvev_knee { fill: rgba(255, 224, 138, 0.06); }
+.tp-rlcurvev_kneetx { fill: #ffe08a; opacity: 0.8; }
 .tp-rlcurvev_path { fill: none; stroke: #f5b84c; stroke-width: 2; }
 .tp-rlcurvev_key { fill: var(--in-bg); stroke: #f5b84c; stroke-width: 1.5; cursor: grab; }
 .tp-rlcurvev_key-sel { fill: #f5b84c; stroke: #fff; }

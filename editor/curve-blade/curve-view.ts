@@ -1,7 +1,7 @@
 // The curve blade's view: an SVG graph (grid, curve, keys, live marker) and a row of fields for the selected key.
 import { ClassName, SVG_NS, type ViewProps, type View } from '@tweakpane/core';
 import type { CurveSpec } from '../../src';
-import { curveInterpolations, fromUnitX, fromUnitY, toUnitX, toUnitY, type CurveRange } from './curve-model';
+import { curveInterpolations, fromUnitX, fromUnitY, kneeCompression, toUnitX, toUnitY, type CurveRange } from './curve-model';
 
 const cn = ClassName('rlcurve');
 
@@ -87,8 +87,9 @@ export class CurveView implements View {
       opt.textContent = mode === 'monotone' ? 'smooth (monotone)' : 'straight';
       this.interpolationElement.appendChild(opt);
     }
-    this.xInput = this.field('time scale of the selected key');
-    this.yInput = this.field(`value of the selected key${this.unit ? ` (${this.unit})` : ''}`);
+    const r = this.range;
+    this.xInput = this.field(`time scale of the selected key (${r.xMin}…${r.xMax})`);
+    this.yInput = this.field(`value of the selected key (${this.unit ? `${this.unit}, ` : ''}${r.yMin}…${r.yMax})`);
     this.addButton = this.button('+', 'add a key after the selected one');
     this.removeButton = this.button('−', 'remove the selected key');
     row.append(this.interpolationElement, this.labelled('s', this.xInput), this.labelled(this.unit || 'y', this.yInput), this.addButton, this.removeButton);
@@ -164,6 +165,7 @@ export class CurveView implements View {
 
   private drawGrid(): void {
     this.gridGroup.replaceChildren();
+    this.drawKnees();
     const r = this.range;
     const xTicks =
       r.xKnee !== undefined
@@ -187,6 +189,29 @@ export class CurveView implements View {
       this.gridGroup.appendChild(this.svg('line', { class: cn('gl'), x1: PAD.left, x2: this.width - PAD.right, y1: p.py, y2: p.py }));
       const t = this.svg('text', { class: cn('tx'), x: PAD.left - 8, y: p.py + 3, 'text-anchor': 'end' });
       t.textContent = y >= 1000 ? `${y / 1000}k` : formatNumber(y);
+      this.gridGroup.appendChild(t);
+    }
+  }
+
+  /** Shades the part of each axis beyond its knee and labels how much tighter it is drawn (a straight line bends there). */
+  private drawKnees(): void {
+    const r = this.range;
+    const fx = kneeCompression(r.xMin, r.xMax, r.xKnee, 0.75);
+    if (fx > 1 && r.xKnee !== undefined) {
+      const a = this.valueToPoint(r.xKnee, r.yMax);
+      const b = this.valueToPoint(r.xMax, r.yMin);
+      this.gridGroup.appendChild(this.svg('rect', { class: cn('knee'), x: a.px, y: PAD.top, width: b.px - a.px, height: GRAPH_HEIGHT - PAD.top - PAD.bottom }));
+      const t = this.svg('text', { class: `${cn('tx')} ${cn('kneetx')}`, x: (a.px + b.px) / 2, y: PAD.top + 9, 'text-anchor': 'middle', 'data-knee': 'x' });
+      t.textContent = `x ${formatNumber(Math.round(fx * 10) / 10)}× tighter`;
+      this.gridGroup.appendChild(t);
+    }
+    const fy = r.yScale === 'log' ? 1 : kneeCompression(r.yMin, r.yMax, r.yKnee, 0.6);
+    if (fy > 1 && r.yKnee !== undefined) {
+      const a = this.valueToPoint(r.xMin, r.yMax);
+      const b = this.valueToPoint(r.xMin, r.yKnee);
+      this.gridGroup.appendChild(this.svg('rect', { class: cn('knee'), x: PAD.left, y: a.py, width: this.width - PAD.left - PAD.right, height: b.py - a.py }));
+      const t = this.svg('text', { class: `${cn('tx')} ${cn('kneetx')}`, x: PAD.left + 4, y: b.py - 3, 'text-anchor': 'start', 'data-knee': 'y' });
+      t.textContent = `y above ${formatNumber(r.yKnee)}: ${formatNumber(Math.round(fy * 10) / 10)}× tighter`;
       this.gridGroup.appendChild(t);
     }
   }

@@ -67,18 +67,23 @@ export class RecordingSection {
     }
     this.folder = pane.addFolder({ title: 'Fly-through recording' });
     this.record = this.folder.addButton({ title: 'Start recording' });
+    this.record.element.title = 'Record the camera and source paths with the time scale, as a scene script the checker and renderer read.';
     this.record.on('click', () => controls.toggleRecording());
     this.status = doc.createElement('div');
     this.status.className = 'rl-rec-status';
     this.status.setAttribute('role', 'status');
     this.folder.addBlade({ view: 'ralenti-element', element: this.status });
     this.download = this.folder.addButton({ title: 'Download scene script (.json)' });
+    this.download.element.title = 'Download the last recording as a scene script (JSON).';
     this.download.on('click', () => controls.download());
     this.downloadAudio = controls.downloadAudio ? this.folder.addButton({ title: 'Download recorded audio (.wav)' }) : null;
     this.downloadAudio?.on('click', () => controls.downloadAudio?.());
     this.input = createJsonFileInput(doc, 'ralenti-scene-file', (text, name) => controls.loadText(text, name));
-    this.folder.addButton({ title: 'Load scene script…' }).on('click', () => this.input.click());
+    const load = this.folder.addButton({ title: 'Load scene script…' });
+    load.element.title = 'Load a recorded scene script (JSON) to replay it.';
+    load.on('click', () => this.input.click());
     this.replay = this.folder.addButton({ title: 'Replay' });
+    this.replay.element.title = 'Replay the recorded or loaded script in the scene (the camera follows it).';
     this.replay.on('click', () => controls.toggleReplay());
     this.update();
   }

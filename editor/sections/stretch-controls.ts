@@ -1,31 +1,39 @@
 // Controls of the 'stretch' group policy on a group's page: what time scale 0 does and the pitch curve in cents
-// (the speed curve is the group's pitch curve, shown above them).
-import type { FolderApi, TabPageApi } from 'tweakpane';
+// (the speed curve is the group's pitch curve, shown above them). Ranges and tooltips from field-specs.ts.
+import type { BladeApi, FolderApi, TabPageApi } from 'tweakpane';
 import type { CurveSpec, GroupTuning } from '../../src';
 import type { CurveBladeApi } from '../curve-blade';
+import { curveFieldSpecs, groupChoiceSpecs, tooltipOf } from '../field-specs';
+import { addChoiceField } from '../controls/number-field';
 import type { TunableContext } from './tunable-sections';
 
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };
 
-/** Adds the freeze mode and the stretchPitch curve (time scale → cents, ±1200 shown) to a group's page. */
-export function addStretchControls(page: TabPageApi | FolderApi, ctx: TunableContext, name: string, group: GroupTuning): void {
+/** Adds the freeze mode and the stretchPitch curve (time scale → cents) to a group's page; returns the blades added. */
+export function addStretchControls(page: TabPageApi | FolderApi, ctx: TunableContext, name: string, group: GroupTuning): BladeApi[] {
   const g = group as Mutable<GroupTuning>;
-  page.addBinding(g, 'stretchFreeze', { label: 'stretch at 0', options: { 'fade to silence': 'silence', 'hold the sound': 'hold' } }).on('change', (e) => ctx.changed(e.last));
+  const freeze = addChoiceField(page, g as unknown as Record<string, unknown>, 'stretchFreeze', groupChoiceSpecs.stretchFreeze, (last) => ctx.changed(last), {
+    'fade to silence': 'silence',
+    'hold the sound': 'hold',
+  });
+  const spec = curveFieldSpecs.stretchPitch;
   const blade = page.addBlade({
     view: 'curve',
     value: g.stretchPitch,
     xMin: 0,
     xMax: 4,
     xKnee: 1,
-    title: `${name} · stretch pitch`,
-    unit: '¢',
-    yMin: -1200,
-    yMax: 1200,
+    title: `${name} · ${spec.label}`,
+    unit: spec.unit,
+    yMin: spec.limit.min,
+    yMax: spec.limit.max,
   }) as unknown as CurveBladeApi;
-  blade.element.dataset.curve = `${name} · stretch pitch`;
+  blade.element.dataset.curve = `${name} · ${spec.label}`;
+  blade.element.title = `${tooltipOf(spec)} x: time scale 0…4.`;
   blade.on('change', (ev) => {
     g.stretchPitch = ev.value as CurveSpec;
     ctx.changed(ev.last);
   });
   ctx.curves.push(blade);
+  return [freeze, blade as unknown as BladeApi];
 }

@@ -1,108 +1,97 @@
-// Panel sections that edit the tuning: time flow, sound groups, Doppler and air, listening.
-import type { FolderApi, Pane, TabPageApi } from 'tweakpane';
+// Panel sections that edit the tuning's scalar fields: time flow, Doppler & air, distance & smoothing, listening.
+// Every field's range, step and tooltip come from field-specs.ts (the format's limits table).
+import type { FolderApi, Pane } from 'tweakpane';
 import { speedOfSound } from '../../src/motion';
-import type { CurveSpec, GroupTuning } from '../../src';
-import { addStretchControls } from './stretch-controls';
-import type { CurveBladeApi, CurveBladeParams } from '../curve-blade';
+import type { CurveBladeApi } from '../curve-blade';
 import type { MutableTuning } from '../tuning-store';
 import { LISTENING_FLOOR_DB } from '../listening-level';
+import { fieldSpec, roundToStep } from '../field-specs';
+import type { Announcer } from '../controls/announcer';
+import { addChoiceField, addNumberField, type FieldParent } from '../controls/number-field';
 
 /** What the tunable sections need from the panel. */
 export interface TunableContext {
   draft: MutableTuning;
-  /** Called after every edit; the panel validates and applies the draft. */
+  /** Called after every edit; the panel validates and applies the draft (`last`: the gesture ended). */
   changed(last: boolean): void;
   /** Curve blades built, so that the panel can move their live markers. */
   curves: CurveBladeApi[];
+  /** Status line for clamps and refused text. */
+  notice: Announcer;
 }
 
-type Container = Pane | FolderApi | TabPageApi;
+type Fields = Record<string, unknown>;
 
-const timeAxis = Object.freeze({ xMin: 0, xMax: 4, xKnee: 1 });
-
-function addCurve(parent: Container, ctx: TunableContext, owner: { [k: string]: CurveSpec }, key: string, params: Partial<CurveBladeParams>): void {
-  const blade = parent.addBlade({ view: 'curve', value: owner[key], ...timeAxis, ...params }) as unknown as CurveBladeApi;
-  blade.element.dataset.curve = params.title ?? key;
-  blade.on('change', (ev) => {
-    owner[key] = ev.value as CurveSpec;
-    ctx.changed(ev.last);
-  });
-  ctx.curves.push(blade);
+/** Adds the field at `path` ('section.key') of the draft, number or choice, with the labels of `options` for enums. */
+export function addField(parent: FieldParent, ctx: TunableContext, path: string, options?: Record<string, string>) {
+  const [section, key] = path.split('.');
+  const target = (ctx.draft as unknown as Record<string, Fields>)[section];
+  const spec = fieldSpec(path);
+  return spec.limit.kind === 'number'
+    ? addNumberField(parent, target, key, spec, ctx.notice, (last) => ctx.changed(last))
+    : addChoiceField(parent, target, key, spec, (last) => ctx.changed(last), options);
 }
 
-/** Time flow: slow-motion target, ramps and easing. */
+/** Time flow: live time scale, slow-motion target, ramps and easing. */
 export function addTimeFlowSection(pane: Pane, ctx: TunableContext, live: { timeScale: number }): FolderApi {
   const f = pane.addFolder({ title: 'Time flow' });
-  f.addBinding(live, 'timeScale', { label: 'time scale now', readonly: true, format: (v: number) => v.toFixed(3) });
-  f.addBinding(live, 'timeScale', { label: 'history', readonly: true, view: 'graph', min: 0, max: 1.1 });
-  const tf = ctx.draft.timeFlow;
-  f.addBinding(tf, 'slowMotionScale', { label: 'slow-mo target', min: 0, max: 1, step: 0.01 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(tf, 'rampInSeconds', { label: 'ramp in (s)', min: 0, max: 3, step: 0.01 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(tf, 'rampOutSeconds', { label: 'ramp out (s)', min: 0, max: 3, step: 0.01 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(tf, 'easing', { label: 'easing', options: { linear: 'linear', smooth: 'smooth', exponential: 'exponential' } }).on('change', (e) => ctx.changed(e.last));
+  const now = f.addBinding(live, 'timeScale', { label: 'time scale now', readonly: true, format: (v: number) => v.toFixed(3) });
+  now.element.title = 'The time scale the engine runs at now (0 = frozen, 1 = normal).';
+  f.addBinding(live, 'timeScale', { label: 'history', readonly: true, view: 'graph', min: 0, max: 1.1 }).element.title = 'Time scale over the last seconds (0…1.1).';
+  for (const p of ['timeFlow.slowMotionScale', 'timeFlow.rampInSeconds', 'timeFlow.rampOutSeconds', 'timeFlow.easing']) addField(f, ctx, p);
   return f;
 }
 
-/** Sound groups: one tab per group with policy, Doppler, priority and the three curves. */
-export function addGroupsSection(pane: Pane, ctx: TunableContext): FolderApi {
-  const f = pane.addFolder({ title: 'Sound groups' });
-  const names = Object.keys(ctx.draft.groups);
-  const tab = f.addTab({ pages: names.map((title) => ({ title })) });
-  names.forEach((name, i) => {
-    const page = tab.pages[i];
-    const g = ctx.draft.groups[name];
-    page.addBinding(g, 'policy', {
-      label: 'policy',
-      options: { 'follows time': 'follow-time', 'tone only': 'tone-only', exempt: 'exempt', 'stretch (keeps pitch)': 'stretch' },
-    }).on('change', (e) => ctx.changed(e.last));
-    page.addBinding(g, 'doppler', { label: 'Doppler' }).on('change', (e) => ctx.changed(e.last));
-    page.addBinding(g, 'motion', {
-      label: 'motion',
-      options: { 'sound travels': 'propagation', 'same instant': 'instant', off: 'off' },
-    }).on('change', (e) => ctx.changed(e.last));
-    page.addBinding(g, 'priority', { label: 'priority', min: 0, max: 255, step: 1 }).on('change', (e) => ctx.changed(e.last));
-    const curves = g as unknown as { [k: string]: CurveSpec };
-    addCurve(page, ctx, curves, 'pitch', { title: `${name} · speed & pitch ×`, unit: '×', yMin: 0, yMax: 4, yKnee: 1 });
-    addCurve(page, ctx, curves, 'tone', { title: `${name} · tone cutoff`, unit: 'Hz', yMin: 20, yMax: 20000, yScale: 'log' });
-    addCurve(page, ctx, curves, 'level', { title: `${name} · level`, unit: 'dB', yMin: -48, yMax: 12 });
-    addStretchControls(page, ctx, name, g as unknown as GroupTuning);
-    page.element.dataset.group = name;
-  });
-  return f;
-}
-
-/** Doppler and air: temperature (speed of sound shown), factor, maximum shift, smoothing, velocity clock. */
+/** Doppler and air: temperature, speed-of-sound override (and the speed in use), Doppler factor, shift, smoothing, velocity. */
 export function addDopplerSection(pane: Pane, ctx: TunableContext): FolderApi {
   const f = pane.addFolder({ title: 'Doppler & air', expanded: false });
   const air = ctx.draft.air;
-  const shown = { c: speedOfSound(air.temperatureCelsius) };
-  f.addBinding(air, 'temperatureCelsius', { label: 'air (°C)', min: -50, max: 60, step: 0.5 }).on('change', (e) => {
-    shown.c = speedOfSound(air.temperatureCelsius);
-    ctx.changed(e.last);
+  const inUse = () => air.speedOfSound ?? speedOfSound(air.temperatureCelsius);
+  const shown = { c: inUse(), override: air.speedOfSound !== null, value: air.speedOfSound ?? roundToStep(inUse(), 0.1) };
+  addField(f, ctx, 'air.temperatureCelsius');
+  addField(f, ctx, 'air.relativeHumidity');
+  addField(f, ctx, 'air.pressureKilopascals');
+  const overrideOn = f.addBinding(shown, 'override', { label: 'override sound' });
+  overrideOn.element.title = 'Use a fixed speed of sound instead of the one the temperature gives. Off clears the override (null).';
+  const speedSpec = fieldSpec('air.speedOfSound');
+  const speed = addNumberField(f, shown as unknown as Fields, 'value', speedSpec, ctx.notice, (last) => {
+    if (!shown.override) return;
+    air.speedOfSound = shown.value;
+    shown.c = inUse();
+    ctx.changed(last);
   });
-  f.addBinding(shown, 'c', { label: 'sound (m/s)', readonly: true, format: (v: number) => v.toFixed(1) });
-  f.addBinding(air, 'relativeHumidity', { label: 'humidity (%)', min: 0, max: 100, step: 1 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(air, 'pressureKilopascals', { label: 'pressure (kPa)', min: 50, max: 120, step: 0.1 }).on('change', (e) => ctx.changed(e.last));
-  const d = ctx.draft.doppler;
-  f.addBinding(d, 'factor', { label: 'Doppler factor', min: 0, max: 4, step: 0.05 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(d, 'maxShiftCents', { label: 'max shift (¢)', min: 0, max: 2400, step: 10 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(d, 'smoothingSeconds', { label: 'smoothing (s)', min: 0, max: 2, step: 0.01 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(d, 'velocityClock', { label: 'velocity clock', options: { 'wall clock': 'wall', 'game clock': 'game' } }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(d, 'velocitySmoothingSeconds', { label: 'velocity avg (s)', min: 0, max: 2, step: 0.01 }).on('change', (e) => ctx.changed(e.last));
-  const dist = ctx.draft.distance;
-  f.addBinding(dist, 'model', { label: 'distance law', options: { inverse: 'inverse', linear: 'linear', exponential: 'exponential' } }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(dist, 'refDistance', { label: 'ref distance (m)', min: 0.1, max: 50, step: 0.1 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(dist, 'rolloffFactor', { label: 'rolloff', min: 0, max: 4, step: 0.05 }).on('change', (e) => ctx.changed(e.last));
+  speed.disabled = !shown.override;
+  overrideOn.on('change', () => {
+    speed.disabled = !shown.override;
+    air.speedOfSound = shown.override ? shown.value : null;
+    shown.c = inUse();
+    ctx.changed(true);
+  });
+  const readout = f.addBinding(shown, 'c', { label: 'sound (m/s)', readonly: true, format: (v: number) => v.toFixed(1) });
+  readout.element.title = 'Speed of sound the engine uses: the override when set, else derived from the air temperature (m/s).';
+  f.on('change', () => (shown.c = inUse()));
+  for (const p of ['doppler.factor', 'doppler.maxShiftCents', 'doppler.smoothingSeconds']) addField(f, ctx, p);
+  addField(f, ctx, 'doppler.velocityClock', { 'wall clock': 'wall', 'game clock': 'game' });
+  for (const p of ['doppler.velocitySmoothingSeconds', 'doppler.teleportSpeed']) addField(f, ctx, p);
   return f;
 }
 
-/** Listening: master volume (a user setting, not tuning), the safety limiter and its ceiling. */
-export function addListeningSection(pane: Pane, ctx: TunableContext, volume: { db: number }, onVolume: () => void): FolderApi {
+/** Distance law and the per-voice glide times. */
+export function addDistanceSection(pane: Pane, ctx: TunableContext): FolderApi {
+  const f = pane.addFolder({ title: 'Distance & glides', expanded: false });
+  for (const p of ['distance.model', 'distance.refDistance', 'distance.maxDistance', 'distance.rolloffFactor', 'smoothing.ratioSeconds', 'smoothing.cutoffSeconds', 'smoothing.gainSeconds'])
+    addField(f, ctx, p);
+  return f;
+}
+
+/** Listening: master volume (a user setting, not tuning), the safety limiter, its ceiling and the engine gain. */
+export function addListeningSection(pane: Pane, ctx: TunableContext, volume: { db: number } | null, onVolume: () => void): FolderApi {
   const f = pane.addFolder({ title: 'Listening', expanded: false });
-  f.addBinding(volume, 'db', { label: 'volume (dB)', min: LISTENING_FLOOR_DB, max: 0, step: 1 }).on('change', onVolume);
-  const m = ctx.draft.master;
-  f.addBinding(m, 'limiter', { label: 'safety limiter' }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(m, 'ceilingDb', { label: 'ceiling (dBFS)', min: -24, max: 0, step: 0.5 }).on('change', (e) => ctx.changed(e.last));
-  f.addBinding(m, 'gainDb', { label: 'engine gain (dB)', min: -60, max: 12, step: 0.5 }).on('change', (e) => ctx.changed(e.last));
+  if (volume) {
+    const v = f.addBinding(volume, 'db', { label: 'volume (dB)', min: LISTENING_FLOOR_DB, max: 0, step: 1 });
+    v.element.title = `Listening volume of this page (not saved in the tuning). Range ${LISTENING_FLOOR_DB}…0 dB; ${LISTENING_FLOOR_DB} is silence.`;
+    v.on('change', onVolume);
+  }
+  for (const p of ['master.limiter', 'master.ceilingDb', 'master.gainDb']) addField(f, ctx, p);
   return f;
 }

@@ -57,7 +57,7 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
     const l = wav.layout;
     if (l.frames === 0) throw new CliError(`${input} holds no samples`, EXIT.input);
     if (l.channels > BAKE_MAX_CHANNELS) throw new CliError(`${input} has ${l.channels} channels; bake takes at most ${BAKE_MAX_CHANNELS}`, EXIT.input);
-    const source = { frames: l.frames, channels: l.channels, read: (from: number, frames: number, out: readonly Float32Array[]) => wav.read(from, frames, out) };
+    const source = { frames: l.frames, channels: l.channels, sampleRate: l.sampleRate, read: (from: number, frames: number, out: readonly Float32Array[]) => wav.read(from, frames, out) };
     let gain = gainFromOptions(gainDb, null);
     if (normalize) {
       // First pass: the peak of the output, so that the second pass can scale it exactly.

@@ -100,6 +100,8 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
       const ext = extname(report).toLowerCase();
       bytes = ext === '.png' ? await svgToPng(renderReportSvg(doc)) : new TextEncoder().encode(ext === '.svg' ? renderReportSvg(doc) : renderReportHtml(doc));
     } catch (e) {
+      // A PNG without the optional rasteriser installed is an output problem with a remedy, not a bug.
+      if (/needs the package @resvg\/resvg-wasm/.test((e as Error).message)) throw new CliError(`cannot write ${report}: ${(e as Error).message}`, EXIT.output);
       throw new CliError(`internal error while drawing the report: ${(e as Error).stack ?? String(e)}`, EXIT.internal);
     }
     const file = new SafeFileWriter(report, inputs);

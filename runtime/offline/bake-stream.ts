@@ -17,6 +17,8 @@ export interface BakeSource {
   channels: number;
   /** Decodes input frames [from, from + frames) into out[c][0…frames). */
   read(from: number, frames: number, out: readonly Float32Array[]): void;
+  /** The file's sample rate, Hz (8000…768000): the kernel is designed for it (docs/resampler-rates.md); absent: 48000. */
+  sampleRate?: number;
 }
 
 /** Replays a BakeSource at a constant playback ratio, one block of output at a time, with bounded memory. */
@@ -37,7 +39,7 @@ export class BakeStream {
 
   /** Prepares readers and buffers for `source` at playback ratio `ratio` (0 < ratio ≤ 4) with tier `tier`. */
   constructor(private readonly source: BakeSource, private readonly ratio: number, tier: QualityTierName) {
-    const table = KernelTable.forTier(tier);
+    const table = KernelTable.forTier(tier, source.sampleRate ?? 48000);
     this.totalFrames = Math.floor(source.frames / ratio);
     this.reach = Math.ceil(table.maxWindow(Math.max(1, ratio)) / 2) + 4;
     const cap = BAKE_WINDOW_FRAMES + Math.ceil(BAKE_BLOCK_FRAMES * ratio) + 2 * this.reach + 2;

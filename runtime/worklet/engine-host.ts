@@ -64,6 +64,9 @@ export class EngineHost {
   /** Exponentially weighted sums of the same (time constant LOAD_AVERAGE_SECONDS); their ratio is the load. */
   private busyAvgMs = 0;
   private audioAvgMs = 0;
+  /** Largest peakIn / peakOut of every render since the last stats report (the engine resets its own per call). */
+  private intervalPeakIn = 0;
+  private intervalPeakOut = 0;
   /** Longest single call (process or message) since the last stats report, ms. */
   private peakMs = 0;
   private readonly tables: TableInstaller;
@@ -218,6 +221,9 @@ export class EngineHost {
       this.faulted = true;
       this.fail('process', errorMessage(err));
     }
+    const st = this.engine.stats;
+    if (st.peakIn > this.intervalPeakIn) this.intervalPeakIn = st.peakIn;
+    if (st.peakOut > this.intervalPeakOut) this.intervalPeakOut = st.peakOut;
     this.framesSinceStats += frames;
     if (this.framesSinceStats >= this.statsIntervalFrames) {
       this.framesSinceStats = 0;
@@ -285,9 +291,14 @@ export class EngineHost {
         this.voiceOwners.delete(engineVoice);
         this.voices.delete(mainVoice);
       }
-      // The last shockwave's time goes out in context time, as every time the main thread sees.
+      // Peaks over the whole report interval (true peak of every sample since the last report), not the last block's;
+      // the last shockwave's time goes out in context time, as every time the main thread sees.
       const st = this.engine.stats;
-      const stats: EngineStats = { ...st, errors: st.errors + this.errors, lastShockwaveTime: this.timeOffset + st.lastShockwaveTime };
+      const stats: EngineStats = {
+        ...st, errors: st.errors + this.errors, lastShockwaveTime: this.timeOffset + st.lastShockwaveTime, peakIn: this.intervalPeakIn, peakOut: this.intervalPeakOut,
+      };
+      this.intervalPeakIn = 0;
+      this.intervalPeakOut = 0;
       this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad(), tables: this.tables.counters() });
     } catch (err) {
       this.fail('stats', errorMessage(err));

@@ -28,7 +28,7 @@ export class CompiledGroup {
   readonly tone: Curve;
   /** s → level in dB. */
   readonly level: Curve;
-  /** The same-instant Doppler ratio (motion 'instant') applies to positioned voices of this group. */
+  /** The same-instant Doppler ratio applies to positioned voices of this group: motion 'instant', and 'stretch' groups whose motion is not 'off' (the propagation path does not carry stretched voices). */
   readonly doppler: boolean;
   /** How positioned voices hear motion: 'off' also when the tuning's `doppler` is false. */
   readonly motion: MotionModel;
@@ -78,9 +78,9 @@ export class CompiledGroup {
     this.tone = new Curve(group.tone);
     this.level = new Curve(group.level);
     this.motion = group.doppler ? (group.motion ?? 'propagation') : 'off';
-    this.doppler = this.motion === 'instant';
     this.priority = group.priority;
     this.stretches = group.policy === 'stretch';
+    this.doppler = this.motion === 'instant' || (this.stretches && this.motion !== 'off');
     this.stretchPitch = new Curve(group.stretchPitch ?? { interpolation: 'linear', keys: [{ x: 0, y: 0 }] });
     this.holdsWhenFrozen = this.stretches && group.stretchFreeze === 'hold';
   }

@@ -140,10 +140,10 @@ export class KernelTable {
     return { name: this.name, design: this.design, aliasStop: this.aliasStop, taps: this.taps, dense: this.dense, phaseMajor: this.phaseMajor };
   }
 
-  /** The shared table of a quality tier at output rate `sampleRate` (Hz, default 48000), built on first use and cached for the process (or worklet scope). */
+  /** The shared table of a quality tier at output rate `sampleRate` (Hz, 8000…768000, default 48000), built on first use and cached for the process (or worklet scope). */
   static forTier(tier: QualityTierName, sampleRate = 48000): KernelTable {
     if (!isQualityTier(tier)) throw new DspArgumentError('tier', `unknown quality tier ${JSON.stringify(tier)}`);
-    if (!(sampleRate >= 8000 && sampleRate <= 192000)) throw new DspArgumentError('sampleRate', `must be 8000…192000 Hz, got ${sampleRate}`);
+    if (!(sampleRate >= 8000 && sampleRate <= 768000)) throw new DspArgumentError('sampleRate', `must be 8000…768000 Hz, got ${sampleRate}`);
     const { design, aliasStop } = tierDesignAt(tier, sampleRate);
     const key = `${tier}:${design.passbandEdge}:${design.stopbandEdge}:${design.phases}:${aliasStop}`;
     let t = cache.get(key);

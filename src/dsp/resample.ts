@@ -12,7 +12,7 @@ export interface ResampleOptions {
   quality?: string;
   /** Inner loop: 'auto' (default: WebAssembly SIMD where available), 'typescript' (the reference) or 'wasm-simd' (throws where unavailable). */
   kernel?: KernelPreference;
-  /** Sample rate of the input and the output, Hz (8000…192000, default 48000): picks the kernel design for that rate (`tierDesignAt`). */
+  /** Sample rate of the input and the output, Hz (8000…768000, default 48000): picks the kernel design for that rate (`tierDesignAt`). */
   sampleRate?: number;
 }
 
@@ -53,7 +53,7 @@ export function* resampleChunks(input: Float32Array, ratio: number | Float32Arra
   const kernel = options?.kernel ?? 'auto';
   if (kernel !== 'auto' && kernel !== 'typescript' && kernel !== 'wasm-simd') throw new DspArgumentError('kernel', `unknown kernel ${JSON.stringify(kernel)} (expected auto, typescript or wasm-simd)`);
   const sampleRate = options?.sampleRate ?? 48000;
-  if (!(sampleRate >= 8000 && sampleRate <= 192000)) throw new DspArgumentError('sampleRate', `must be 8000…192000 Hz, got ${sampleRate}`);
+  if (!(sampleRate >= 8000 && sampleRate <= 768000)) throw new DspArgumentError('sampleRate', `must be 8000…768000 Hz, got ${sampleRate}`);
   if (!(Number.isInteger(chunkFrames) && chunkFrames >= 1 && chunkFrames <= 65536)) throw new DspArgumentError('chunkFrames', `must be an integer in 1…65536, got ${chunkFrames}`);
   const n = outputLength(input, ratio);
   const reader = new StreamReader({ table: KernelTable.forTier(q, sampleRate), channels: 1, kernel });

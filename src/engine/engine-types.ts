@@ -64,7 +64,7 @@ export interface EngineStats {
   clamps: number;
   /** Requests refused for lack of capacity (sound slots full, bad ids). */
   refused: number;
-  /** Peak absolute output sample of the last render call, before and after the limiter. */
+  /** Peak absolute output sample of the last render call, before and after the limiter (a host's stats report carries the peak over its whole report interval). */
   peakIn: number;
   peakOut: number;
   /** Times the blast guard muted the output (sustained level far above full scale, or non-finite samples). */

@@ -84,7 +84,7 @@ export class Engine {
     this.mapper = new TargetMapper({ tuning: t });
     this.snapshots = new SnapshotStore({ maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
     this.stage = new PropagationStage({ maxSources, knots: checkRange('trackKnots', options.trackKnots ?? 256, 16, 4096) });
-    this.stage.speedOfSound = t.air.speedOfSound ?? speedOfSound(t.air.temperatureCelsius);
+    this.stage.speedOfSound = propagationSpeed(t);
     this.air = new AirAbsorption(t.air);
     this.bus = new MasterBus({ sampleRate: sr, maxBlockFrames: this.maxBlock, ceilingDb: t.master.ceilingDb, limiter: t.master.limiter, gainDb: t.master.gainDb });
     for (const k of options.tables ?? []) {
@@ -241,7 +241,7 @@ export class Engine {
     this.tuning = t;
     this.mapper.setTuning(t);
     this.snapshots.configure(t.doppler.velocitySmoothingSeconds, t.doppler.teleportSpeed);
-    this.stage.speedOfSound = t.air.speedOfSound ?? speedOfSound(t.air.temperatureCelsius);
+    this.stage.speedOfSound = propagationSpeed(t);
     this.air.configure(t.air);
     this.bus.configure(t.master.ceilingDb, t.master.limiter, t.master.gainDb);
     this.switchTable(this.tableFor(t.resampler.tier));
@@ -421,3 +421,16 @@ export class Engine {
 
 /** Freeze fade of groups at time scale 0, s (re-exported for hosts and tests). */
 export const ENGINE_FREEZE_FADE_SECONDS = FREEZE_FADE_SECONDS;
+
+/** Largest propagation speed used (a Doppler factor near 0): sound then arrives at once with no shift, m/s. */
+const MAX_PROPAGATION_SPEED = 1e9;
+
+/**
+ * Speed of sound for the propagation model, m/s: the air's, divided by the tuning's Doppler factor — the factor scales
+ * the velocities against c as in OpenAL 1.1 §3.5.2 (docs/references.md §1c), so 2 doubles the shift and 0 removes it.
+ */
+function propagationSpeed(t: Tuning): number {
+  const c = t.air.speedOfSound ?? speedOfSound(t.air.temperatureCelsius);
+  const f = t.doppler.factor;
+  return f > c / MAX_PROPAGATION_SPEED ? c / f : MAX_PROPAGATION_SPEED;
+}

@@ -2,6 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { addKey, curveEquals, freezeCurve, fromUnitX, fromUnitY, toUnitX, insertionPoint, moveKey, removeKey, toUnitY, withInterpolation, type CurveRange } from '../../editor/curve-blade';
 import type { CurveSpec } from '../../src';
+import { kneeCompression } from '../../editor/curve-blade/curve-model';
 
 const range: CurveRange = { xMin: 0, xMax: 4, yMin: 0, yMax: 4, yScale: 'linear' };
 const spec: CurveSpec = freezeCurve({ interpolation: 'linear', keys: [{ x: 0, y: 0 }, { x: 1, y: 1 }, { x: 4, y: 4 }] });
@@ -86,5 +87,18 @@ describe('curve y axis with a knee', () => {
   ])('draws pitch %f at %f of the height and maps back', (y, u) => {
     expect(toUnitY(y, knee)).toBeCloseTo(u, 12);
     expect(fromUnitY(u, knee)).toBeCloseTo(y, 12);
+  });
+});
+
+describe('kneeCompression', () => {
+  it.each([
+    // x: 0…1 on 75 % of the width, 1…4 on 25 %: (0.75 / 1) / (0.25 / 3) = 9.
+    [0, 4, 1, 0.75, 9],
+    // y: 0…1 on 60 % of the height, 1…4 on 40 %: (0.6 / 1) / (0.4 / 3) = 4.5.
+    [0, 4, 1, 0.6, 4.5],
+    [0, 4, undefined, 0.75, 1],
+    [0, 1, 1, 0.75, 1],
+  ])('min %s max %s knee %s share %s draws the far side %s× tighter', (min, max, knee, share, want) => {
+    expect(kneeCompression(min, max, knee, share)).toBeCloseTo(want, 12);
   });
 });

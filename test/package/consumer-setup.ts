@@ -81,8 +81,9 @@ export function makeGame(dir: string, tarball: string, v: GameVersions): { insta
   writeFileSync(join(dir, 'src', 'readme-three-howler.ts'), readmeSnippet('ralenti/howler'));
   writeFileSync(join(dir, 'src', 'readme-web-audio.ts'), readmeSnippet('ralenti/runtime/inline'));
   writeFileSync(join(dir, 'package.json'), JSON.stringify({ name: `game-${v.name}`, private: true, type: 'module' }, null, 2));
+  // tweakpane: the optional peer of the development-only `ralenti/editor` entry, as a designer installs it.
   const r = run('npm', ['install', '--no-save', '--prefer-offline', tarball, `three@${v.three}`, `howler@${v.howler}`,
-    `@types/three@${v.typesThree}`, `@types/howler@${v.typesHowler}`], dir, npmEnv);
+    `@types/three@${v.typesThree}`, `@types/howler@${v.typesHowler}`, 'tweakpane@4.0.5'], dir, npmEnv);
   return { installLog: `${r.stdout}\n${r.stderr}` };
 }
 

@@ -9,6 +9,14 @@ const toPackagePaths = (s: string) =>
   s.replace("'../howler/index'", "'ralenti/howler'").replace("'../three/index'", "'ralenti/three'")
     .replace("'../inline'", "'ralenti/runtime/inline'").replace("'../index'", "'ralenti/runtime'");
 
+describe('README editor example', () => {
+  it('quotes editor/examples/mount-in-game.ts verbatim (imports as package paths)', () => {
+    const body = readFileSync(resolve(root, 'editor/examples/mount-in-game.ts'), 'utf8').split('\n').slice(1).join('\n').trimEnd()
+      .replace("'../../runtime/index'", "'ralenti/runtime'").replace("'../index'", "'ralenti/editor'");
+    expect(readFileSync(resolve(root, 'README.md'), 'utf8')).toContain('```ts\n' + body + '\n```');
+  });
+});
+
 describe('README and guide runtime examples', () => {
   it.each([
     ['three-howler-game.ts', 'docs/guide.md'],

@@ -18,10 +18,10 @@ describe('npm run build (scripts/build.mjs)', () => {
   afterAll(() => rmSync(out, { recursive: true, force: true }));
 
   it('writes the ESM entries, the worklet as its own file, and declarations for core and runtime', () => {
-    for (const f of ['index.js', 'analysis.js', 'runtime.js', 'runtime-inline.js', 'three.js', 'howler.js', 'ralenti-processor.js']) {
+    for (const f of ['index.js', 'analysis.js', 'runtime.js', 'runtime-inline.js', 'three.js', 'howler.js', 'editor.js', 'ralenti-processor.js']) {
       expect(existsSync(join(out, f)), f).toBe(true);
     }
-    for (const f of ['src/index.d.ts', 'runtime/index.d.ts', 'runtime/inline.d.ts', 'runtime/three/index.d.ts', 'runtime/howler/index.d.ts']) {
+    for (const f of ['src/index.d.ts', 'runtime/index.d.ts', 'runtime/inline.d.ts', 'runtime/three/index.d.ts', 'runtime/howler/index.d.ts', 'editor/index.d.ts']) {
       expect(existsSync(join(out, 'types', f)), f).toBe(true);
     }
     expect(readFileSync(join(out, 'types/runtime/index.d.ts'), 'utf8')).toContain('createRalenti');
@@ -76,6 +76,17 @@ describe('npm run build (scripts/build.mjs)', () => {
     expect(pkg.scripts.prepack).toMatch(/scripts\/build\.mjs/);
   });
 
+  it('builds the editor entry importing only tweakpane beyond the package itself (its core is bundled in)', () => {
+    expect(readFileSync(join(out, 'types/editor/index.d.ts'), 'utf8')).toContain('mountEditor');
+    const bare = new Set<string>();
+    const files = readdirSync(out).filter((f) => f.endsWith('.js') && f !== 'ralenti-processor.js');
+    // esbuild writes module-level imports at line starts: `import … from "x";` (possibly over several lines) or `import "x";`.
+    for (const f of files) for (const m of readFileSync(join(out, f), 'utf8').matchAll(/^import\s(?:[^;"]*?\sfrom\s*)?"([^"]+)"/gm)) if (!m[1].startsWith('.')) bare.add(`${f}:${m[1]}`);
+    const fromEditor = [...bare].filter((b) => b.startsWith('editor.js:')).map((b) => b.slice('editor.js:'.length));
+    expect(fromEditor).toEqual(['tweakpane']);
+    expect([...bare].some((b) => b.endsWith(':@tweakpane/core'))).toBe(false);
+  });
+
   it('has no install-time script in the manifest (npm runs these in every game that installs the package)', () => {
     const pkg = JSON.parse(readFileSync(join(__dirname, '../..', 'package.json'), 'utf8'));
     // npm docs, "scripts" (Life Cycle Scripts): preinstall, install, postinstall and prepare run on install (docs/references.md §15f).
@@ -90,7 +101,10 @@ describe('npm run build (scripts/build.mjs)', () => {
         imported.add((m[1] ?? m[2]).split('/').slice(0, (m[1] ?? m[2]).startsWith('@') ? 2 : 1).join('/'));
       }
     }
-    expect([...imported].sort()).toEqual(Object.keys(pkg.dependencies ?? {}).sort());
+    // Optional peers (tweakpane, imported by the development-only editor entry) are the game's own and not dependencies.
+    const peers = [...imported].filter((p) => pkg.peerDependenciesMeta?.[p]?.optional === true);
+    expect([...imported].filter((p) => !peers.includes(p)).sort()).toEqual(Object.keys(pkg.dependencies ?? {}).sort());
+    expect(peers).toEqual(['tweakpane']);
     // three, howler and tweakpane are the game's own copies: optional peers, never hard dependencies.
     for (const p of ['three', 'howler', 'tweakpane']) {
       expect(pkg.dependencies?.[p], p).toBeUndefined();

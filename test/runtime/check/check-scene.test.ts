@@ -32,10 +32,14 @@ function passScript(p: { v: number; d: number; c: number }) {
   };
 }
 
-/** These checks compare with the same-instant closed form, so the scene asks every group for the instant model. */
+/**
+ * These checks compare with the same-instant closed form, so the scene asks every group for the instant model, with
+ * no Doppler or ratio smoothing (the checker never expects smoothing; a smoothed render would fail, rightly).
+ */
 function instant(scene: ReturnType<typeof loadScene>): ReturnType<typeof loadScene> {
   let tuning = scene.tuning;
   for (const g of Object.keys(tuning.groups)) tuning = withDopplerModel(tuning, g, 'instant');
+  tuning = { ...tuning, doppler: { ...tuning.doppler, smoothingSeconds: 0 }, smoothing: { ...tuning.smoothing, ratioSeconds: 0 } };
   return { ...scene, tuning };
 }
 

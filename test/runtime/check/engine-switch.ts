@@ -7,7 +7,7 @@ import type { Tuning } from '../../../src/tuning';
  * the instant model and no smoothing (engineTuning below). Flip to true once the propagation model, with no default
  * ratio smoothing, is on main: the tests then run the engine with its default tuning and expect propagation.
  */
-export const ENGINE_HAS_PROPAGATION = false;
+export const ENGINE_HAS_PROPAGATION = true;
 
 /** The tuning the engine tests render with: the default once propagation lands, else instant Doppler, no smoothing. */
 export function engineTuning(t: Tuning): Tuning {

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { CheckCurve, EmissionSolver, ExpectedVoice, TimeScaleTrack, CheckPath, dopplerModelOf } from '../../../runtime/check';
 import { parseSceneScript, type SceneScript } from '../../../runtime/offline';
 import { defaultTuning, type Tuning } from '../../../src/tuning';
-import { withDopplerModel } from './engine-switch';
+import { ENGINE_HAS_PROPAGATION, withDopplerModel } from './engine-switch';
 
 const cents = (a: number, b: number) => 1200 * Math.log2(a / b);
 
@@ -100,8 +100,9 @@ describe('emission-time expectation (docs/references.md §11)', () => {
 });
 
 describe('tuning reading', () => {
-  it('reads the Doppler model per group: a string switch, or instant for the boolean of older tunings', () => {
-    expect(dopplerModelOf(defaultTuning, 'vehicles')).toBe('instant');
+  it('reads the Doppler model per group: the motion switch, or instant for tunings from before it', () => {
+    // The default tuning: propagation once the engine has it (its tuning fills the switch), instant before.
+    expect(dopplerModelOf(defaultTuning, 'vehicles')).toBe(ENGINE_HAS_PROPAGATION ? 'propagation' : 'instant');
     expect(dopplerModelOf(defaultTuning, 'interface')).toBe('off');
     expect(dopplerModelOf(withDopplerModel(defaultTuning, 'vehicles', 'propagation'), 'vehicles')).toBe('propagation');
     expect(dopplerModelOf({ ...defaultTuning, doppler: { ...defaultTuning.doppler, factor: 0 } }, 'vehicles')).toBe('off');

@@ -39,8 +39,8 @@ function record(seconds = 4.5, rampIn = 0.25, rampOut = 0.4, slowUntil = 3) {
 }
 
 const content = {
-  // Same-instant motion: the checker's expectation follows that model (until its emission-time expectation lands).
-  tuning: { ...JSON.parse(serializeTuning(defaultTuning)), groups: Object.fromEntries(Object.entries(defaultTuning.groups).map(([k, g]) => [k, { ...g, motion: 'instant' }])) },
+  // The default tuning: emission-time propagation, which the checker expects with code of its own.
+  tuning: JSON.parse(serializeTuning(defaultTuning)),
   sounds: { hum: { type: 'hum', frequency: 150, partials: [1, 0.5, 0.3], seconds: 2, gain: 0.5 }, buzz: { type: 'hum', frequency: 330, seconds: 2 } },
   voices: [
     { sound: 'hum', source: 'drone', group: 'vehicles', gain: 2 },
@@ -139,7 +139,7 @@ describe('FlyThroughRecorder', () => {
     // Ramps of 1.6 s at 48 kHz: the engine reaches each block's time scale at the block's end (half a 128-frame block
     // late), a lag the check rightly reports on the quarter-second ramp of the other recordings (docs/checker.md).
     const loaded = loadScene(record(6, 1.6, 1.6, 4).rec.toScript(content), { sampleRate: 48000 });
-    // Same-instant Doppler without smoothing until the engine has propagation (test/runtime/check/engine-switch.ts).
+    // The engine's default tuning (test/runtime/check/engine-switch.ts).
     const tuning = engineTuning(loaded.tuning);
     const result = checkScene({ ...loaded, tuning }, { sampleRate: 48000 });
     expect(result.sources.map((s) => s.name)).toEqual(['voice 0 (hum on drone)', 'voice 1 (buzz on pylon)']);
