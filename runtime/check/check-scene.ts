@@ -78,7 +78,9 @@ function tonalVoices(scene: CheckableScene): Tonal[] {
     const f = sounds[v.sound]?.frequency;
     if (partials === null || !(f != null && f > 0)) return;
     const name = `voice ${index} (${v.sound}${v.source ? ` on ${v.source}` : ''})`;
-    out.push({ index, name, expected: new ExpectedVoice(script, v, tuning, f), partials });
+    const buf = sounds[v.sound];
+    const seconds = buf && buf.channels.length > 0 ? buf.channels[0].length / buf.sampleRate : null;
+    out.push({ index, name, expected: new ExpectedVoice(script, v, tuning, f, seconds), partials });
   });
   return out;
 }

@@ -1,5 +1,6 @@
 // Records a fly-through in a page — the listener path, the source paths and the time-scale requests, with timestamps —
-// and writes it as a scene script (runtime/offline's format): linear keyframes per path, time-scale keys, voices.
+// and writes it as a scene script (runtime/offline's format): cubic (Catmull–Rom) keyframes per path, time-scale keys,
+// voices. Cubic, because frames sample smooth motion: a linear path would step its velocity at every frame.
 import type { Easing, MetersPerSecond, Seconds, Vec3Like } from '../../src/index';
 import { SCENE_SCRIPT_VERSION } from '../offline/parse-scene-script';
 
@@ -205,7 +206,7 @@ export class FlyThroughRecorder {
 function motionOf(keys: readonly Key[]): unknown {
   const [first] = keys;
   const still = keys.every((k) => k.position.every((c, i) => c === first.position[i]));
-  return still ? { type: 'fixed', position: first.position } : { type: 'keyframes', interpolation: 'linear', keys };
+  return still ? { type: 'fixed', position: first.position } : { type: 'keyframes', interpolation: 'cubic', keys };
 }
 
 function finite(p: Vec3Like): boolean {

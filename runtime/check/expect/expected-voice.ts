@@ -75,13 +75,21 @@ export class ExpectedVoice {
   private readonly S: Vec = { x: 0, y: 0, z: 0 };
   private readonly vS: Vec = { x: 0, y: 0, z: 0 };
 
-  /** `fundamentalHz`: the sound's fundamental at ratio 1 (Hz, > 0). */
+  private readonly duration: number;
+  private endTime = NaN;
+
+  /**
+   * `fundamentalHz`: the sound's fundamental at ratio 1 (Hz, > 0); `soundSeconds`: the sound's length at ratio 1 (s),
+   * which ends a voice that does not loop once its playhead has read it all (null: never ends by itself).
+   */
   constructor(
     script: SceneScript,
     private readonly voice: VoiceSpec,
     tuning: Tuning,
-    fundamentalHz: number,
+    private readonly fundamentalHz: number,
+    private readonly soundSeconds: number | null = null,
   ) {
+    this.duration = script.duration;
     const group = tuning.groups[voice.group ?? DEFAULT_GROUP] ?? tuning.groups[DEFAULT_GROUP];
     this.pitch = new CheckCurve(group.pitch);
     this.level = new CheckCurve(group.level);
@@ -110,6 +118,33 @@ export class ExpectedVoice {
 
   /** Expected heard frequency at scene time t (s). */
   at(t: number): ExpectedSample {
+    if (!this.voice.loop && this.soundSeconds !== null && t > this.end()) return { hz: NaN, silentWhy: 'ended' };
+    return this.playing(t);
+  }
+
+  /**
+   * Reception time (s) at which a voice that does not loop has read its whole sound: the playhead advances by the
+   * heard over emitted-at-ratio-1 frequency, integrated on a 1 ms grid from the voice's start (Infinity: never).
+   */
+  private end(): number {
+    if (!Number.isNaN(this.endTime)) return this.endTime;
+    const left = Math.max(0, (this.soundSeconds ?? Infinity) - this.voice.offsetSeconds);
+    const dt = 0.001;
+    let read = 0;
+    this.endTime = Infinity;
+    for (let t = Math.max(0, this.voice.start); t <= this.duration + dt; t += dt) {
+      const hz = this.playing(t).hz;
+      if (hz > 0) read += (hz / this.fundamentalHz) * dt;
+      if (read >= left) {
+        this.endTime = t;
+        break;
+      }
+    }
+    return this.endTime;
+  }
+
+  /** Expected heard frequency at scene time t (s) of a voice still playing its sound. */
+  private playing(t: number): ExpectedSample {
     let emitAt = t;
     let dopplerCents = 0;
     if (this.source !== null && this.model !== 'off') {
@@ -118,15 +153,21 @@ export class ExpectedVoice {
         const e = this.solver.emissionAt(t, this.L, this.vL);
         if (!Number.isFinite(e.tau)) return { hz: NaN, silentWhy: 'supersonic' };
         emitAt = e.tau;
-        dopplerCents = e.ratio > 0 ? cents(e.ratio) : -Infinity;
+        // The tuning's pitch curve acts at the listener and multiplies the propagation ratio on the game clock,
+        // dG(τ)/dG(t) = dτ/dt · s(τ)/s(t) (docs/physics.md, "Decision"): equal to dτ/dt at a steady time scale, and
+        // to the emission-time physics for the identity curve. A stopped clock at the listener holds sound in flight.
+        const sHere = this.clock.valueAt(t);
+        if (!(sHere > 0)) return { hz: NaN, silentWhy: 'frozen' };
+        const gameRatio = (e.ratio * this.clock.valueAt(e.tau)) / sHere;
+        dopplerCents = gameRatio > 0 ? cents(gameRatio) : -Infinity;
       } else {
-        dopplerCents = this.instantCents(t);
+        // maxShiftCents belongs to the same-instant formula only: propagation has no clamp but the ratio range's.
+        dopplerCents = Math.max(-this.maxShift, Math.min(this.maxShift, this.instantCents(t)));
       }
-      dopplerCents = Math.max(-this.maxShift, Math.min(this.maxShift, dopplerCents));
     }
     if (emitAt < this.voice.start) return { hz: NaN, silentWhy: 'not-started' };
     if (this.voice.stop !== null && emitAt > this.voice.stop) return { hz: NaN, silentWhy: 'ended' };
-    const s = this.clock.valueAt(emitAt);
+    const s = this.clock.valueAt(t);
     const speed = this.followsTime ? this.pitch.valueAt(s) : 1;
     const total = speed > 0 ? cents(speed) + dopplerCents : -Infinity;
     if (!(total >= cents(EXPECTED_RATIO_RANGE.min))) return { hz: NaN, silentWhy: 'frozen' };

@@ -50,13 +50,13 @@ const content = {
 };
 
 describe('FlyThroughRecorder', () => {
-  it('writes a scene script that parses, with every frame a key of a linear path and the timestamps from the start', () => {
+  it('writes a scene script that parses, with every frame a key of a cubic path (no velocity step at each frame) and the timestamps from the start', () => {
     const { rec, times } = record();
     const script = parseSceneScript(JSON.parse(formatSceneScript(rec.toScript(content))));
     expect(script.duration).toBeCloseTo(times[times.length - 1] - times[0], 4);
     expect(script.velocities).toBe('exact');
     const l = script.listener.motion;
-    expect(l.type === 'keyframes' && l.interpolation).toBe('linear');
+    expect(l.type === 'keyframes' && l.interpolation).toBe('cubic');
     if (l.type !== 'keyframes') return;
     expect(l.keys.length).toBe(times.length);
     const p = { x: 0, y: 0, z: 0 };
@@ -86,10 +86,14 @@ describe('FlyThroughRecorder', () => {
     expect(m.type === 'keyframes' && m.keys.filter((k) => k.cut).length).toBeGreaterThanOrEqual(1);
     const p = { x: 0, y: 0, z: 0 };
     const v = { x: 0, y: 0, z: 0 };
+    let fastest = 0;
     for (let t = 0; t < script.duration; t += 0.001) {
       evaluateMotion(m, t, p, v);
-      expect(Math.hypot(v.x, v.y, v.z)).toBeLessThan(45.5);
+      fastest = Math.max(fastest, Math.hypot(v.x, v.y, v.z));
     }
+    // The cubic through the frames overshoots this test's abrupt speed step at 1.5 s (45 → 15.75 m/s)
+    // (measured 50.1 m/s); a wrap written as motion would be about 180 m in one frame (over 10,000 m/s).
+    expect(fastest).toBeLessThan(45 * 1.25);
   });
 
   it('keeps keys at least 0.75 / keyRate apart at a high frame rate, and the last frame always', () => {
