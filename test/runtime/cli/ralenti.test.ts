@@ -6,6 +6,7 @@ import { spawnSync } from 'node:child_process';
 import { readWav, writeWav } from '../../../runtime/offline';
 import { peakFrequency } from '../../../src/analysis';
 import { runCli } from './run-cli';
+import { defaultTuning, serializeTuning } from '../../../src/tuning';
 import { ENGINE_HAS_PROPAGATION } from '../check/engine-switch';
 
 const examples = resolve(__dirname, '../../../runtime/offline/examples');
@@ -79,10 +80,32 @@ describe('ralenti check', () => {
     expect(readFileSync(report, 'utf8')).toMatch(/^<svg/);
   });
 
-  it('fails (exit 1) when the render departs from the expectation: estimated velocities lag a fast circle', async () => {
-    // The check's expectation uses the exact motion; with "velocities": "estimated" the engine smooths finite
-    // differences (80 ms), so the Doppler swing of a 1 Hz circle arrives late by tens of cents.
+  it('fails (exit 1) when the render departs from the expectation: the same-instant model smoothed over 50 ms lags a fast circle', async () => {
+    // The check's expectation follows the tuning's declared model with no smoothing; a tuning that asks for the
+    // same-instant model keeps its Doppler smoothing (0.05 s by default), so the swing of a 1 Hz circle arrives late.
+    const tuning = JSON.parse(serializeTuning(defaultTuning));
+    tuning.groups.effects = { ...tuning.groups.effects, motion: 'instant' };
     const scene = join(dir, 'circle.json');
+    writeFileSync(
+      scene,
+      JSON.stringify({
+        duration: 3,
+        sampleRate: 24000,
+        tuning,
+        sounds: { hum: { type: 'hum', frequency: 300, seconds: 1 } },
+        sources: { fly: { motion: { type: 'circle', center: [0, 0, -10], radius: 5, periodSeconds: 1 } } },
+        voices: [{ sound: 'hum', source: 'fly', loop: true, gain: 4 }],
+      }),
+    );
+    const r = await cli('check', scene, '-q');
+    expect(r.code).toBe(1);
+    expect(r.out).toMatch(/FAIL {2}voice 0 \(hum on fly\) \[instant Doppler\]/);
+    expect(r.out).toMatch(/1 of 1 voice\(s\) fail/);
+    expect(r.out).toMatch(/voice 0 \(hum on fly\): .*\d+\.\d\d s/);
+  });
+
+  it('passes the same fast circle with the default tuning (propagation, positions only)', async () => {
+    const scene = join(dir, 'circle-default.json');
     writeFileSync(
       scene,
       JSON.stringify({
@@ -95,10 +118,8 @@ describe('ralenti check', () => {
       }),
     );
     const r = await cli('check', scene, '-q');
-    expect(r.code).toBe(1);
-    expect(r.out).toMatch(/FAIL {2}voice 0 \(hum on fly\)/);
-    expect(r.out).toMatch(/1 of 1 voice\(s\) fail/);
-    expect(r.out).toMatch(/voice 0 \(hum on fly\): .*\d+\.\d\d s/);
+    expect(r.out).toMatch(/PASS {2}voice 0 \(hum on fly\) \[propagation Doppler\]/);
+    expect(r.code).toBe(0);
   });
 });
 

@@ -75,28 +75,31 @@ async function settled(analyser: AnalyserNode, limitMs: number): Promise<number>
   }
 }
 
-/** Still, moving towards the listener, still again, then slow motion: the frequency heard in each state. */
-async function measure(analyser: AnalyserNode, move: (on: boolean) => void, slow: () => number, movingMs: number): Promise<void> {
+/**
+ * Still, moving towards the listener, still again, then slow motion: the frequency heard in each state. A change of
+ * motion is heard once the sound emitted after it has travelled to the listener: `travelMs()` is that delay now.
+ */
+async function measure(analyser: AnalyserNode, move: (on: boolean) => void, slow: () => number, movingMs: number, travelMs: () => number = () => 0): Promise<void> {
   await sleep(300);
   report.values.still = await settled(analyser, 3000);
   move(true);
-  await sleep(300);
+  await sleep(300 + travelMs());
   report.values.moving = await settled(analyser, movingMs);
   move(false);
-  await sleep(300);
+  await sleep(300 + travelMs());
   report.values.stillAgain = await settled(analyser, 3000);
   report.values.slowScale = slow();
   await sleep(300);
   report.values.slow = await settled(analyser, 4000);
 }
 
-/** The README's three.js + howler snippet: a drone on the camera's line of sight, approaching at 40 m/s. */
+/** The README's three.js + howler snippet: a drone on the camera's line of sight 150 m away, approaching at 40 m/s. */
 async function howlerGame(clicked: number): Promise<void> {
   new Howl({ src: ['sounds/rotor.ogg', 'sounds/rotor.mp3'], preload: false });
   const scene = new THREE.Scene();
   const camera = new THREE.PerspectiveCamera(60, 1, 0.1, 1000);
   const drone = new THREE.Object3D();
-  drone.position.set(0, 0, -300);
+  drone.position.set(0, 0, -150);
   scene.add(camera, drone);
   scene.updateMatrixWorld(true);
   const audio = await startAudio(camera, drone, undefined);
@@ -116,7 +119,7 @@ async function howlerGame(clicked: number): Promise<void> {
   await measure(analyser, (on) => (speed = on ? 40 : 0), () => {
     audio.slowMotion(true);
     return entries.defaultTuning.timeFlow.slowMotionScale;
-  }, 2000);
+  }, 2000, () => (1000 * -drone.position.z) / report.values.speedOfSound); // sound travels: docs/physics.md
   clearInterval(timer);
 }
 
