@@ -108,6 +108,16 @@ const STEP_CENTS = 2;
 const STEP_GUARD_SECONDS = 1 / 60;
 /** A source counts as sounding this long after its sound first arrives (a voice's fade-in and first block), s. */
 const ONSET_SECONDS = 0.01;
+/**
+ * A frame whose window holds fewer than this many periods of the expected pitch while that pitch glides by more than
+ * GLIDE_CENTS across the window is outside what the tracker measures: YIN's difference function compares the window
+ * with itself one period later (docs/references.md §7), so under two periods of a steep low glide it measures the glide,
+ * not the pitch (the figures are from memory / common practice; measured: a 100 Hz hum gliding to 43 Hz reads up to
+ * 37 cents off where a 400 Hz or 800 Hz tone on the same path reads within 11 or 3 cents).
+ */
+const MIN_PERIODS_IN_WINDOW = 2;
+/** Glide across one window above which a frame of too few periods is not judged, cents. */
+const GLIDE_CENTS = 10;
 const cents = (a: number, b: number): number => 1200 * Math.log2(a / b);
 
 /** Judges one source; see the file comment. */
@@ -204,7 +214,10 @@ export function judgeSource(input: JudgeInput): JudgedSource {
       continue;
     }
     let why: UnjudgedReason | 'judged' = 'judged';
-    if (f < minHz * 1.05 || f > maxHz / 1.05) why = 'range';
+    const fa = expAt(o / sr);
+    const fb = expAt((o + span) / sr);
+    const steepLow = Math.min(f, fa, fb) * win < MIN_PERIODS_IN_WINDOW && Math.abs(cents(fb, fa)) > GLIDE_CENTS;
+    if (f < minHz * 1.05 || f > maxHz / 1.05 || steepLow) why = 'range';
     else if (stepsIn(o / sr - STEP_GUARD_SECONDS, (o + span) / sr + STEP_GUARD_SECONDS)) why = 'path-step';
     else if (input.jumps?.some((j) => j.from <= (o + span) / sr && j.to >= o / sr)) why = 'path-step';
     else if (input.others.some((s) => overlaps(f, input.levelAt?.(t) ?? 1, input.partials, s.expectedHz(t), s.partials, s.levelAt?.(t) ?? 1))) why = 'overlap';
