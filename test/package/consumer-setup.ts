@@ -59,7 +59,7 @@ export function packFromAwkwardPath(work: string): Packed {
   mkdirSync(pkg, { recursive: true });
   symlinkSync(join(repo, 'node_modules'), join(ws, 'node_modules'), 'dir');
   for (const f of ['package.json', 'README.md', 'tsconfig.json', 'tsconfig.build.json']) cpSync(join(repo, f), join(pkg, f));
-  for (const d of ['scripts', 'src', 'runtime', 'wasm']) cpSync(join(repo, d), join(pkg, d), { recursive: true });
+  for (const d of ['scripts', 'src', 'runtime', 'editor', 'wasm']) cpSync(join(repo, d), join(pkg, d), { recursive: true });
   const r = run('npm', ['pack', '--pack-destination', work], pkg, npmEnv);
   const name = readdirSync(work).find((f) => f.endsWith('.tgz'));
   if (!name) throw new Error(`npm pack wrote no tarball\n${r.stdout}\n${r.stderr}`);
