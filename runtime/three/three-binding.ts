@@ -114,7 +114,9 @@ export class ThreeBinding {
 
   /**
    * Reads every bound object's world matrix at wall-clock `time` (seconds, e.g. the animation-frame timestamp / 1000),
-   * updates positions and velocities, and sends one snapshot (stamped by the target, context time).
+   * updates positions and velocities, and sends one snapshot stamped with that same `time`: positions and their stamps
+   * share one clock, so motion keeps its speed even when the audio clock drifts from the frame clock under load (the
+   * engine maps snapshot time onto its own and uses only differences).
    */
   update(time: Seconds): void {
     // Between a dispose and retarget() (e.g. while the howler bridge rebuilds) there is nothing to drive.
@@ -146,7 +148,7 @@ export class ThreeBinding {
         b.source.setVelocity(v.x, v.y, v.z);
       }
     }
-    this.target.update();
+    this.target.update(time);
   }
 
   private estimatorOptions() {
