@@ -336,7 +336,9 @@ export class Ralenti {
   }
 
   /**
-   * Sends one gameplay snapshot (listener and live sources) stamped with `time` (context time, default now).
+   * Sends one gameplay snapshot (listener and live sources) stamped with `time` (default: context time now). Any one
+   * clock will do as long as every call uses it: the engine maps snapshot time onto its own and uses only differences,
+   * so stamp with the clock the positions were read on (the three.js binding passes its frame time).
    * Beyond maxSources live sources, only sources with voices are sent (up to maxSources; the rest counted in
    * sourcesLeftOut) — decided here, before encoding. Changed spatial settings go out first.
    */
