@@ -115,6 +115,9 @@ async function probeBadCommand(): Promise<{ errors: string[]; statsErrors: numbe
   const buffer = await ctx.startRendering();
   await done;
   await r.flush();
+  // A finished offline context reads as closed, so flush() settles at once; stats posted by the last render quanta may
+  // still be in flight on the port: wait for them (bounded) before reading the counters.
+  for (let i = 0; i < 100 && r.stats.errors < 1; i++) await new Promise((res) => setTimeout(res, 20));
   const left = buffer.getChannelData(0);
   let peakAfter = 0;
   for (let i = Math.round(0.15 * PARITY_RATE); i < left.length; i++) peakAfter = Math.max(peakAfter, Math.abs(left[i]));
