@@ -8,7 +8,7 @@ import { AirAbsorption, speedOfSound } from '../motion';
 import { PropagationStage } from './propagation-stage';
 import { airStage, propagateVoice } from './voice-propagation';
 import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
-import { KernelTable, WasmKernel, aliasStopFraction, MAX_RATIO, MIN_RATIO } from '../dsp';
+import { KernelTable, WasmKernel, aliasStopFraction, dbToGain, gainToDbFloor, centsToRatio, ratioToCents } from '../dsp';
 import { TargetMapper, TimeFlow, createVoiceTargets, type VoiceInput } from '../dilation';
 import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
@@ -17,7 +17,8 @@ import { KernelResidency } from './kernel-residency';
 import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
 import { StretchBank } from './stretch-stage';
-import { Voice, VOICE_FREE, VOICE_PLAYING, gainToDbFloor, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
+import { Voice, VOICE_FREE, VOICE_PLAYING, targetAudibility, FREEZE_FADE_SECONDS, type VoiceScratch } from './voice';
+import { clampRatio } from './voice-pitch';
 import { seededRandom } from '../random';
 import { sourceSpatialProblems, type SourceSpatial } from '../dilation';
 import { VoiceControls, type VoiceStateName } from './voice-controls';
@@ -108,9 +109,7 @@ export class Engine {
     const table = this.tableFor(t.resampler.tier) ?? options.tables?.[0] ?? KernelTable.forTier(t.resampler.tier, sr);
     this.table = table;
     for (let i = 0; i < 2 * this.capacity; i++) {
-      const v = new Voice(table, sr, this.smoothing(t), options.kernel ?? 'auto');
-      v.index = i;
-      this.voices.push(v);
+      this.voices.push(new Voice(i, table, sr, this.smoothing(t), options.kernel ?? 'auto'));
     }
     const stretchCount = checkRange('maxStretchVoices', options.maxStretchVoices ?? engineDefaults.maxStretchVoices, 0, 1024);
     this.stretches = new StretchBank(stretchCount, table, sr, t.smoothing.ratioSeconds, options.kernel ?? 'auto');
@@ -122,14 +121,14 @@ export class Engine {
     const buf = () => new Float32Array(this.maxBlock);
     const stereo = [buf(), buf()];
     this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()], wasm: null, ratios: new Float32Array(this.maxBlock), stage: this.stage };
-    const wasm = this.voices[0].reader.kernelName === 'wasm-simd' ? WasmKernel.shared() : null;
+    const wasm = this.voices[0].kernelName === 'wasm-simd' ? WasmKernel.shared() : null;
     // Voice scratch and mix bus in module memory: the kernel writes and the module mixes there, with no copies.
     this.resident = wasm === null ? null : new KernelResidency({ kernel: wasm, maxBlockFrames: this.maxBlock, bank: this.bank, owner: this });
     this.resident?.bind(this.scratch, this.bus);
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null, spatial: null };
     this.stats = {
       activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
-      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: table.name as Tuning['resampler']['tier'], kernel: this.voices[0].reader.kernelName,
+      limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: table.name as Tuning['resampler']['tier'], kernel: this.voices[0].kernelName,
       ratioClamps: 0, teleports: 0, shockwaves: 0, lastShockwaveTime: NaN, lastShockwaveSource: -1,
     };
   }
@@ -161,7 +160,7 @@ export class Engine {
     if (s < 0) return;
     for (let i = 0; i < this.voices.length; i++) {
       const v = this.voices[i];
-      if (v.state === VOICE_PLAYING && v.sound === s) this.pool.release(v, engineDefaults.stopFadeSeconds);
+      if (v.state === VOICE_PLAYING && v.params.sound === s) this.pool.release(v, engineDefaults.stopFadeSeconds);
     }
     this.bank.remove(id);
   }
@@ -202,44 +201,22 @@ export class Engine {
       this.stats.steals++;
     }
     const v = this.pool.take();
-    v.sound = slot;
-    v.channels = this.bank.channels[slot]!.length;
-    v.rateFactor = rate / this.sampleRate;
-    v.group = group;
-    v.followsTime = compiled.followsSpeed;
-    v.priority = priority;
-    v.gain = gain;
-    v.ratio = ratio;
-    v.sourceId = sourceId;
-    v.sourceSlot = src;
-    v.sequence = this.sequence++;
-    // Stretched voices read through their own stage at the same-instant ratio (propagation reads the sound itself).
-    v.propagating = sourceId !== -1 && compiled.motion === 'propagation' && !compiled.stretches;
-    v.airEngaged = false;
-    v.arrived = !v.propagating;
-    v.startTime = this.time;
-    v.arrivalFrames = 0;
-    v.arrivalSkipFrames = 0;
-    v.dopplerStart = 1;
-    v.dopplerEnd = 1;
-    v.virtual = false;
-    v.fresh = true;
-    v.thawing = false;
-    this.controls.attach(v, compiled.policy === 'exempt');
-    const fadeIn = options.fadeInSeconds ?? engineDefaults.fadeInSeconds;
-    v.env = fadeIn > 0 ? 0 : 1;
-    v.envTarget = 1;
-    v.attackStep = v.fadeStep(fadeIn);
-    v.releaseStep = v.fadeStep(engineDefaults.stopFadeSeconds);
-    copyTargets(this.probe, v.targets);
     const offset = clampNumber((options.offsetSeconds ?? 0) * rate, 0, this.bank.frames[slot], 0);
     const from = { loop: options.loop === true, loopStart: options.loopStart, loopEnd: options.loopEnd, startFrame: offset };
-    v.reader.setSource(this.bank.channels[slot]!, from);
-    v.stretch = null;
+    const channelData = this.bank.channels[slot]!;
+    v.start({
+      sound: slot, channelData, channels: channelData.length, rateFactor: rate / this.sampleRate, group, followsTime: compiled.followsSpeed,
+      priority, gain, ratio, sourceId, sourceSlot: src, sequence: this.sequence++,
+      // Stretched voices read through their own stage at the same-instant ratio (propagation reads the sound itself).
+      propagating: sourceId !== -1 && compiled.motion === 'propagation' && !compiled.stretches,
+      startTime: this.time, fadeInSeconds: options.fadeInSeconds ?? engineDefaults.fadeInSeconds, releaseSeconds: engineDefaults.stopFadeSeconds,
+      from, targets: this.probe,
+    });
+    this.controls.attach(v, compiled.policy === 'exempt');
     if (compiled.stretches) {
-      v.stretch = this.stretches.claim(v.index, this.voices);
-      if (v.stretch === null) this.engineClamps++; // every stage busy: this voice plays tape-style
-      else v.stretch.start(this.bank.channels[slot]!, from);
+      const stage = this.stretches.claim(v.index, this.voices);
+      if (stage === null) this.engineClamps++; // every stage busy: this voice plays tape-style
+      else v.readThrough(stage, channelData, from);
     }
     this.bank.release(slot, 1);
     return this.pool.handleOf(v);
@@ -255,8 +232,11 @@ export class Engine {
   setVoice(voice: number, change: { gain?: number; ratio?: number }): void {
     const v = this.pool.resolve(voice);
     if (v === null) return;
-    if (change.gain !== undefined) v.gain = clampNumber(change.gain, 0, 16, v.gain);
-    if (change.ratio !== undefined) v.ratio = change.ratio > 0 && change.ratio <= 4 ? change.ratio : (this.engineClamps++, v.ratio);
+    if (change.gain !== undefined) v.setGain(clampNumber(change.gain, 0, 16, v.params.gain));
+    if (change.ratio !== undefined) {
+      if (change.ratio > 0 && change.ratio <= 4) v.setBaseRatio(change.ratio);
+      else this.engineClamps++;
+    }
   }
 
   /** Switches tuning (a parseTuning result); voices keep playing and glide to the new targets. */
@@ -274,16 +254,9 @@ export class Engine {
     for (const v of this.voices) {
       v.setSmoothing(sm);
       if (v.state === VOICE_FREE) continue;
-      if (!this.mapper.hasGroup(v.group)) v.group = DEFAULT_GROUP;
-      const g = this.mapper.group(v.group);
-      v.followsTime = g.followsSpeed;
-      const propagating = v.sourceId !== -1 && g.motion === 'propagation' && v.stretch === null;
-      if (propagating !== v.propagating) {
-        // A model switch mid-voice: keep playing from where the read is (no new delay).
-        v.propagating = propagating;
-        v.arrived = true;
-        v.dopplerStart = v.dopplerEnd = 1;
-      }
+      const group = this.mapper.hasGroup(v.params.group) ? v.params.group : DEFAULT_GROUP;
+      const g = this.mapper.group(group);
+      v.regroup(group, g.followsSpeed, v.params.sourceId !== -1 && g.motion === 'propagation' && v.stretch === null);
       this.controls.rebind(v, g.policy === 'exempt');
     }
   }
@@ -304,7 +277,7 @@ export class Engine {
   private switchTable(table: KernelTable | null): void {
     if (table === null || table === this.table) return;
     this.table = table;
-    for (const v of this.voices) v.reader.setTable(table);
+    for (const v of this.voices) v.setTable(table);
     this.stretches.configure(table, this.tuning.smoothing.ratioSeconds);
     this.stats.tier = table.name as Tuning['resampler']['tier'];
     this.resident?.bind(this.scratch, this.bus); // a new tier's tables may have grown module memory
@@ -427,8 +400,8 @@ export class Engine {
   seek(voice: number, seconds: Seconds): void {
     const v = this.pool.resolve(voice);
     if (v === null || v.state !== VOICE_PLAYING) return;
-    const rate = v.rateFactor * this.sampleRate;
-    const frames = this.bank.frames[v.sound];
+    const rate = v.params.rateFactor * this.sampleRate;
+    const frames = this.bank.frames[v.params.sound];
     if (!(seconds >= 0 && seconds * rate <= frames)) this.engineClamps++;
     this.controls.seek(v, clampNumber(seconds * rate, 0, frames, 0));
   }
@@ -442,13 +415,13 @@ export class Engine {
   voicePosition(voice: number): Seconds {
     const v = this.pool.resolve(voice);
     if (v === null) return -1;
-    return (v.stretch !== null ? v.stretch.reader.position : v.reader.position) / (v.rateFactor * this.sampleRate);
+    return v.position / (v.params.rateFactor * this.sampleRate);
   }
 
   /** Source seconds a voice advances per output second now (its smoothed ratio; 0 while held), or 0 once ended. */
   voiceSpeed(voice: number): number {
     const v = this.pool.resolve(voice);
-    return v === null || (v.held && v.env === 0) ? 0 : v.currentRatio / v.rateFactor;
+    return v === null || (v.held && v.env === 0) ? 0 : v.currentRatio / v.params.rateFactor;
   }
 
   /** Sets (null: clears) a source's own distance model and cone; an invalid object is refused whole (counted in refused). */
@@ -473,12 +446,12 @@ export class Engine {
       if (v.state === VOICE_FREE) continue;
       const m = out[k++];
       m.voice = this.pool.handleOf(v);
-      m.sourceId = v.sourceId;
-      m.group = v.group;
+      m.sourceId = v.params.sourceId;
+      m.group = v.params.group;
       // The ratio in use: a propagating voice's read includes the Doppler factor, clamped as fillRatios clamps it.
       const r = v.propagating ? v.currentRatio * v.dopplerEnd : v.currentRatio;
-      m.ratioCents = 1200 * Math.log2(r < MIN_RATIO ? MIN_RATIO : r > MAX_RATIO ? MAX_RATIO : r);
-      m.dopplerCents = v.propagating ? 1200 * Math.log2(v.dopplerEnd) : v.dopplerCents.value;
+      m.ratioCents = ratioToCents(clampRatio(r));
+      m.dopplerCents = v.propagating ? ratioToCents(v.dopplerEnd) : v.currentDopplerCents;
       m.radialSpeed = v.targets.radialSpeed;
       m.distance = v.targets.distance;
       m.cutoffHz = v.currentCutoff;
@@ -505,18 +478,20 @@ export class Engine {
     const voices = this.voices;
     for (let i = 0; i < voices.length; i++) {
       const v = voices[i];
-      if (v.state === VOICE_FREE || v.sourceId === -1) continue;
-      if (!this.snapshots.holds(v.sourceSlot, v.sourceId)) v.sourceSlot = this.snapshots.find(v.sourceId);
-      if (v.propagating) this.stage.need(v.sourceSlot);
+      const p = v.params;
+      if (v.state === VOICE_FREE || p.sourceId === -1) continue;
+      if (!this.snapshots.holds(p.sourceSlot, p.sourceId)) v.bindSourceSlot(this.snapshots.find(p.sourceId));
+      if (v.propagating) this.stage.need(p.sourceSlot);
     }
     this.stage.advance(tStart, tEnd, this.flow.valueAt(controls.flowTime(0.5 * (tStart + tEnd))));
     for (let i = 0; i < voices.length; i++) {
       const v = voices[i];
       if (v.state === VOICE_FREE) continue;
-      const slot = v.sourceId === -1 ? -1 : v.sourceSlot;
+      const p = v.params;
+      const slot = p.sourceId === -1 ? -1 : p.sourceSlot;
       const source = v.propagating ? propagateVoice(this.stage, v, slot, n, this.time, this.sampleRate, this.emission) : slot >= 0 ? this.snapshots.sourceAt(slot) : null;
       this.input.spatial = controls.spatialOf(v);
-      this.mapSource(v.targets, v.group, v.ratio * v.rateFactor, v.gain, source, s);
+      this.mapSource(v.targets, p.group, p.ratio * p.rateFactor, p.gain, source, s);
       if (v.propagating && source !== null) airStage(v, this.air);
       controls.beforeRender(v);
       const wasVirtual = v.virtual;
