@@ -3,6 +3,7 @@
 import { OnePoleSmoother, DB_FLOOR, dbToGain, dbToGainFloor, gainToDbFloor } from '../dsp';
 import type { VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
+import type { VoiceEnvelope } from './voice-envelope';
 
 /** Below this linear gain (−90 dB) a voice becomes virtual; it comes back above RETURN_GAIN (−84 dB). */
 export const VIRTUAL_GAIN = dbToGain(-90);
@@ -132,9 +133,11 @@ export class VoiceGain {
     f[RIGHT] = f[MEMO_RIGHT];
   }
 
-  /** The per-sample ramps of the block just stepped, times the envelope going `envStart` → `envEnd` over `frames`. */
-  ramp(envStart: number, envEnd: number, frames: number): void {
+  /** The per-sample ramps of the block just stepped over `frames`, times the envelope's levels at the block's two ends. */
+  ramp(envelope: VoiceEnvelope, frames: number): void {
     const f = this.f;
+    const envStart = envelope.start;
+    const envEnd = envelope.level;
     f[LEFT0] = f[FROM_LEFT] * envStart;
     f[RIGHT0] = f[FROM_RIGHT] * envStart;
     f[LEFT_STEP] = (f[LEFT] * envEnd - f[LEFT0]) / frames;

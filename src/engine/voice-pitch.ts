@@ -4,6 +4,7 @@ import { OnePoleSmoother, MAX_RATIO, MIN_RATIO, centsToRatio, ratioToCents } fro
 import type { VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
 import type { PropagationStage } from './propagation-stage';
+import { EMISSION_NONE, type EmissionSolution } from './emission-solver';
 
 /** A voice's ratio smoothing and the ratio at each end of the block; allocation-free per block. */
 export class VoicePitch {
@@ -47,6 +48,23 @@ export class VoicePitch {
     this.dopplerStart = start;
     this.dopplerEnd = end;
     this.dopplerMean = mean;
+  }
+
+  /**
+   * Follows a propagating voice's emission-time solutions at the block's start (`pre`) and end (`sol`): the Doppler
+   * factor ramps on from the last block's end (a `fresh` voice starts at the solution's own factor).
+   */
+  followEmission(pre: EmissionSolution, sol: EmissionSolution, fresh: boolean): void {
+    this.dopplerStart = fresh ? (pre.state !== EMISSION_NONE ? pre.doppler : sol.doppler) : this.dopplerEnd;
+    if (sol.state !== EMISSION_NONE) this.dopplerEnd = sol.doppler;
+    this.dopplerMean = sol.meanDoppler;
+  }
+
+  /** A propagating voice with no source in the snapshots: the Doppler factor returns to 1 over the block. */
+  loseEmission(): void {
+    this.dopplerStart = this.dopplerEnd;
+    this.dopplerEnd = 1;
+    this.dopplerMean = NaN;
   }
 
   /** Reads the block's targets (the logarithms are kept while the targets repeat). */

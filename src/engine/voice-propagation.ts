@@ -5,7 +5,6 @@ import type { SourceState } from '../dilation';
 import type { AirAbsorption } from '../motion';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { PropagationStage } from './propagation-stage';
-import { EMISSION_NONE } from './emission-solver';
 import type { Voice } from './voice';
 
 /** A propagating voice on a source no snapshot has named yet waits this long for it, then plays non-positioned, s. */
@@ -24,26 +23,11 @@ export function propagateVoice(
   stage: PropagationStage, v: Voice, slot: number, n: number, now: number, sampleRate: number, emission: SourceState & { velocity: Vec3Like },
 ): (SourceState & { velocity: Vec3Like }) | null {
   if (slot < 0) {
-    if (!v.arrived && now - v.startTime >= SOURCE_WAIT_SECONDS) v.arriveAt(0, 0);
-    v.setDoppler(v.dopplerEnd, 1, NaN);
+    v.loseEmission(now, SOURCE_WAIT_SECONDS);
     return null;
   }
   const sol = stage.now[slot];
-  const pre = stage.before[slot];
-  const start = v.fresh ? (pre.state !== EMISSION_NONE ? pre.doppler : sol.doppler) : v.dopplerEnd;
-  v.setDoppler(start, sol.state !== EMISSION_NONE ? sol.doppler : v.dopplerEnd, sol.meanDoppler);
-  if (!v.arrived && sol.state !== EMISSION_NONE && sol.tau >= v.startTime) {
-    const span = sol.tau - pre.tau;
-    const block = n / sampleRate;
-    if (pre.state !== EMISSION_NONE && pre.tau < v.startTime && span > 0 && span < 8 * block) {
-      const k = Math.floor((n * (v.startTime - pre.tau)) / span);
-      v.arriveAt(k < 0 ? 0 : k >= n ? n - 1 : k, 0);
-    } else {
-      // A Mach cone: silent until its estimated arrival inside the block, the emission it jumped over skipped.
-      const k = Math.floor((sol.coneTime - now) * sampleRate);
-      v.arriveAt(k > 0 ? (k < n ? k : n - 1) : 0, sol.tau - v.startTime > block ? (sol.tau - v.startTime) * sampleRate : 0);
-    }
-  }
+  v.followEmission(stage.before[slot], sol, n, now, sampleRate);
   emission.id = v.params.sourceId;
   emission.position.x = sol.position.x;
   emission.position.y = sol.position.y;

@@ -2,7 +2,8 @@
 // 'stretch' group's stage), and a propagating voice's delay — silent until the sound arrives, then started so that
 // its first frame plays at the arrival sample (retarded time, docs/physics.md).
 import { StreamReader, type KernelPreference, type KernelTable, type StreamSourceOptions } from '../dsp';
-import type { Seconds } from '../units';
+import type { Hz, Seconds } from '../units';
+import { EMISSION_NONE, type EmissionSolution } from './emission-solver';
 import type { StretchStage } from './stretch-stage';
 
 /** A voice's read head and propagation arrival; allocation-free per block. */
@@ -57,6 +58,30 @@ export class SourceRead {
     this.arrived = true;
     this.arrivalFrames = frames;
     this.arrivalSkipFrames = skipFrames;
+  }
+
+  /** A voice whose source never appears in the snapshots plays, not positioned, once `waitSeconds` have passed since its start (engine time `now`, s). */
+  waitForSource(now: Seconds, waitSeconds: Seconds): void {
+    if (!this.arrived && now - this.startTime >= waitSeconds) this.arrived = true;
+  }
+
+  /**
+   * The sound arrives when the emission time `sol.tau` at the end of the block starting at engine time `now` (s) passes
+   * the voice's start: at the sample where the emission time crosses it (interpolated from `pre`, the block's start), or
+   * for a Mach cone at the cone's estimated arrival, skipping the emission it jumped over.
+   */
+  arriveFrom(pre: EmissionSolution, sol: EmissionSolution, n: number, now: Seconds, sampleRate: Hz): void {
+    const start = this.startTime;
+    if (this.arrived || sol.state === EMISSION_NONE || sol.tau < start) return;
+    const span = sol.tau - pre.tau;
+    const block = n / sampleRate;
+    if (pre.state !== EMISSION_NONE && pre.tau < start && span > 0 && span < 8 * block) {
+      const k = Math.floor((n * (start - pre.tau)) / span);
+      this.arriveAt(k < 0 ? 0 : k >= n ? n - 1 : k, 0);
+    } else {
+      const k = Math.floor((sol.coneTime - now) * sampleRate);
+      this.arriveAt(k > 0 ? (k < n ? k : n - 1) : 0, sol.tau - start > block ? (sol.tau - start) * sampleRate : 0);
+    }
   }
 
   /** Frames at the start of this block before the sound arrives (0 once it has). */

@@ -6,6 +6,7 @@ import { createVoiceTargets, type VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
 import type { StretchStage } from './stretch-stage';
 import type { PropagationStage } from './propagation-stage';
+import type { EmissionSolution } from './emission-solver';
 import { VoiceEnvelope } from './voice-envelope';
 import { VoicePitch } from './voice-pitch';
 import { SourceRead } from './voice-source-read';
@@ -216,14 +217,19 @@ export class Voice {
     this.own.sourceSlot = slot;
   }
 
-  /** Sets a propagating voice's Doppler factors for the coming block: at its start, its end and their mean (NaN: unknown). */
-  setDoppler(start: number, end: number, mean: number): void {
-    this.pitch.setDoppler(start, end, mean);
+  /**
+   * A propagating voice's coming block of `n` frames from engine time `now` (s): its Doppler factors and its arrival
+   * follow its source's emission-time solutions at the block's start (`pre`) and end (`sol`).
+   */
+  followEmission(pre: EmissionSolution, sol: EmissionSolution, n: number, now: Seconds, sampleRate: Hz): void {
+    this.pitch.followEmission(pre, sol, this.isFresh);
+    this.source.arriveFrom(pre, sol, n, now, sampleRate);
   }
 
-  /** The sound reaches the listener `frames` into the coming block, having jumped `skipFrames` of emission (a Mach cone). */
-  arriveAt(frames: number, skipFrames: number): void {
-    this.source.arriveAt(frames, skipFrames);
+  /** A propagating voice whose source is not in the snapshots: no Doppler, and after `waitSeconds` (s) it plays without waiting. */
+  loseEmission(now: Seconds, waitSeconds: Seconds): void {
+    this.source.waitForSource(now, waitSeconds);
+    this.pitch.loseEmission();
   }
 
   /** Engages the air-absorption low-pass for the rest of the voice's life. */
@@ -300,7 +306,7 @@ export class Voice {
     const bufs = mono ? scratch.mono : scratch.stereo;
     resampleBlock(source, pitch, bufs, frames, ratios, silentFrames, t);
     tone.process(bufs, scratch.dry, frames);
-    gain.ramp(envStart, envEnd, frames);
+    gain.ramp(envelope, frames);
     // A non-finite input must not live on in the filter state.
     if (!mixBlock(bufs[0], mono ? bufs[0] : bufs[1], mixL, mixR, offset, frames, gain, scratch.wasm)) tone.clear();
     return this.alive();

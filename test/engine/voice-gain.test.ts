@@ -3,6 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import { VoiceGain, VIRTUAL_GAIN, RETURN_GAIN } from '../../src/engine/voice-gain';
 import { createVoiceTargets } from '../../src/dilation';
+import { VoiceEnvelope } from '../../src/engine/voice-envelope';
 
 const SR = 48000;
 const N = 128;
@@ -33,7 +34,12 @@ describe('VoiceGain', () => {
     g.jump();
     g.aim(targets(1, 1, 1));
     g.step(N);
-    g.ramp(0.5, 1, N);
+    const env = new VoiceEnvelope(SR);
+    env.begin(0.005, 0.01); // 240 frames: half way after 120
+    env.step(false, 120);
+    env.step(false, N); // 0.5 → 1
+    expect(env.start).toBe(0.5);
+    g.ramp(env, N);
     expect(g.left0).toBeCloseTo(0.25, 12);
     expect(g.leftStep).toBeCloseTo((1 - 0.25) / N, 12);
     expect(g.right0).toBeCloseTo(0.125, 12);

@@ -4,8 +4,11 @@ import { describe, expect, it } from 'vitest';
 import { mixBlock } from '../../src/engine/voice-mix';
 import { VoiceGain } from '../../src/engine/voice-gain';
 import { createVoiceTargets } from '../../src/dilation';
+import { VoiceEnvelope } from '../../src/engine/voice-envelope';
 
 const N = 16;
+const full = new VoiceEnvelope(48000);
+full.begin(0, 0.01);
 
 function gainRamp(from: number, to: number): VoiceGain {
   const g = new VoiceGain(48000, 0);
@@ -16,7 +19,7 @@ function gainRamp(from: number, to: number): VoiceGain {
   t.gain = to;
   g.aim(t);
   g.step(N);
-  g.ramp(1, 1, N);
+  g.ramp(full, N);
   return g;
 }
 

@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { VoicePitch, clampRatio } from '../../src/engine/voice-pitch';
 import { createVoiceTargets } from '../../src/dilation';
 import { MAX_RATIO, MIN_RATIO } from '../../src/dsp';
+import { createEmissionSolution, EMISSION_HISTORY, EMISSION_NONE } from '../../src/engine/emission-solver';
 
 const SR = 48000;
 const N = 128;
@@ -58,5 +59,27 @@ describe('VoicePitch', () => {
     [1, 1],
   ])('clamps ratio %s to %s', (r, want) => {
     expect(clampRatio(r)).toBe(want);
+  });
+
+  it('follows the emission-time Doppler factor from the last block end, a fresh voice from the solution at its start', () => {
+    const p = new VoicePitch(SR, 0, 0);
+    const pre = createEmissionSolution();
+    const sol = createEmissionSolution();
+    pre.state = sol.state = EMISSION_HISTORY;
+    pre.doppler = 1.1;
+    sol.doppler = 1.2;
+    sol.meanDoppler = 1.15;
+    p.followEmission(pre, sol, true);
+    expect([p.dopplerStart, p.dopplerEnd, p.dopplerMean]).toEqual([1.1, 1.2, 1.15]);
+    sol.doppler = 1.3;
+    p.followEmission(pre, sol, false);
+    expect([p.dopplerStart, p.dopplerEnd]).toEqual([1.2, 1.3]);
+    sol.state = EMISSION_NONE;
+    sol.doppler = 9;
+    p.followEmission(pre, sol, false);
+    expect(p.dopplerEnd).toBe(1.3);
+    p.loseEmission();
+    expect([p.dopplerStart, p.dopplerEnd]).toEqual([1.3, 1]);
+    expect(p.dopplerMean).toBeNaN();
   });
 });

@@ -3,6 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import { SourceRead } from '../../src/engine/voice-source-read';
 import { KernelTable } from '../../src/dsp';
+import { createEmissionSolution, EMISSION_HISTORY } from '../../src/engine/emission-solver';
 
 const table = KernelTable.forTier('draft', 48000);
 const sound = [new Float32Array(48000)];
@@ -49,5 +50,31 @@ describe('SourceRead', () => {
     expect(s.position).toBe(500);
     s.seek(42);
     expect(s.position).toBe(42);
+  });
+
+  it.each([
+    { preTau: -0.001, tau: 0.001, silent: 64 },
+    { preTau: -0.0005, tau: 0.0015, silent: 32 },
+  ])('arrives where the emission time crosses the start, linearly between the block ends (τ $preTau → $tau s)', ({ preTau, tau, silent }) => {
+    const s = new SourceRead(table, 'typescript');
+    s.start(sound, { startFrame: 0 }, true, 0);
+    const pre = createEmissionSolution();
+    const sol = createEmissionSolution();
+    pre.state = sol.state = EMISSION_HISTORY;
+    pre.tau = preTau;
+    sol.tau = tau;
+    s.arriveFrom(pre, sol, 128, 0, 48000);
+    expect(s.arrived).toBe(true);
+    // k = floor(n · (start − τ_pre) / (τ − τ_pre)), the crossing of a linear emission time
+    expect(s.silentFrames).toBe(silent);
+  });
+
+  it('a voice whose source never appears plays after the wait, not before', () => {
+    const s = new SourceRead(table, 'typescript');
+    s.start(sound, { startFrame: 0 }, true, 1);
+    s.waitForSource(1.2, 0.25);
+    expect(s.arrived).toBe(false);
+    s.waitForSource(1.25, 0.25);
+    expect(s.arrived).toBe(true);
   });
 });
