@@ -59,6 +59,20 @@ export class PropagationStage {
   private readonly sp: Vec3Like = { x: 0, y: 0, z: 0 };
   private readonly sv: Vec3Like = { x: 0, y: 0, z: 0 };
   private blockStart: Seconds = 0;
+  // Doubles handed to the bodies of push, advance and fillRatios in fields, not as arguments: V8 boxes a double passed
+  // to or returned from a call it does not inline (docs/allocation.md); the public methods are small enough to inline.
+  private pushNow: Seconds = 0.5;
+  private pushInterval: Seconds = 0.5;
+  private pushTime: Seconds = 0.5;
+  private knot: Seconds = 0.5;
+  private blockEnd: Seconds = 0.5;
+  private blockScale = 0.5;
+  private r0 = 0.5;
+  private r1 = 0.5;
+  private d0 = 0.5;
+  private d1 = 0.5;
+  private dMean = 0.5;
+  private ratioSum = 0.5;
 
   /** Preallocates the tracks of `maxSources` sources and the listener. */
   constructor(options: PropagationStageOptions) {
@@ -83,17 +97,39 @@ export class PropagationStage {
 
   /** Engine time of a snapshot stamped `time` pushed at engine time `now` to be reached after `interval` (s). */
   knotTime(time: Seconds, now: Seconds, interval: Seconds): Seconds {
-    const target = now + interval - time;
-    if (!Number.isFinite(target)) return NaN;
+    this.pushNow = now;
+    this.pushInterval = interval;
+    this.pushTime = time;
+    this.syncKnot();
+    return this.knot;
+  }
+
+  /** The body of `knotTime`: from `pushTime`, `pushNow` and `pushInterval` into `knot` (NaN: no valid time). */
+  private syncKnot(): void {
+    const time = this.pushTime;
+    const target = this.pushNow + this.pushInterval - time;
+    if (!Number.isFinite(target)) {
+      this.knot = NaN;
+      return;
+    }
     if (!(Math.abs(target - this.offset) < RESYNC_SECONDS)) this.offset = target;
     else this.offset += (target - this.offset) * OFFSET_SLEW;
-    return time + this.offset;
+    this.knot = time + this.offset;
   }
 
   /** Records one snapshot's listener and sources; `slotOf` maps a source id to the snapshot store's slot (−1: none). */
   push(s: EngineSnapshot, now: Seconds, interval: Seconds, slotOf: (id: number) => number): void {
+    this.pushNow = now;
+    this.pushInterval = interval;
+    this.record(s, slotOf);
+  }
+
+  /** The body of `push`, at engine time `pushNow` with interval `pushInterval`. */
+  private record(s: EngineSnapshot, slotOf: (id: number) => number): void {
     this.pushes++;
-    const T = this.knotTime(s.time, now, interval);
+    this.pushTime = s.time;
+    this.syncKnot();
+    const T = this.knot;
     if (!Number.isFinite(T)) {
       this.tracks.dropped++;
       return;
@@ -126,6 +162,16 @@ export class PropagationStage {
   /** Advances the game clock over the block [start, end] at time scale `scale` and solves every live source at `end`. */
   advance(start: Seconds, end: Seconds, scale: number): void {
     this.blockStart = start;
+    this.blockEnd = end;
+    this.blockScale = scale;
+    this.solveAll();
+  }
+
+  /** The body of `advance`, over [blockStart, blockEnd] at `blockScale`. */
+  private solveAll(): void {
+    const start = this.blockStart;
+    const end = this.blockEnd;
+    const scale = this.blockScale;
     const gStart = this.clock.game;
     this.clock.advance(end, scale);
     const tracks = this.tracks;
@@ -156,15 +202,15 @@ export class PropagationStage {
       }
       const gBlock = this.clock.game - gStart;
       cur.meanDoppler = prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9 ? (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock : NaN;
-      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur.tau)) {
+      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur)) {
         let te = end - cur.scanResidual / cur.scanRate;
         if (!(te >= start)) te = start;
         cur.coneTime = te;
-        this.emit(te, this.ids[slot]);
-      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && this.supersonicAt(slot, cur.tau)) {
+        this.emit(cur, slot);
+      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && this.supersonicAt(slot, cur)) {
         // The latest root jumped forward: a (second) cone arrived.
         cur.coneTime = start;
-        this.emit(start, this.ids[slot]);
+        this.emit(cur, slot);
       }
     }
   }
@@ -190,6 +236,22 @@ export class PropagationStage {
    * the resampler's range (counted). Returns their sum (source frames advanced).
    */
   fillRatios(out: Float32Array, frames: number, r0: number, r1: number, d0: number, d1: number, mean: number): number {
+    this.r0 = r0;
+    this.r1 = r1;
+    this.d0 = d0;
+    this.d1 = d1;
+    this.dMean = mean;
+    this.fill(out, frames);
+    return this.ratioSum;
+  }
+
+  /** The body of `fillRatios`, from the ramp ends in fields, its sum into `ratioSum`. */
+  private fill(out: Float32Array, frames: number): void {
+    const r0 = this.r0;
+    const r1 = this.r1;
+    const d0 = this.d0;
+    const d1 = this.d1;
+    const mean = this.dMean;
     const dr = (r1 - r0) / frames;
     const dd = (d1 - d0) / frames;
     const lo = d0 < d1 ? d0 : d1;
@@ -221,7 +283,7 @@ export class PropagationStage {
       out[i] = r;
       sum += out[i];
     }
-    return sum;
+    this.ratioSum = sum;
   }
 
   /** Engine time of the start of the last solved block, s. */
@@ -230,13 +292,17 @@ export class PropagationStage {
   }
 
   /** Whether source `slot` moved at least at the speed of sound (game clock) at engine time `tau`: a cone can only come from there. */
-  private supersonicAt(slot: number, tau: Seconds): boolean {
+  private supersonicAt(slot: number, sol: EmissionSolution): boolean {
+    const tau = sol.tau;
     this.tracks.evaluate(slot, tau, this.sp, this.sv);
     const v = this.sv;
     return Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * this.clock.slopeAt(tau);
   }
 
-  private emit(time: Seconds, sourceId: number): void {
+  /** Queues a shockwave of source slot `slot` at its solution's `coneTime`. */
+  private emit(sol: EmissionSolution, slot: number): void {
+    const time = sol.coneTime;
+    const sourceId = this.ids[slot];
     this.shockwaves++;
     this.lastShockwaveTime = time;
     this.lastShockwaveSource = sourceId;
