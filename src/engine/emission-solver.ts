@@ -100,6 +100,8 @@ export class EmissionSolver {
   private root: Seconds = 0.5;
   /** Loop state of `bracket` and of the backward scan: lo, hi, x. */
   private readonly box = new Float64Array(4);
+  /** MAX_EMISSION_DOPPLER as a field: a module constant merged with a computed double made V8 box the double. */
+  private readonly maxDoppler = MAX_EMISSION_DOPPLER;
 
   private solveSlot(tracks: SourceTracks, clock: GameClock, slot: number, subsonic: boolean, out: EmissionSolution): void {
     this.evals = 0;
@@ -188,8 +190,9 @@ export class EmissionSolver {
       const d = this.dist;
       const us = d > 1e-12 ? ((this.lp.x - this.sp.x) * this.sv.x + (this.lp.y - this.sp.y) * this.sv.y + (this.lp.z - this.sp.z) * this.sv.z) / d : 0;
       const fp = -this.c * clock.slopeAt(b[2]) + us;
-      const nx = fp < 0 ? b[2] - fx / fp : NaN;
-      b[2] = nx > b[0] && nx < b[1] ? nx : 0.5 * (b[0] + b[1]);
+      // (No NaN literal in a merge here: a global read V8 has no feedback for is a tagged value, and boxes the other.)
+      const nx = b[2] - fx / fp;
+      b[2] = fp < 0 && nx > b[0] && nx < b[1] ? nx : 0.5 * (b[0] + b[1]);
     }
     this.root = b[2];
   }
@@ -242,8 +245,9 @@ export class EmissionSolver {
       const us = ((this.lp.x - this.sp.x) * this.sv.x + (this.lp.y - this.sp.y) * this.sv.y + (this.lp.z - this.sp.z) * this.sv.z) / d;
       const num = this.c * st - this.deriv;
       const den = this.c * sTau - us;
-      const D = den > 0 ? (sTau * num) / (st * den) : MAX_EMISSION_DOPPLER;
-      out.doppler = !(D < MAX_EMISSION_DOPPLER) ? MAX_EMISSION_DOPPLER : !(D > 0) ? 1 / MAX_EMISSION_DOPPLER : D;
+      const cap = this.maxDoppler;
+      const D = den > 0 ? (sTau * num) / (st * den) : cap;
+      out.doppler = !(D < cap) ? cap : !(D > 0) ? 1 / cap : D;
     } else if (d <= 1e-9) out.doppler = 1;
     out.evaluations = this.evals;
   }

@@ -73,6 +73,9 @@ export class PropagationStage {
   private d1 = 0.5;
   private dMean = 0.5;
   private ratioSum = 0.5;
+  /** The resampler's ratio range as fields: module constants merged with a computed double made V8 box the double. */
+  private readonly minRatio = MIN_RATIO;
+  private readonly maxRatio = MAX_RATIO;
 
   /** Preallocates the tracks of `maxSources` sources and the listener. */
   constructor(options: PropagationStageOptions) {
@@ -192,7 +195,8 @@ export class PropagationStage {
       const sNow = this.clock.slopeAt(end);
       const sLow = same && prev.state !== EMISSION_NONE ? Math.min(sNow, this.clock.slopeAt(prev.tau)) : sNow;
       const subsonic = same && prev.state !== EMISSION_NONE && tracks.maxSpeed[slot] < 0.9 * c * sLow;
-      solver.solve(tracks, this.clock, slot, same && prev.state !== EMISSION_NONE ? prev.tau : NaN, subsonic, cur);
+      // The previous τ is used only when `subsonic` (which implies a valid previous solution).
+      solver.solve(tracks, this.clock, slot, prev.tau, subsonic, cur);
       cur.coneTime = NaN;
       if (!same) {
         // A new or teleported track: the block starts from this solution (no glide from elsewhere).
@@ -201,7 +205,8 @@ export class PropagationStage {
         continue;
       }
       const gBlock = this.clock.game - gStart;
-      cur.meanDoppler = prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9 ? (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock : NaN;
+      if (prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9) cur.meanDoppler = (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock;
+      else cur.meanDoppler = NaN;
       if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur)) {
         let te = end - cur.scanResidual / cur.scanRate;
         if (!(te >= start)) te = start;
@@ -260,6 +265,8 @@ export class PropagationStage {
     // U'(1) = d1, averaged over each sample, so that the read advances by exactly the emission-time span; linear
     // when the mean is unknown or implausible (a new track, a Mach cone).
     const cubic = mean >= 0.5 * lo && mean <= 2 * hi;
+    const minRatio = this.minRatio;
+    const maxRatio = this.maxRatio;
     let uPrev = 0;
     let sum = 0;
     for (let i = 0; i < frames; i++) {
@@ -273,11 +280,11 @@ export class PropagationStage {
         uPrev = u;
       } else d = d0 + dd * i;
       let r = (r0 + dr * i) * d;
-      if (!(r >= MIN_RATIO)) {
-        r = MIN_RATIO;
+      if (!(r >= minRatio)) {
+        r = minRatio;
         this.ratioClamps++;
-      } else if (r > MAX_RATIO) {
-        r = MAX_RATIO;
+      } else if (r > maxRatio) {
+        r = maxRatio;
         this.ratioClamps++;
       }
       out[i] = r;
