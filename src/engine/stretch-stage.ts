@@ -1,6 +1,6 @@
 // The time-stretch stage of a 'stretch' voice: a WSOLA StretchReader (src/stretch) reads in place of the voice's
 // StreamReader; the read speed is the voice's smoothed ratio, the content's pitch ratio is smoothed in cents apart.
-import { OnePoleSmoother, type KernelPreference, type KernelTable, type StreamSourceOptions } from '../dsp';
+import { OnePoleSmoother, centsToRatio, ratioToCents, type KernelPreference, type KernelTable, type StreamSourceOptions } from '../dsp';
 import { StretchReader } from '../stretch';
 import type { VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
@@ -59,16 +59,16 @@ export class StretchStage {
     if (p !== this.memoPitch || targets.doppler !== this.memoDoppler) {
       this.memoPitch = p;
       this.memoDoppler = targets.doppler;
-      this.memoCents = 1200 * Math.log2(p / targets.doppler);
+      this.memoCents = ratioToCents(p / targets.doppler);
     }
     const target = this.memoCents;
     if (this.fresh) {
       this.fresh = false;
       this.pitchCents.reset(target);
-      this.startPitch = Math.pow(2, (target + dopplerCents) / 1200);
+      this.startPitch = centsToRatio(target + dopplerCents);
     }
     const c = this.pitchCents.advance(target, frames);
-    return Math.pow(2, (c + dopplerCents) / 1200);
+    return centsToRatio(c + dopplerCents);
   }
 }
 
