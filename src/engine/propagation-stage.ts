@@ -67,12 +67,10 @@ export class PropagationStage {
   private knot: Seconds = 0.5;
   private blockEnd: Seconds = 0.5;
   private blockScale = 0.5;
-  private r0 = 0.5;
-  private r1 = 0.5;
-  private d0 = 0.5;
-  private d1 = 0.5;
-  private dMean = 0.5;
-  private ratioSum = 0.5;
+  /** Inputs of `fillRamp`: the time ratio at the block's start and end, the Doppler factor at both, and its mean. */
+  readonly ramp = new Float64Array(5);
+  /** Source frames advanced by the last `fillRamp` (the sum of its ratios). */
+  rampSum = 0.5;
   /** The resampler's ratio range as fields: module constants merged with a computed double made V8 box the double. */
   private readonly minRatio = MIN_RATIO;
   private readonly maxRatio = MAX_RATIO;
@@ -241,22 +239,27 @@ export class PropagationStage {
    * the resampler's range (counted). Returns their sum (source frames advanced).
    */
   fillRatios(out: Float32Array, frames: number, r0: number, r1: number, d0: number, d1: number, mean: number): number {
-    this.r0 = r0;
-    this.r1 = r1;
-    this.d0 = d0;
-    this.d1 = d1;
-    this.dMean = mean;
-    this.fill(out, frames);
-    return this.ratioSum;
+    const q = this.ramp;
+    q[0] = r0;
+    q[1] = r1;
+    q[2] = d0;
+    q[3] = d1;
+    q[4] = mean;
+    this.fillRamp(out, frames);
+    return this.rampSum;
   }
 
-  /** The body of `fillRatios`, from the ramp ends in fields, its sum into `ratioSum`. */
-  private fill(out: Float32Array, frames: number): void {
-    const r0 = this.r0;
-    const r1 = this.r1;
-    const d0 = this.d0;
-    const d1 = this.d1;
-    const mean = this.dMean;
+  /**
+   * `fillRatios` with its five doubles taken from `ramp` (r0, r1, d0, d1, mean) and its sum left in `rampSum`: the form
+   * for the render path, where a call V8 does not inline would box every double passed or returned.
+   */
+  fillRamp(out: Float32Array, frames: number): void {
+    const q = this.ramp;
+    const r0 = q[0];
+    const r1 = q[1];
+    const d0 = q[2];
+    const d1 = q[3];
+    const mean = q[4];
     const dr = (r1 - r0) / frames;
     const dd = (d1 - d0) / frames;
     const lo = d0 < d1 ? d0 : d1;
@@ -290,7 +293,7 @@ export class PropagationStage {
       out[i] = r;
       sum += out[i];
     }
-    this.ratioSum = sum;
+    this.rampSum = sum;
   }
 
   /** Engine time of the start of the last solved block, s. */
