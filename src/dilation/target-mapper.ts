@@ -59,7 +59,7 @@ function finiteCoord(v: number, limit: number): boolean {
   return v >= -limit && v <= limit;
 }
 
-/** Maps voices to targets under one tuning; allocation-free per call; counts every clamped input. */
+/** Maps voices to targets under one tuning; creates no objects per call (docs/allocation.md); counts every clamped input. */
 export class TargetMapper {
   /** Inputs replaced or clamped: time scales, ratios, gains, positions, velocities, orientations. */
   clamps = 0;

@@ -46,7 +46,7 @@ export function createEmissionSolution(): EmissionSolution {
   return { state: EMISSION_NONE, tau: NaN, doppler: 1, distance: 0, meanDoppler: NaN, coneTime: NaN, position: { x: 0, y: 0, z: 0 }, scanResidual: 0, scanRate: 0, evaluations: 0 };
 }
 
-/** Solves the emission-time equation for one source; allocation-free. */
+/** Solves the emission-time equation for one source; creates no objects, and its steps pass doubles in fields, not calls (docs/allocation.md). */
 export class EmissionSolver {
   /** Speed of sound, m per game second. */
   c = 343;

@@ -5,7 +5,7 @@ import type { Seconds } from '../units';
 /** Slope changes the clock keeps (a constant time scale needs one; a ramp one per block). */
 export const GAME_CLOCK_ENTRIES = 4096;
 
-/** Game time over engine time; allocation-free after construction. */
+/** Game time over engine time; creates no objects after construction; its bodies take and return no doubles (docs/allocation.md). */
 export class GameClock {
   /** Game time at the end of the last advanced block, s. */
   game: Seconds = 0;

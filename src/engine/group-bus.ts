@@ -31,7 +31,7 @@ export class GroupBus {
   }
 }
 
-/** The buses of every group named so far, the world pause and the solo count; allocation-free on the audio path. */
+/** The buses of every group named so far, the world pause and the solo count; creates no objects on the audio path (docs/allocation.md). */
 export class GroupBuses {
   /** True while the whole world is paused. */
   worldPaused = false;

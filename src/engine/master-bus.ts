@@ -23,7 +23,7 @@ export interface MasterBusOptions {
   gainDb: Decibels;
 }
 
-/** Mix buffers, master gain, limiter and metering of one engine; never allocates after construction. */
+/** Mix buffers, master gain, limiter and metering of one engine; creates no objects after construction (what V8 may still box: docs/allocation.md). */
 export class MasterBus implements MixBus {
   /** Left mix channel (rebound to module memory on the wasm kernel). */
   left: Float32Array;

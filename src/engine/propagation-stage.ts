@@ -25,7 +25,7 @@ export interface PropagationStageOptions {
   knots?: number;
 }
 
-/** Tracks, clock and emission-time solutions for an engine; allocation-free after construction. */
+/** Tracks, clock and emission-time solutions for an engine; creates no objects after construction; its bodies take and return no doubles (docs/allocation.md). */
 export class PropagationStage {
   /** The game clock over engine time. */
   readonly clock = new GameClock();

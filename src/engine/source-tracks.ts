@@ -27,7 +27,7 @@ export const APPEND_TELEPORT = 1;
 /** The knot was dropped (non-finite or absurd position, or time not after the last knot). */
 export const APPEND_DROPPED = -1;
 
-/** Trajectory rings for `slots` sources; allocation-free after construction. */
+/** Trajectory rings for `slots` sources; creates no objects after construction; its bodies take and return no doubles (docs/allocation.md). */
 export class SourceTracks {
   /** Knots dropped (bad positions, time going backwards) and explicit velocities ignored as non-finite. */
   dropped = 0;

@@ -26,7 +26,7 @@ export const stretchReaderDefaults = Object.freeze({ grainSeconds: 0.04, toleran
 
 /**
  * Reads a source at a read speed (source frames per output frame, 0 = held) with its pitch set apart by a pitch ratio
- * (the playback ratio of the grains' content); allocates nothing after construction.
+ * (the playback ratio of the grains' content); creates no objects after construction; doubles reach its bodies in fields (docs/allocation.md).
  */
 export class StretchReader {
   /** Hop between grain starts, output frames (half a grain). */

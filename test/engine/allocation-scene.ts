@@ -1,6 +1,6 @@
 // The busy scene of the zero-allocation check (docs/allocation.md): 64 looping stereo voices in six groups, 8 sources
 // moving on closed-form paths with snapshots pushed as the offline renderer pushes them (60 Hz, one interval ahead),
-// and a time-scale ramp down and back every 1,500 blocks. The driver itself allocates nothing per block: one snapshot
+// and a time-scale ramp down and back every 1,000 blocks. The driver itself allocates nothing per block: one snapshot
 // object and two ramp requests are made here and rewritten in place.
 import { Engine } from '../../src/engine';
 import type { EngineSnapshot, KernelPreference, TimeScaleRequest } from '../../src/index';
@@ -16,7 +16,7 @@ export const SCENE_SOURCES = 8;
 /** Blocks between snapshots: 48,000 / 128 / 60 Hz, rounded as the offline renderer rounds it. */
 const SNAP_EVERY = Math.max(1, Math.round(SCENE_RATE / SCENE_BLOCK / 60));
 /** Blocks between time-scale requests (alternately down to 0.3 and back to 1). */
-const RAMP_EVERY = 1500;
+const RAMP_EVERY = 1000;
 /** Groups of the default tuning, cycled over the voices: propagation ones, a stretched one, an exempt one, tone-only. */
 const GROUPS = ['effects', 'vehicles', 'ambience', 'radio', 'interface', 'music', 'effects', 'vehicles'] as const;
 
