@@ -77,7 +77,7 @@ export class CeilingProbe {
   /** Compiles the probe (with SIMD) and places a table of `rows` rows of `rowFloats` floats (a multiple of 8) and a source of `xFloats`. */
   static async create(rowFloats: number, rows: number, xFloats: number): Promise<CeilingProbe> {
     const asc = (await import('assemblyscript/asc')) as unknown as {
-      compileString(src: string, opts: object): Promise<{ binary?: Uint8Array; error?: Error | null; stderr: { toString(): string } }>;
+      compileString(src: string, opts: object): Promise<{ binary?: Uint8Array<ArrayBuffer>; error?: Error | null; stderr: { toString(): string } }>;
     };
     const r = await asc.compileString(PROBE_SOURCE, { optimizeLevel: 3, runtime: 'stub', noAssert: true, enable: ['simd'], initialMemory: 1 });
     if (r.error || !r.binary) throw new Error(`ceiling probe did not compile: ${r.error?.message ?? ''} ${r.stderr.toString()}`);
