@@ -13,7 +13,7 @@ import { SINC_FASTEST, libsamplerate } from './resampler-reference';
 
 const SR = 48000;
 const BLOCK = 128;
-const ROUNDS = 5;
+const ROUNDS = 7;
 const SLICE_MS = 150;
 const RATIOS = [0.5, 1.7];
 const VOICES_512 = 512;
@@ -47,6 +47,19 @@ function rate(step: () => number): number {
     t = cpuMs();
   }
   return n / ((t - t0) / 1000);
+}
+
+/**
+ * Runs `step` until two slices in a row agree within 10 % (at most 12 slices): V8 first runs WebAssembly and JavaScript
+ * in baseline tiers and swaps in optimised code compiled on a background thread, which a loaded machine delays.
+ */
+function warm(step: () => number): void {
+  let last = rate(step);
+  for (let k = 0; k < 11; k++) {
+    const r = rate(step);
+    if (Math.abs(r - last) <= 0.1 * Math.max(r, last)) return;
+    last = r;
+  }
 }
 
 function tone(hz: number, seconds: number): Float32Array[] {
@@ -170,12 +183,8 @@ export async function ceilingFigures(log: Log): Promise<object> {
     const probeNsPerMac: number[] = [];
     const voiceNsPerFrame: number[] = [];
     const ratio: number[] = [];
-    // Warm-up: WebAssembly code starts in V8's baseline tier and is recompiled optimised on a background thread,
-    // which a loaded machine delays; rounds start once both run optimised code.
-    for (let k = 0; k < 3; k++) {
-      rate(() => probe.run(4096));
-      rate(readers);
-    }
+    warm(() => probe.run(4096));
+    warm(readers);
     for (let k = 0; k < ROUNDS; k++) {
       const macs = rate(() => probe.run(4096));
       const frames = rate(readers);
@@ -206,10 +215,8 @@ export async function typescriptFigures(log: Log): Promise<object> {
     const p = await tsAndReference(r);
     const q: number[] = [];
     const tsMsps: number[] = [];
-    for (let k = 0; k < 2; k++) {
-      rate(p.ts);
-      rate(p.fastest);
-    }
+    warm(p.ts);
+    warm(p.fastest);
     for (let k = 0; k < ROUNDS; k++) {
       const a = rate(p.ts);
       const b = rate(p.fastest);
@@ -243,7 +250,7 @@ export async function voices512Figures(log: Log): Promise<object> {
   }
   // What the ceiling alone would take: 512 voices × 2 channels × taps (ratio ≤ 1) multiply-adds per frame.
   const probe = await CeilingProbe.create(72, table.phases + 1, 4 * SR);
-  for (let k = 0; k < 3; k++) rate(() => probe.run(4096));
+  warm(() => probe.run(4096));
   const macRate = spread([0, 1, 2].map(() => rate(() => probe.run(4096))))[1];
   const ceilingShare = (VOICES_512 * 2 * table.taps * SR) / macRate;
   const voices512 = { coreShare: spread(p), wallShare: spread(pw), instantCoreShare: spread(q), propagationOverInstant: spread(p.map((x, i) => x / q[i])), ceilingShare };
