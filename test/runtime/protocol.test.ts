@@ -44,7 +44,7 @@ describe('snapshot encoding', () => {
     expect(grown.length).toBe(snapshotLength(2));
   });
 
-  it('gives fresh objects on every decode (the engine may keep them)', () => {
+  it('gives fresh objects on every decode (nothing shared between results)', () => {
     const d = encodeSnapshot(snapshot);
     const a = decodeSnapshot(d)!;
     const b = decodeSnapshot(d)!;
