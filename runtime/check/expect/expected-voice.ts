@@ -19,6 +19,10 @@ export const EXPECTED_RATIO_RANGE = Object.freeze({ min: 1 / 1024, max: 4 });
 export const GAME_CLOCK_FLOOR = 0.05;
 
 const MODELS: readonly string[] = ['propagation', 'instant', 'off'];
+const isModel = (v: unknown): v is DopplerModel => typeof v === 'string' && MODELS.includes(v);
+
+/** Field `key` of `o` as stored, whatever the format's type says: the checker reads older and newer tuning formats alike. */
+const stored = (o: object | undefined, key: string): unknown => (o === undefined ? undefined : Reflect.get(o, key));
 
 /**
  * The Doppler model a tuning asks for in `groupName` (unknown groups use the default group): `doppler: false` or a
@@ -27,11 +31,11 @@ const MODELS: readonly string[] = ['propagation', 'instant', 'off'];
  * `doppler.model`, else 'instant' — the only model of the engine before the switch existed.
  */
 export function dopplerModelOf(tuning: Tuning, groupName: string | null | undefined): DopplerModel {
-  const group = (tuning.groups[groupName ?? DEFAULT_GROUP] ?? tuning.groups[DEFAULT_GROUP]) as unknown as Record<string, unknown> | undefined;
-  if (!group || !(tuning.doppler.factor > 0) || group.doppler === false) return 'off';
-  for (const own of [group.motion, group.doppler, group.dopplerModel]) if (typeof own === 'string' && MODELS.includes(own)) return own as DopplerModel;
-  const global = (tuning.doppler as unknown as Record<string, unknown>).model;
-  return typeof global === 'string' && MODELS.includes(global) ? (global as DopplerModel) : 'instant';
+  const group: object | undefined = tuning.groups[groupName ?? DEFAULT_GROUP] ?? tuning.groups[DEFAULT_GROUP];
+  if (!group || !(tuning.doppler.factor > 0) || stored(group, 'doppler') === false) return 'off';
+  for (const own of [stored(group, 'motion'), stored(group, 'doppler'), stored(group, 'dopplerModel')]) if (isModel(own)) return own;
+  const global = stored(tuning.doppler, 'model');
+  return isModel(global) ? global : 'instant';
 }
 
 /** Speed of sound the tuning declares, m/s: the override, or 331.3·√(1 + T/273.15) (docs/references.md §2, from memory). */
