@@ -4,6 +4,7 @@
 // and the tuning's maximum shift. Nothing here is taken from the engine; smoothing or lag is never expected.
 import type { Tuning } from '../../../src/tuning';
 import { DEFAULT_GROUP } from '../../../src/tuning';
+import { centsToRatio, dbToGain, ratioToCents } from '../../../src/dsp';
 import type { MotionSpec, SceneScript, VoiceSpec } from '../../offline/scene-types';
 import { CheckCurve } from './check-curve';
 import { CheckPath, type Vec } from './check-path';
@@ -50,8 +51,6 @@ export interface ExpectedSample {
   /** Why hz is NaN: before the sound arrives or after it ends, frozen, or no single emission (supersonic). */
   silentWhy: 'not-started' | 'ended' | 'frozen' | 'supersonic' | null;
 }
-
-const cents = (r: number): number => 1200 * Math.log2(r);
 
 /** Expected pitch of one voice of a scene script. */
 export class ExpectedVoice {
@@ -110,7 +109,7 @@ export class ExpectedVoice {
     this.factor = tuning.doppler.factor;
     // A Doppler factor DF scales the effect as a speed of sound c/DF would (OpenAL 1.1 §3.5.2 algebra).
     this.c = declaredSpeedOfSound(tuning) / (this.factor > 0 ? this.factor : 1);
-    this.maxShift = Math.min(tuning.doppler.maxShiftCents, cents(EXPECTED_RATIO_RANGE.max));
+    this.maxShift = Math.min(tuning.doppler.maxShiftCents, ratioToCents(EXPECTED_RATIO_RANGE.max));
     this.gameClock = tuning.doppler.velocityClock === 'game';
     this.solver = this.model === 'propagation' && this.source ? new EmissionSolver(this.source, this.c, this.clock) : null;
   }
@@ -163,7 +162,7 @@ export class ExpectedVoice {
         const sHere = this.clock.valueAt(t);
         if (!(sHere > 0)) return { hz: NaN, silentWhy: 'frozen' };
         const gameRatio = (e.ratio * this.clock.valueAt(e.tau)) / sHere;
-        dopplerCents = gameRatio > 0 ? cents(gameRatio) : -Infinity;
+        dopplerCents = gameRatio > 0 ? ratioToCents(gameRatio) : -Infinity;
       } else {
         // maxShiftCents belongs to the same-instant formula only: propagation has no clamp but the ratio range's.
         dopplerCents = Math.max(-this.maxShift, Math.min(this.maxShift, this.instantCents(t)));
@@ -173,9 +172,9 @@ export class ExpectedVoice {
     if (this.voice.stop !== null && emitAt > this.voice.stop) return { hz: NaN, silentWhy: 'ended' };
     const s = this.clock.valueAt(t);
     const speed = this.followsTime ? this.pitch.valueAt(s) : 1;
-    const total = speed > 0 ? cents(speed) + dopplerCents : -Infinity;
-    if (!(total >= cents(EXPECTED_RATIO_RANGE.min))) return { hz: NaN, silentWhy: 'frozen' };
-    return { hz: this.emittedHz * 2 ** (Math.min(total, cents(EXPECTED_RATIO_RANGE.max)) / 1200), silentWhy: null };
+    const total = speed > 0 ? ratioToCents(speed) + dopplerCents : -Infinity;
+    if (!(total >= ratioToCents(EXPECTED_RATIO_RANGE.min))) return { hz: NaN, silentWhy: 'frozen' };
+    return { hz: this.emittedHz * centsToRatio(Math.min(total, ratioToCents(EXPECTED_RATIO_RANGE.max))), silentWhy: null };
   }
 
   /** Same-instant formula: projections on source→listener, each clamped to c/DF from above, (c − vls)/(c − vss). */
@@ -193,7 +192,7 @@ export class ExpectedVoice {
     const num = this.c - vls;
     const den = this.c - vss;
     if (den <= 0) return num <= 0 ? 0 : Infinity;
-    return num > 0 ? cents(num / den) : -Infinity;
+    return num > 0 ? ratioToCents(num / den) : -Infinity;
   }
 
   /**
@@ -203,7 +202,7 @@ export class ExpectedVoice {
    */
   gainAt(t: number): number {
     const groupDb = this.exempt ? 0 : this.level.valueAt(this.clock.valueAt(t));
-    let g = this.voice.gain * 10 ** (groupDb / 20);
+    let g = this.voice.gain * dbToGain(groupDb);
     if (this.source !== null) {
       this.listener.at(t, this.L, this.vL);
       this.source.at(t, this.S, this.vS);
