@@ -8,6 +8,7 @@ import type { ListenerState, SourceState, VoiceTargets } from './snapshot-types'
 import { CompiledGroup } from './group-policy';
 import { distanceGain, equalPowerFromSine } from './spatial-gains';
 import { coneGain } from './cone-gain';
+import { centsToRatio } from '../dsp';
 import type { SourceSpatial } from './source-spatial';
 
 /** Largest target ratio (the resampler's maximum playback ratio). */
@@ -110,7 +111,7 @@ export class TargetMapper {
     this.tuning = t;
     this.c = t.air.speedOfSound ?? speedOfSound(t.air.temperatureCelsius);
     const maxShift = t.doppler.maxShiftCents;
-    this.maxDoppler = Math.min(Math.pow(2, maxShift / 1200), MAX_TARGET_RATIO);
+    this.maxDoppler = Math.min(centsToRatio(maxShift), MAX_TARGET_RATIO);
     this.minDoppler = 1 / this.maxDoppler;
     this.gameClock = t.doppler.velocityClock === 'game';
     this.dopplerFactor = t.doppler.factor;
