@@ -8,6 +8,7 @@ import type { ListenerState, SourceState, VoiceTargets } from './snapshot-types'
 import { CompiledGroup } from './group-policy';
 import { distanceGain, equalPowerFromSine } from './spatial-gains';
 import { coneGain } from './cone-gain';
+import { centsToRatio } from '../dsp';
 import type { SourceSpatial } from './source-spatial';
 import { centsToRatio } from '../dsp';
 
