@@ -10,7 +10,6 @@ import { distanceGain, equalPowerFromSine } from './spatial-gains';
 import { coneGain } from './cone-gain';
 import { centsToRatio } from '../dsp';
 import type { SourceSpatial } from './source-spatial';
-import { centsToRatio } from '../dsp';
 
 /** Largest target ratio (the resampler's maximum playback ratio). */
 export const MAX_TARGET_RATIO = 4;
