@@ -14,7 +14,7 @@ const WARM_UP_BLOCKS = 2000;
 const WARM_UP_CALL = 50;
 /** Blocks measured, in spans of SPAN_BLOCKS, each after a scavenge (small enough to fit the young generation). */
 const MEASURED_BLOCKS = 10_000;
-const SPAN_BLOCKS = 250;
+const SPAN_BLOCKS = 50;
 
 /** What the probe reports. */
 export interface AllocationReport {

@@ -27,7 +27,8 @@ beforeAll(async () => {
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe('Render path allocation', () => {
-  it.each([['typescript', 'typescript'], ['auto', 'wasm-simd']])(
+  // The two kernels run side by side, each in its own process.
+  it.concurrent.each([['typescript', 'typescript'], ['auto', 'wasm-simd']])(
     'renders 10,000 blocks of 64 voices and 8 moving sources without allocating a byte (%s kernel)',
     async (kernel, resolved) => {
       const { stdout } = await run(process.execPath, ['--expose-gc', probe, kernel], { timeout: 280_000, maxBuffer: 1 << 20 });
