@@ -92,9 +92,15 @@ export class VoicePitch {
     this.current = rc === this.ratioTarget && dc === this.dopplerTarget ? clampRatio(t.ratio) : clampRatio(centsToRatio(rc + dc));
   }
 
-  /** Per-sample read ratios of a propagating voice's block into `ratios` (Doppler in the read); returns the frames read. */
-  fillRatios(stage: PropagationStage, ratios: Float32Array, frames: number): number {
-    return stage.fillRatios(ratios, frames, this.blockStart, this.current, this.dopplerStart, this.dopplerEnd, this.dopplerMean);
+  /** Per-sample read ratios of a propagating voice's block into `ratios` (Doppler in the read); the frames read are left in `stage.rampSum`. */
+  fillRatios(stage: PropagationStage, ratios: Float32Array, frames: number): void {
+    const q = stage.ramp;
+    q[0] = this.blockStart;
+    q[1] = this.current;
+    q[2] = this.dopplerStart;
+    q[3] = this.dopplerEnd;
+    q[4] = this.dopplerMean;
+    stage.fillRamp(ratios, frames);
   }
 }
 

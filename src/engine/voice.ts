@@ -287,7 +287,8 @@ export class Voice {
     const ratios = scratch.ratios;
     const silentFrames = source.silentFrames;
     if (source.propagating && scratch.stage !== null) {
-      advance = pitch.fillRatios(scratch.stage, ratios, frames);
+      pitch.fillRatios(scratch.stage, ratios, frames);
+      advance = scratch.stage.rampSum;
       source.arrive(ratios);
     }
     if (envStart === 0 && envEnd === 0) {
