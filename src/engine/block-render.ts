@@ -42,7 +42,8 @@ function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset:
   const tStart = core.frameCount / core.sampleRate;
   const tEnd = (core.frameCount + n) / core.sampleRate;
   snapshots.interpolate(tEnd);
-  const s = core.flow.valueAt(controls.flowTime(tEnd));
+  const input = core.input;
+  input.timeScale = core.flow.valueAt(controls.flowTime(tEnd));
   const voices = core.voices;
   for (let i = 0; i < voices.length; i++) {
     const v = voices[i];
@@ -58,7 +59,12 @@ function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset:
     const p = v.params;
     const slot = p.sourceId === -1 ? -1 : p.sourceSlot;
     const source = v.propagating ? propagateVoice(stage, v, slot, n, core.time, core.sampleRate, core.emission) : slot >= 0 ? snapshots.sourceAt(slot) : null;
-    core.map(v.targets, p.group, p.ratio * p.rateFactor, p.gain, source, controls.spatialOf(v), s);
+    input.group = p.group;
+    input.baseRatio = p.ratio * p.rateFactor;
+    input.gain = p.gain;
+    input.source = source;
+    input.spatial = controls.spatialOf(v);
+    core.mapper.map(v.targets, input);
     if (v.propagating && source !== null) airStage(v, core.air);
     controls.beforeRender(v);
     const wasVirtual = v.virtual;

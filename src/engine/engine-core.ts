@@ -103,7 +103,8 @@ export class EngineCore {
   clamps = 0;
   /** Linear ceiling of the routed outputs. */
   routeCeiling = 1;
-  private readonly input: VoiceInput;
+  /** The mapper's input, filled field by field (the render loop writes it in place: no doubles cross a call). */
+  readonly input: VoiceInput;
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
   constructor(options: EngineOptions, owner: object) {

@@ -26,6 +26,8 @@ export class VoicePitch {
   private dopplerTarget = 0.5;
   private memoRatio = NaN;
   private memoDoppler = NaN;
+  private readonly minRatio = MIN_RATIO;
+  private readonly maxRatio = MAX_RATIO;
 
   /** Smoothers with time constants `ratioSeconds` and `dopplerSeconds` (s) at `sampleRate` (Hz). */
   constructor(sampleRate: Hz, ratioSeconds: Seconds, dopplerSeconds: Seconds) {
@@ -89,7 +91,9 @@ export class VoicePitch {
     const rc = this.ratioCents.advance(this.ratioTarget, frames);
     const dc = this.dopplerCents.advance(this.dopplerTarget, frames);
     this.blockStart = this.current;
-    this.current = rc === this.ratioTarget && dc === this.dopplerTarget ? clampRatio(t.ratio) : clampRatio(centsToRatio(rc + dc));
+    const r = rc === this.ratioTarget && dc === this.dopplerTarget ? t.ratio : centsToRatio(rc + dc);
+    // Clamped against fields, not the module constants: V8 boxes a double merged with a module constant.
+    this.current = r >= this.minRatio ? (r <= this.maxRatio ? r : this.maxRatio) : this.minRatio;
   }
 
   /** Per-sample read ratios of a propagating voice's block into `ratios` (Doppler in the read); the frames read are left in `stage.rampSum`. */
