@@ -1,8 +1,25 @@
-// What a voice plays and how: the per-play values fixed at its start (a few change later by intent), and the
-// start request the engine hands to `Voice.start`.
-import type { StreamSourceOptions } from '../dsp';
+// What a voice plays and how: the per-play values fixed at its start (a few change later by intent), the start
+// request the engine hands to `Voice.start`, its smoothing times and the scratch buffers all voices share.
+import type { StreamSourceOptions, WasmKernel } from '../dsp';
+import type { PropagationStage } from './propagation-stage';
 import type { VoiceTargets } from '../dilation';
 import type { Seconds } from '../units';
+
+/** Scratch buffers shared by all voices of an engine (one voice renders at a time). */
+export interface VoiceScratch {
+  /** Resampled channels (2 × maxBlockFrames). */
+  stereo: Float32Array[];
+  /** Only the first channel of `stereo`, for mono sounds. */
+  mono: Float32Array[];
+  /** Copy of the unfiltered signal for the bypass crossfade (2 × maxBlockFrames). */
+  dry: Float32Array[];
+  /** The WebAssembly kernel when `stereo` and the mix bus are views of its memory (the mix then runs in the module), else null. */
+  wasm: WasmKernel | null;
+  /** Per-sample read ratios of a propagating voice (maxBlockFrames). */
+  ratios: Float32Array;
+  /** The engine's propagation stage (fills and counts the ratios), or null. */
+  stage: PropagationStage | null;
+}
 
 /** Smoothing time constants of a voice's stages, s (0 = none). */
 export interface VoiceSmoothing {

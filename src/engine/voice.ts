@@ -1,11 +1,10 @@
 // One voice of the engine: a chain of named stages run once per block — envelope (voice-envelope), pitch
 // (voice-pitch), source read (voice-source-read), resample (voice-resample), tone (voice-tone), gain and pan
 // (voice-gain), mix (voice-mix). The voice only wires them; the engine, pool and controls act on it by intent.
-import type { KernelPreference, KernelTable, StreamSourceOptions, WasmKernel } from '../dsp';
+import type { KernelPreference, KernelTable, StreamSourceOptions } from '../dsp';
 import { createVoiceTargets, type VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
 import type { StretchStage } from './stretch-stage';
-import type { PropagationStage } from './propagation-stage';
 import type { EmissionSolution } from './emission-solver';
 import { VoiceEnvelope } from './voice-envelope';
 import { VoicePitch } from './voice-pitch';
@@ -15,12 +14,12 @@ import { VoiceTone } from './voice-tone';
 import { VoiceGain, targetAudibility } from './voice-gain';
 import { mixBlock } from './voice-mix';
 import { copyTargets } from './engine-values';
-import { VoiceParams, type VoiceStart, type VoiceSmoothing } from './voice-params';
+import { VoiceParams, type VoiceStart, type VoiceSmoothing, type VoiceScratch } from './voice-params';
 
 export { FREEZE_FADE_SECONDS } from './voice-envelope';
 export { VIRTUAL_GAIN, RETURN_GAIN, targetAudibility } from './voice-gain';
 export { TONE_SUB_BLOCK, TONE_Q } from './voice-tone';
-export type { VoiceStart, VoiceSmoothing } from './voice-params';
+export type { VoiceStart, VoiceSmoothing, VoiceScratch } from './voice-params';
 
 /** Voice state: the slot is free. */
 export const VOICE_FREE = 0;
@@ -28,22 +27,6 @@ export const VOICE_FREE = 0;
 export const VOICE_PLAYING = 1;
 /** Voice state: fading out after a stop or a steal; the slot frees at the end of the fade. */
 export const VOICE_RELEASING = 2;
-
-/** Scratch buffers shared by all voices of an engine (one voice renders at a time). */
-export interface VoiceScratch {
-  /** Resampled channels (2 × maxBlockFrames). */
-  stereo: Float32Array[];
-  /** Only the first channel of `stereo`, for mono sounds. */
-  mono: Float32Array[];
-  /** Copy of the unfiltered signal for the bypass crossfade (2 × maxBlockFrames). */
-  dry: Float32Array[];
-  /** The WebAssembly kernel when `stereo` and the mix bus are views of its memory (the mix then runs in the module), else null. */
-  wasm: WasmKernel | null;
-  /** Per-sample read ratios of a propagating voice (maxBlockFrames). */
-  ratios: Float32Array;
-  /** The engine's propagation stage (fills and counts the ratios), or null. */
-  stage: PropagationStage | null;
-}
 
 /** A voice slot: its stages, all allocated once; read-only from outside except through its intent methods. */
 export class Voice {
