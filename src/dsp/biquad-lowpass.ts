@@ -19,6 +19,8 @@ export class BiquadLowpass {
   private readonly channels: number;
   private readonly state: Float64Array; // x1, x2, y1, y2 per channel
   private readonly coef = new Float64Array(5);
+  /** Cutoff (Hz), Q (linear) and sample rate (Hz) that `design` reads: the allocation-free form of `setLowpass`. */
+  readonly design = new Float64Array(3);
 
   /** Allocates state for `options.channels` channels; starts as a pass-through-like open filter (cutoff 0.49·48 kHz, Q 1/√2). */
   constructor(options: BiquadLowpassOptions) {
@@ -29,24 +31,25 @@ export class BiquadLowpass {
 
   /** Cookbook low-pass coefficients [b0, b1, b2, a1, a2] normalised by a0, for `cutoffHz` (clamped to 10 Hz…0.49·sampleRate) and linear `q` (clamped to 0.1…30). */
   static coefficients(cutoffHz: Hz, q: number, sampleRate: Hz, out: Float64Array): Float64Array {
-    const fs = Number.isFinite(sampleRate) && sampleRate > 0 ? sampleRate : 48000;
-    const f0 = Math.min(fs * BIQUAD_MAX_CUTOFF_FRACTION, Math.max(BIQUAD_MIN_CUTOFF_HZ, Number.isFinite(cutoffHz) ? cutoffHz : fs));
-    const qq = Math.min(BIQUAD_Q_RANGE[1], Math.max(BIQUAD_Q_RANGE[0], Number.isFinite(q) ? q : Math.SQRT1_2));
-    const w0 = (2 * Math.PI * f0) / fs;
-    const cosw = Math.cos(w0);
-    const alpha = Math.sin(w0) / (2 * qq);
-    const a0 = 1 + alpha;
-    out[0] = (1 - cosw) / 2 / a0;
-    out[1] = (1 - cosw) / a0;
-    out[2] = out[0];
-    out[3] = (-2 * cosw) / a0;
-    out[4] = (1 - alpha) / a0;
+    const d = DESIGN_SCRATCH;
+    d[0] = cutoffHz;
+    d[1] = q;
+    d[2] = sampleRate;
+    designLowpass(d, out);
     return out;
   }
 
   /** Sets the low-pass cutoff (Hz, clamped to a stable range), Q (linear) and sample rate (Hz); state is kept, so call per block. */
   setLowpass(cutoffHz: Hz, q: number, sampleRate: Hz): void {
     BiquadLowpass.coefficients(cutoffHz, q, sampleRate, this.coef);
+  }
+
+  /**
+   * Sets the coefficients from `design` [cutoff Hz, Q, sample rate Hz] (clamped as in `coefficients`): `setLowpass`
+   * with its doubles in a Float64Array, since V8 boxes a double passed to a call it does not inline.
+   */
+  applyDesign(): void {
+    designLowpass(this.design, this.coef);
   }
 
   /** Filters channels[c][offset…offset+frames) in place for c < channels. */
@@ -86,4 +89,26 @@ export class BiquadLowpass {
   reset(): void {
     this.state.fill(0);
   }
+}
+
+/** The doubles of `coefficients` handed to designLowpass. */
+const DESIGN_SCRATCH = new Float64Array(3);
+
+/**
+ * The cookbook design of `coefficients` from `d` = [cutoff Hz, Q, sample rate Hz] into `out`: too large for V8 to
+ * inline, so its doubles come in a Float64Array (a double passed to a call V8 does not inline is boxed).
+ */
+function designLowpass(d: Float64Array, out: Float64Array): void {
+  const fs = Number.isFinite(d[2]) && d[2] > 0 ? d[2] : 48000;
+  const f0 = Math.min(fs * BIQUAD_MAX_CUTOFF_FRACTION, Math.max(BIQUAD_MIN_CUTOFF_HZ, Number.isFinite(d[0]) ? d[0] : fs));
+  const qq = Math.min(BIQUAD_Q_RANGE[1], Math.max(BIQUAD_Q_RANGE[0], Number.isFinite(d[1]) ? d[1] : Math.SQRT1_2));
+  const w0 = (2 * Math.PI * f0) / fs;
+  const cosw = Math.cos(w0);
+  const alpha = Math.sin(w0) / (2 * qq);
+  const a0 = 1 + alpha;
+  out[0] = (1 - cosw) / 2 / a0;
+  out[1] = (1 - cosw) / a0;
+  out[2] = out[0];
+  out[3] = (-2 * cosw) / a0;
+  out[4] = (1 - alpha) / a0;
 }

@@ -13,8 +13,10 @@ export interface OnePoleSmootherOptions {
 
 /** Smooths a control value towards a target, sample-accurate over whole blocks; no allocation. */
 export class OnePoleSmoother {
-  /** Current value. */
-  value: number;
+  /** Current value (declared with a double: a field that first held `undefined` boxes every store in V8). */
+  value = 0.5;
+  /** Target that `step` approaches (non-finite: `step` holds the value). */
+  target = 0.5;
   private tau: Seconds;
   private readonly sampleRate: Hz;
   /** e^(−frames/(τ·rate)) for `lastFrames` (recomputed only when the frame count or τ changes). */
@@ -27,6 +29,7 @@ export class OnePoleSmoother {
     this.tau = 0;
     this.setTimeConstant(options.timeConstantSeconds);
     this.value = options.initial ?? 0;
+    this.target = this.value;
   }
 
   /** Sets τ in seconds (negative or non-finite → 0). */
@@ -42,16 +45,26 @@ export class OnePoleSmoother {
 
   /** Advances `frames` samples towards `target` and returns the new value: target + (value − target)·exp(−frames/(τ·sampleRate)). */
   advance(target: number, frames: number): number {
-    if (!Number.isFinite(target)) return this.value;
+    this.target = target;
+    this.step(frames);
+    return this.value;
+  }
+
+  /**
+   * Advances `frames` samples towards the `target` field, leaving the result in `value` (the allocation-free form of
+   * `advance` for the render path: V8 boxes a double passed to or returned from a call it does not inline).
+   */
+  step(frames: number): void {
+    const target = this.target;
+    if (!Number.isFinite(target)) return;
     if (this.tau === 0) {
       this.value = target;
-      return target;
+      return;
     }
     if (frames !== this.lastFrames) {
       this.decay = Math.exp(-frames / (this.tau * this.sampleRate));
       this.lastFrames = frames;
     }
     this.value = target + (this.value - target) * this.decay;
-    return this.value;
   }
 }

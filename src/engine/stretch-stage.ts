@@ -91,8 +91,9 @@ export class StretchStage {
       this.pitchCents.reset(target);
       this.startPitch = centsToRatio(target + dopplerCents);
     }
-    const c = this.pitchCents.advance(target, frames);
-    this.endPitch = centsToRatio(c + dopplerCents);
+    this.pitchCents.target = target;
+    this.pitchCents.step(frames);
+    this.endPitch = centsToRatio(this.pitchCents.value + dopplerCents);
   }
 }
 

@@ -115,8 +115,10 @@ export class VoiceGain {
   /** Smooths `frames` samples towards the targets: the gains go from their values before to `left`/`right`. */
   step(frames: number): void {
     const f = this.f;
-    this.leftDb.advance(f[LEFT_TARGET_DB], frames);
-    this.rightDb.advance(f[RIGHT_TARGET_DB], frames);
+    this.leftDb.target = f[LEFT_TARGET_DB];
+    this.leftDb.step(frames);
+    this.rightDb.target = f[RIGHT_TARGET_DB];
+    this.rightDb.step(frames);
     const leftEndDb = this.leftDb.value;
     const rightEndDb = this.rightDb.value;
     if (leftEndDb !== f[MEMO_LEFT_DB]) {

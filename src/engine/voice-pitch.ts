@@ -88,8 +88,12 @@ export class VoicePitch {
 
   /** Smooths `frames` samples towards the targets: the ratio goes from `blockStart` to `current`. */
   step(t: VoiceTargets, frames: number): void {
-    const rc = this.ratioCents.advance(this.ratioTarget, frames);
-    const dc = this.dopplerCents.advance(this.dopplerTarget, frames);
+    this.ratioCents.target = this.ratioTarget;
+    this.ratioCents.step(frames);
+    this.dopplerCents.target = this.dopplerTarget;
+    this.dopplerCents.step(frames);
+    const rc = this.ratioCents.value;
+    const dc = this.dopplerCents.value;
     this.blockStart = this.current;
     const r = rc === this.ratioTarget && dc === this.dopplerTarget ? t.ratio : centsToRatio(rc + dc);
     // Clamped against fields, not the module constants: V8 boxes a double merged with a module constant.

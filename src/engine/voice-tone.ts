@@ -63,8 +63,10 @@ export class VoiceTone {
 
   /** Advances the cutoff over `frames` without filtering (held, silent or virtual voices). */
   idle(frames: number): void {
-    const v = this.cutoffLog2.advance(this.target, frames);
-    if (Math.abs(v - this.target) < 1e-4) this.cutoffLog2.reset(this.target);
+    const sm = this.cutoffLog2;
+    sm.target = this.target;
+    sm.step(frames);
+    if (Math.abs(sm.value - this.target) < 1e-4) sm.reset(this.target);
   }
 
   /** Filters `frames` of `bufs` in place; `dry` (as many channels, ≥ frames) holds the unfiltered copy for a crossfade. */
@@ -82,15 +84,17 @@ export class VoiceTone {
     const changing = wasWet !== nowWet;
     if (changing) for (let ch = 0; ch < chans; ch++) copy(bufs[ch], dry[ch], frames);
     if (!wasWet) this.filter.reset();
-    const sr = this.sampleRate;
+    const sm = this.cutoffLog2;
+    const design = this.filter.design;
+    design[1] = TONE_Q;
+    design[2] = this.sampleRate;
+    sm.target = target;
     for (let off = 0; off < frames; off += TONE_SUB_BLOCK) {
       const n = frames - off < TONE_SUB_BLOCK ? frames - off : TONE_SUB_BLOCK;
-      let c = this.cutoffLog2.advance(target, n);
-      if (Math.abs(c - target) < 1e-4) {
-        this.cutoffLog2.reset(target);
-        c = target;
-      }
-      this.filter.setLowpass(Math.pow(2, c), TONE_Q, sr);
+      sm.step(n);
+      if (Math.abs(sm.value - target) < 1e-4) sm.reset(target);
+      design[0] = Math.pow(2, sm.value);
+      this.filter.applyDesign();
       this.filter.process(bufs, off, n);
     }
     if (changing) crossfade(bufs, dry, frames, nowWet);
