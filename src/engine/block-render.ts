@@ -44,6 +44,8 @@ function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset:
   snapshots.interpolate(tEnd);
   const input = core.input;
   input.timeScale = core.flow.valueAt(controls.flowTime(tEnd));
+  const clock = core.clock;
+  clock.now = tStart;
   const voices = core.voices;
   for (let i = 0; i < voices.length; i++) {
     const v = voices[i];
@@ -58,7 +60,7 @@ function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset:
     if (v.state === VOICE_FREE) continue;
     const p = v.params;
     const slot = p.sourceId === -1 ? -1 : p.sourceSlot;
-    const source = v.propagating ? propagateVoice(stage, v, slot, n, core.time, core.sampleRate, core.emission) : slot >= 0 ? snapshots.sourceAt(slot) : null;
+    const source = v.propagating ? propagateVoice(stage, v, slot, n, clock, core.emission) : slot >= 0 ? snapshots.sourceAt(slot) : null;
     input.group = p.group;
     input.baseRatio = p.ratio * p.rateFactor;
     input.gain = p.gain;

@@ -21,6 +21,7 @@ import { VoiceControls } from './voice-controls';
 import { VoiceEventRing } from './voice-events';
 import { GroupRoutes } from './group-routes';
 import { propagationSpeed, smoothingOf } from './engine-tuning';
+import { BlockClock } from './block-clock';
 
 /** Frozen defaults of the engine's options and fades. */
 export const engineDefaults = Object.freeze({
@@ -86,6 +87,8 @@ export class EngineCore {
   /** Targets of a voice about to start (the stealing decision, then copied into the voice). */
   readonly probe: VoiceTargets = createVoiceTargets();
   /** Emission-time state of a propagating voice's source, handed to the mapper (velocity 0: the Doppler is in the read). */
+  /** The engine clock of the block being rendered, handed to the voices' stages (allocation-free). */
+  readonly clock: BlockClock;
   readonly emission: MovingSource = { id: 0, position: { x: 0, y: 0, z: 0 }, velocity: { x: 0, y: 0, z: 0 } };
   /** Source id → snapshot slot, for the propagation stage. */
   readonly slotOf = (id: number): number => this.snapshots.find(id);
@@ -111,6 +114,7 @@ export class EngineCore {
     const sr = options.sampleRate;
     if (!(sr >= 8000 && sr <= 192000)) throw new RangeError(`EngineOptions.sampleRate must be 8000…192000 Hz, got ${sr}`);
     this.sampleRate = sr;
+    this.clock = new BlockClock(sr);
     this.capacity = checkRange('capacity', options.capacity ?? engineDefaults.capacity, 1, 1024);
     this.maxBlock = checkRange('maxBlockFrames', options.maxBlockFrames ?? engineDefaults.maxBlockFrames, 1, 16384);
     const maxSources = checkRange('maxSources', options.maxSources ?? engineDefaults.maxSources, 1, 4096);

@@ -6,6 +6,7 @@ import type { AirAbsorption } from '../motion';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { PropagationStage } from './propagation-stage';
 import type { Voice } from './voice';
+import type { BlockClock } from './block-clock';
 
 /** A propagating voice on a source no snapshot has named yet waits this long for it, then plays non-positioned, s. */
 export const SOURCE_WAIT_SECONDS = 0.25;
@@ -20,14 +21,14 @@ const AIR_OPEN_HZ = OPEN_CUTOFF_HZ * 0.999;
  * the source state at emission time for gains and panning, written into `emission` (null: non-positioned).
  */
 export function propagateVoice(
-  stage: PropagationStage, v: Voice, slot: number, n: number, now: number, sampleRate: number, emission: SourceState & { velocity: Vec3Like },
+  stage: PropagationStage, v: Voice, slot: number, n: number, clock: BlockClock, emission: SourceState & { velocity: Vec3Like },
 ): (SourceState & { velocity: Vec3Like }) | null {
   if (slot < 0) {
-    v.loseEmission(now, SOURCE_WAIT_SECONDS);
+    v.loseEmission(clock, SOURCE_WAIT_SECONDS);
     return null;
   }
   const sol = stage.now[slot];
-  v.followEmission(stage.before[slot], sol, n, now, sampleRate);
+  v.followEmission(stage.before[slot], sol, n, clock);
   emission.id = v.params.sourceId;
   emission.position.x = sol.position.x;
   emission.position.y = sol.position.y;
@@ -45,6 +46,9 @@ export function airStage(v: Voice, air: AirAbsorption): void {
   const cut = air.cutoffHz(t.distance);
   if (cut < AIR_ENGAGE_HZ) v.engageAir();
   if (!v.airEngaged) return;
-  if (cut < t.cutoffHz) t.cutoffHz = cut < AIR_OPEN_HZ ? cut : AIR_OPEN_HZ;
-  else if (t.cutoffHz > AIR_OPEN_HZ) t.cutoffHz = AIR_OPEN_HZ;
+  // Each branch stores its own value: V8 boxes a double merged with a module constant.
+  if (cut < t.cutoffHz) {
+    if (cut < AIR_OPEN_HZ) t.cutoffHz = cut;
+    else t.cutoffHz = AIR_OPEN_HZ;
+  } else if (t.cutoffHz > AIR_OPEN_HZ) t.cutoffHz = AIR_OPEN_HZ;
 }

@@ -5,6 +5,7 @@ import { StreamReader, type KernelPreference, type KernelTable, type StreamSourc
 import type { Hz, Seconds } from '../units';
 import { EMISSION_NONE, type EmissionSolution } from './emission-solver';
 import type { StretchStage } from './stretch-stage';
+import type { BlockClock } from './block-clock';
 
 /** A voice's read head and propagation arrival; allocation-free per block. */
 export class SourceRead {
@@ -61,8 +62,8 @@ export class SourceRead {
   }
 
   /** A voice whose source never appears in the snapshots plays, not positioned, once `waitSeconds` have passed since its start (engine time `now`, s). */
-  waitForSource(now: Seconds, waitSeconds: Seconds): void {
-    if (!this.arrived && now - this.startTime >= waitSeconds) this.arrived = true;
+  waitForSource(clock: BlockClock, waitSeconds: Seconds): void {
+    if (!this.arrived && clock.now - this.startTime >= waitSeconds) this.arrived = true;
   }
 
   /**
@@ -70,9 +71,11 @@ export class SourceRead {
    * the voice's start: at the sample where the emission time crosses it (interpolated from `pre`, the block's start), or
    * for a Mach cone at the cone's estimated arrival, skipping the emission it jumped over.
    */
-  arriveFrom(pre: EmissionSolution, sol: EmissionSolution, n: number, now: Seconds, sampleRate: Hz): void {
+  arriveFrom(pre: EmissionSolution, sol: EmissionSolution, n: number, clock: BlockClock): void {
     const start = this.startTime;
     if (this.arrived || sol.state === EMISSION_NONE || sol.tau < start) return;
+    const now = clock.now;
+    const sampleRate = clock.sampleRate;
     const span = sol.tau - pre.tau;
     const block = n / sampleRate;
     if (pre.state !== EMISSION_NONE && pre.tau < start && span > 0 && span < 8 * block) {

@@ -6,6 +6,7 @@ import { createVoiceTargets, type VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
 import type { StretchStage } from './stretch-stage';
 import type { EmissionSolution } from './emission-solver';
+import type { BlockClock } from './block-clock';
 import { VoiceEnvelope } from './voice-envelope';
 import { VoicePitch } from './voice-pitch';
 import { SourceRead } from './voice-source-read';
@@ -204,14 +205,14 @@ export class Voice {
    * A propagating voice's coming block of `n` frames from engine time `now` (s): its Doppler factors and its arrival
    * follow its source's emission-time solutions at the block's start (`pre`) and end (`sol`).
    */
-  followEmission(pre: EmissionSolution, sol: EmissionSolution, n: number, now: Seconds, sampleRate: Hz): void {
+  followEmission(pre: EmissionSolution, sol: EmissionSolution, n: number, clock: BlockClock): void {
     this.pitch.followEmission(pre, sol, this.isFresh);
-    this.source.arriveFrom(pre, sol, n, now, sampleRate);
+    this.source.arriveFrom(pre, sol, n, clock);
   }
 
   /** A propagating voice whose source is not in the snapshots: no Doppler, and after `waitSeconds` (s) it plays without waiting. */
-  loseEmission(now: Seconds, waitSeconds: Seconds): void {
-    this.source.waitForSource(now, waitSeconds);
+  loseEmission(clock: BlockClock, waitSeconds: Seconds): void {
+    this.source.waitForSource(clock, waitSeconds);
     this.pitch.loseEmission();
   }
 

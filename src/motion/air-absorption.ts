@@ -51,6 +51,9 @@ const TABLE_OCTAVES = Math.log2(96000 / TABLE_LOW_HZ);
  */
 export class AirAbsorption {
   private readonly alpha = new Float64Array(TABLE_STEPS + 1);
+  /** The distance `lookUp` reads, m, and the cutoff it writes, Hz (fields declared with doubles). */
+  private distance = 0.5;
+  private cutoff = 0.5;
 
   /** Tabulates α for `air`. */
   constructor(air: AirState) {
@@ -64,11 +67,31 @@ export class AirAbsorption {
 
   /** Cutoff for `distance` m: the frequency losing AIR_CUTOFF_LOSS_DB over it (96 kHz or more when nearly none). */
   cutoffHz(distance: Meters): Hz {
-    if (!(distance > 0)) return 96000;
+    this.distance = distance;
+    this.lookUp();
+    return this.cutoff;
+  }
+
+  /**
+   * `cutoffHz` with its double in a field and its result in `cutoff`: small enough for V8 to inline, the body takes
+   * and returns no double (V8 boxes one passed to or returned from a call it does not inline), each branch stores its own.
+   */
+  private lookUp(): void {
+    const distance = this.distance;
+    if (!(distance > 0)) {
+      this.cutoff = 96000;
+      return;
+    }
     const target = AIR_CUTOFF_LOSS_DB / distance;
     const a = this.alpha;
-    if (target >= a[TABLE_STEPS]) return 96000;
-    if (target <= a[0]) return TABLE_LOW_HZ;
+    if (target >= a[TABLE_STEPS]) {
+      this.cutoff = 96000;
+      return;
+    }
+    if (target <= a[0]) {
+      this.cutoff = TABLE_LOW_HZ;
+      return;
+    }
     let lo = 0;
     let hi = TABLE_STEPS;
     while (hi - lo > 1) {
@@ -78,7 +101,7 @@ export class AirAbsorption {
     }
     // Interpolate log α against log f (α ∝ f^k locally).
     const u = Math.log(target / a[lo]) / Math.log(a[hi] / a[lo]);
-    return this.frequency(lo + u);
+    this.cutoff = TABLE_LOW_HZ * Math.pow(2, ((lo + u) / TABLE_STEPS) * TABLE_OCTAVES);
   }
 
   private frequency(i: number): Hz {

@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { SourceRead } from '../../src/engine/voice-source-read';
 import { KernelTable } from '../../src/dsp';
 import { createEmissionSolution, EMISSION_HISTORY } from '../../src/engine/emission-solver';
+import { BlockClock } from '../../src/engine/block-clock';
 
 const table = KernelTable.forTier('draft', 48000);
 const sound = [new Float32Array(48000)];
@@ -63,7 +64,7 @@ describe('SourceRead', () => {
     pre.state = sol.state = EMISSION_HISTORY;
     pre.tau = preTau;
     sol.tau = tau;
-    s.arriveFrom(pre, sol, 128, 0, 48000);
+    s.arriveFrom(pre, sol, 128, new BlockClock(48000));
     expect(s.arrived).toBe(true);
     // k = floor(n · (start − τ_pre) / (τ − τ_pre)), the crossing of a linear emission time
     expect(s.silentFrames).toBe(silent);
@@ -72,9 +73,12 @@ describe('SourceRead', () => {
   it('a voice whose source never appears plays after the wait, not before', () => {
     const s = new SourceRead(table, 'typescript');
     s.start(sound, { startFrame: 0 }, true, 1);
-    s.waitForSource(1.2, 0.25);
+    const clock = new BlockClock(48000);
+    clock.now = 1.2;
+    s.waitForSource(clock, 0.25);
     expect(s.arrived).toBe(false);
-    s.waitForSource(1.25, 0.25);
+    clock.now = 1.25;
+    s.waitForSource(clock, 0.25);
     expect(s.arrived).toBe(true);
   });
 });
