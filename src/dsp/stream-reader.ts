@@ -135,13 +135,33 @@ export class StreamReader {
 
   /** Writes `frames` samples to out[c][outOffset…] for each source channel; output sample i uses ratio ratioStart + (ratioEnd − ratioStart)·i/frames. */
   read(out: readonly Float32Array[], outOffset: number, frames: number, ratioStart: number, ratioEnd: number): void {
-    const rs = this.cur.sanitize(ratioStart);
-    const re = this.cur.sanitize(ratioEnd);
+    this.rampStart = ratioStart;
+    this.rampEnd = ratioEnd;
+    this.readRamp(out, outOffset, frames);
+  }
+
+  /**
+   * Ratio at the first sample and at the end of the next `readRamp` or `skipRamp` (clamped like `read`'s): the render
+   * path sets these, then calls, since V8 boxes a double passed to a call it does not inline (docs/allocation.md).
+   */
+  rampStart = 0.5;
+  /** See rampStart. */
+  rampEnd = 0.5;
+  // The block loop's ratio ramp (start, change over the block), handed to `render` in fields for the same reason.
+  private rs = 0.5;
+  private dr = 0.5;
+
+  /** `read` with its ratios in `rampStart`/`rampEnd`. */
+  readRamp(out: readonly Float32Array[], outOffset: number, frames: number): void {
+    const rs = this.cur.sanitize(this.rampStart);
+    const re = this.cur.sanitize(this.rampEnd);
     if (rs === 1 && re === 1 && this.cur.pos === Math.floor(this.cur.pos)) {
       this.cur.copyThrough(out, outOffset, frames);
       return;
     }
-    this.render(out, outOffset, frames, rs, re - rs, null, 0);
+    this.rs = rs;
+    this.dr = re - rs;
+    this.render(out, outOffset, frames, null, 0);
   }
 
   /** Like `read`, with one ratio per output sample from ratios[ratiosOffset…]. */
@@ -152,11 +172,15 @@ export class StreamReader {
       this.cur.copyThrough(out, outOffset, frames);
       return;
     }
-    this.render(out, outOffset, frames, 0, 0, ratios, ratiosOffset);
+    this.rs = 0;
+    this.dr = 0;
+    this.render(out, outOffset, frames, ratios, ratiosOffset);
   }
 
   /** The block loop: ratio per sample from (rs, dr) or from `ratios`; a mono in-range fast path, the general path otherwise. */
-  private render(out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
+  private render(out: readonly Float32Array[], o: number, frames: number, ratios: Float32Array | null, ro: number): void {
+    const rs = this.rs;
+    const dr = this.dr;
     // With no source set there is nothing to hand the module: the reference path reads its defined silence.
     const cur = this.cur;
     if (this.wasm !== null && cur.channelsInUse > 0) {
@@ -246,8 +270,15 @@ export class StreamReader {
 
   /** Advances the position exactly as `read` with the same arguments would, without output (virtual voices). */
   skip(frames: number, ratioStart: number, ratioEnd: number): void {
-    const rs = this.cur.sanitize(ratioStart);
-    const re = this.cur.sanitize(ratioEnd);
+    this.rampStart = ratioStart;
+    this.rampEnd = ratioEnd;
+    this.skipRamp(frames);
+  }
+
+  /** `skip` with its ratios in `rampStart`/`rampEnd`. */
+  skipRamp(frames: number): void {
+    const rs = this.cur.sanitize(this.rampStart);
+    const re = this.cur.sanitize(this.rampEnd);
     if (rs === 1 && re === 1 && this.cur.pos === Math.floor(this.cur.pos)) {
       for (let i = 0; i < frames; i++) this.cur.advance(1);
       return;

@@ -53,22 +53,34 @@ export class StretchStage {
   }
 
   // Doubles handed to the bodies below in fields, not as arguments or return values: V8 boxes a double passed to or
-  // returned from a call it does not inline (docs/allocation.md).
-  private speedStart = 0.5;
-  private speedEnd = 0.5;
-  private dopplerCents = 0.5;
+  // returned from a call it does not inline (docs/allocation.md). The render path sets the first three, then calls.
+  /** Read speed at the block's start, playback ratio. */
+  speedStart = 0.5;
+  /** Read speed at the block's end, playback ratio. */
+  speedEnd = 0.5;
+  /** The voice's smoothed Doppler part, cents. */
+  dopplerCents = 0.5;
   private endPitch = 0.5;
 
-  private readBlock(out: readonly Float32Array[], frames: number, targets: VoiceTargets): void {
+  /** `read` with its speeds and Doppler part in the fields above. */
+  readBlock(out: readonly Float32Array[], frames: number, targets: VoiceTargets): void {
     this.pitchAt(targets, frames);
-    this.reader.read(out, 0, frames, this.speedStart, this.speedEnd, this.startPitch, this.endPitch);
+    const r = this.reader;
+    r.speedStart = this.speedStart;
+    r.speedEnd = this.speedEnd;
+    r.pitchStart = this.startPitch;
+    r.pitchEnd = this.endPitch;
+    r.readBlock(out, 0, frames);
     this.startPitch = this.endPitch;
   }
 
-  private skipBlock(frames: number, targets: VoiceTargets): void {
+  /** `skip` with its speeds and Doppler part in the fields above. */
+  skipBlock(frames: number, targets: VoiceTargets): void {
     this.pitchAt(targets, frames);
     this.startPitch = this.endPitch;
-    this.reader.skip(frames, this.speedStart, this.speedEnd);
+    this.reader.speedStart = this.speedStart;
+    this.reader.speedEnd = this.speedEnd;
+    this.reader.skipBlock(frames);
   }
 
   /** True once a one-shot has played out. */

@@ -43,7 +43,9 @@ export function propagateVoice(
  */
 export function airStage(v: Voice, air: AirAbsorption): void {
   const t = v.targets;
-  const cut = air.cutoffHz(t.distance);
+  air.distance = t.distance;
+  air.lookUp();
+  const cut = air.cutoff;
   if (cut < AIR_ENGAGE_HZ) v.engageAir();
   if (!v.airEngaged) return;
   // Each branch stores its own value: V8 boxes a double merged with a module constant.

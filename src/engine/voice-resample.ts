@@ -11,17 +11,38 @@ import type { VoicePitch } from './voice-pitch';
  * linear ratio ramp of the block.
  */
 export function resampleBlock(source: SourceRead, pitch: VoicePitch, bufs: readonly Float32Array[], frames: number, ratios: Float32Array, silentFrames: number, targets: VoiceTargets): void {
-  if (source.stretch !== null) source.stretch.read(bufs, frames, pitch.blockStart, pitch.current, targets, pitch.dopplerCents.value);
-  else if (source.propagating) {
+  // Doubles go over in the callees' fields: V8 boxes a double passed to a call it does not inline (docs/allocation.md).
+  const stretch = source.stretch;
+  if (stretch !== null) {
+    stretch.speedStart = pitch.blockStart;
+    stretch.speedEnd = pitch.current;
+    stretch.dopplerCents = pitch.dopplerCents.value;
+    stretch.readBlock(bufs, frames, targets);
+  } else if (source.propagating) {
     source.reader.readRatios(bufs, 0, frames, ratios, 0);
     // Before the arrival sample nothing has reached the listener yet.
     for (let c = 0; c < bufs.length; c++) bufs[c].fill(0, 0, silentFrames);
-  } else source.reader.read(bufs, 0, frames, pitch.blockStart, pitch.current);
+  } else {
+    const reader = source.reader;
+    reader.rampStart = pitch.blockStart;
+    reader.rampEnd = pitch.current;
+    reader.readRamp(bufs, 0, frames);
+  }
 }
 
 /** Advances `source` as `resampleBlock` would, without output (a virtual voice); `advance`: a propagating voice's frames read. */
 export function skipBlock(source: SourceRead, pitch: VoicePitch, frames: number, advance: number, targets: VoiceTargets): void {
-  if (source.stretch !== null) source.stretch.skip(frames, pitch.blockStart, pitch.current, targets, pitch.dopplerCents.value);
-  else if (source.propagating) source.reader.position = source.reader.position + advance;
-  else source.reader.skip(frames, pitch.blockStart, pitch.current);
+  const stretch = source.stretch;
+  if (stretch !== null) {
+    stretch.speedStart = pitch.blockStart;
+    stretch.speedEnd = pitch.current;
+    stretch.dopplerCents = pitch.dopplerCents.value;
+    stretch.skipBlock(frames, targets);
+  } else if (source.propagating) source.reader.position = source.reader.position + advance;
+  else {
+    const reader = source.reader;
+    reader.rampStart = pitch.blockStart;
+    reader.rampEnd = pitch.current;
+    reader.skipRamp(frames);
+  }
 }

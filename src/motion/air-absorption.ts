@@ -51,9 +51,10 @@ const TABLE_OCTAVES = Math.log2(96000 / TABLE_LOW_HZ);
  */
 export class AirAbsorption {
   private readonly alpha = new Float64Array(TABLE_STEPS + 1);
-  /** The distance `lookUp` reads, m, and the cutoff it writes, Hz (fields declared with doubles). */
-  private distance = 0.5;
-  private cutoff = 0.5;
+  /** The distance `lookUp` reads, m (a field declared with a double). */
+  distance = 0.5;
+  /** The cutoff `lookUp` wrote, Hz (100…96000). */
+  cutoff = 0.5;
 
   /** Tabulates α for `air`. */
   constructor(air: AirState) {
@@ -73,10 +74,10 @@ export class AirAbsorption {
   }
 
   /**
-   * `cutoffHz` with its double in a field and its result in `cutoff`: small enough for V8 to inline, the body takes
-   * and returns no double (V8 boxes one passed to or returned from a call it does not inline), each branch stores its own.
+   * `cutoffHz` of the `distance` field into the `cutoff` field: the render path's form, taking and returning no double
+   * (V8 boxes one passed to or returned from a call it does not inline); each branch stores its own value.
    */
-  private lookUp(): void {
+  lookUp(): void {
     const distance = this.distance;
     if (!(distance > 0)) {
       this.cutoff = 96000;

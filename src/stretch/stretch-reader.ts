@@ -50,10 +50,14 @@ export class StretchReader {
   private clamps = 0;
   // Doubles handed to the bodies of read, skip, startGrain and advance in fields, not as arguments: V8 boxes a double
   // passed to or returned from a call it does not inline (docs/allocation.md).
-  private speedStart = 0.5;
-  private speedEnd = 0.5;
-  private pitchStart = 0.5;
-  private pitchEnd = 0.5;
+  /** Read speed at the start of the next `readBlock`/`skipBlock`, playback ratio (the render path sets it, then calls). */
+  speedStart = 0.5;
+  /** Read speed at the block's end, playback ratio. */
+  speedEnd = 0.5;
+  /** Pitch ratio at the start of the next `readBlock`. */
+  pitchStart = 0.5;
+  /** Pitch ratio at the block's end. */
+  pitchEnd = 0.5;
   private grainSpeed = 0.5;
   private grainPitch = 0.5;
   private step = 0.5;
@@ -149,8 +153,8 @@ export class StretchReader {
     this.readBlock(out, outOffset, frames);
   }
 
-  /** The body of `read`, with the speed and pitch ramps in fields. */
-  private readBlock(out: readonly Float32Array[], outOffset: number, frames: number): void {
+  /** The body of `read`, with the speed and pitch ramps in fields (V8 boxes a double passed to a call it does not inline). */
+  readBlock(out: readonly Float32Array[], outOffset: number, frames: number): void {
     this.clampRamps();
     const ss = this.speedStart;
     const ds = this.speedEnd - ss;
@@ -171,8 +175,15 @@ export class StretchReader {
       const p1 = ps + (dp * (done + n)) / frames;
       const gNew = this.grains[this.newer];
       const gOld = this.grains[1 - this.newer];
-      this.readers[this.newer].read(gNew, 0, n, p0, p1);
-      this.readers[1 - this.newer].read(gOld, 0, n, p0, p1);
+      // The ratios in the readers' fields: V8 boxes a double passed to a call it does not inline.
+      const rNew = this.readers[this.newer];
+      rNew.rampStart = p0;
+      rNew.rampEnd = p1;
+      rNew.readRamp(gNew, 0, n);
+      const rOld = this.readers[1 - this.newer];
+      rOld.rampStart = p0;
+      rOld.rampEnd = p1;
+      rOld.readRamp(gOld, 0, n);
       const ph = this.phase;
       for (let c = 0; c < chans; c++) {
         const y = out[c];
@@ -195,8 +206,8 @@ export class StretchReader {
     this.skipBlock(frames);
   }
 
-  /** The body of `skip`. */
-  private skipBlock(frames: number): void {
+  /** The body of `skip`, with the speeds in fields. */
+  skipBlock(frames: number): void {
     this.pitchStart = 1;
     this.pitchEnd = 1;
     this.clampRamps();
