@@ -36,10 +36,32 @@ export class Curve {
 
   /** Value at x; clamped to the first/last key's y outside the keys; NaN x gives the first key's y. */
   evaluate(x: number): number {
+    this.x = x;
+    this.lookUp();
+    return this.y;
+  }
+
+  /** The x that `lookUp` reads (a field declared with a double). */
+  x = 0.5;
+  /** The value `lookUp` wrote: evaluate(x). */
+  y = 0.5;
+
+  /**
+   * `evaluate` of the `x` field into the `y` field: the render path's form, taking and returning no double (V8 boxes
+   * one passed to or returned from a call it does not inline; docs/allocation.md).
+   */
+  lookUp(): void {
+    const x = this.x;
     const xs = this.xs;
     const n = xs.length;
-    if (!(x > xs[0])) return this.ys[0];
-    if (x >= xs[n - 1]) return this.ys[n - 1];
+    if (!(x > xs[0])) {
+      this.y = this.ys[0];
+      return;
+    }
+    if (x >= xs[n - 1]) {
+      this.y = this.ys[n - 1];
+      return;
+    }
     // Binary search for the interval [xs[lo], xs[lo + 1]) containing x.
     let lo = 0;
     let hi = n - 1;
@@ -53,7 +75,10 @@ export class Curve {
     const t = (x - x0) / h;
     const y0 = this.ys[lo];
     const y1 = this.ys[lo + 1];
-    if (!this.monotone) return y0 + (y1 - y0) * t;
+    if (!this.monotone) {
+      this.y = y0 + (y1 - y0) * t;
+      return;
+    }
     // Cubic Hermite basis.
     const t2 = t * t;
     const t3 = t2 * t;
@@ -61,8 +86,9 @@ export class Curve {
     const h10 = t3 - 2 * t2 + t;
     const h01 = -2 * t3 + 3 * t2;
     const h11 = t3 - t2;
-    return h00 * y0 + h10 * h * this.tangents[lo] + h01 * y1 + h11 * h * this.tangents[lo + 1];
+    this.y = h00 * y0 + h10 * h * this.tangents[lo] + h01 * y1 + h11 * h * this.tangents[lo + 1];
   }
+
 }
 
 /**

@@ -1,7 +1,7 @@
 // Group policies: how a group's voices respond to the time scale, compiled once from the tuning.
 import type { GroupPolicy, GroupTuning, MotionModel } from '../tuning';
 import { Curve } from './curve';
-import { centsToRatio, dbToGain } from '../dsp';
+import { centsToRatioAt, dbToGainAt } from '../dsp';
 
 /** Whether voices of a policy change speed with the time scale: 'follow-time' (pitch too) and 'stretch' (pitch apart). */
 export function policyFollowsSpeed(policy: GroupPolicy): boolean {
@@ -52,17 +52,45 @@ export class CompiledGroup {
   cachedLevelGain = 1;
   /** 2^(stretchPitch(cachedScale)/1200) for 'stretch' groups: the pitch ratio apart from Doppler; else cachedSpeed. */
   cachedPitch = 1;
+  /** One slot for the in-place unit conversions (dbToGainAt, centsToRatioAt). */
+  private readonly unit = new Float64Array(1);
 
   /** Evaluates the curves at time scale s (0…4) into the cached fields; reuses them when s is unchanged. */
   evaluateAt(s: number, minCutoffHz: number, openCutoffHz: number): void {
     if (s === this.cachedScale) return;
     this.cachedScale = s;
-    this.cachedSpeed = this.followsSpeed ? this.pitch.evaluate(s) : 1;
-    this.cachedPitch = this.stretches ? centsToRatio(this.stretchPitch.evaluate(s)) : this.cachedSpeed;
+    // Curves read and write their doubles in fields, and each branch stores its own value: V8 boxes a double passed to
+    // or returned from a call it does not inline, and one merged with a constant (docs/allocation.md).
+    if (this.followsSpeed) {
+      const pitch = this.pitch;
+      pitch.x = s;
+      pitch.lookUp();
+      this.cachedSpeed = pitch.y;
+    } else this.cachedSpeed = 1;
+    if (this.stretches) {
+      const sp = this.stretchPitch;
+      sp.x = s;
+      sp.lookUp();
+      const u = this.unit;
+      u[0] = sp.y;
+      centsToRatioAt(u, 0);
+      this.cachedPitch = u[0];
+    } else this.cachedPitch = this.cachedSpeed;
     if (this.appliesTone) {
-      const c = this.tone.evaluate(s);
-      this.cachedCutoffHz = c < minCutoffHz ? minCutoffHz : c > openCutoffHz ? openCutoffHz : c;
-      this.cachedLevelGain = dbToGain(this.level.evaluate(s));
+      const tone = this.tone;
+      tone.x = s;
+      tone.lookUp();
+      const c = tone.y;
+      if (c < minCutoffHz) this.cachedCutoffHz = minCutoffHz;
+      else if (c > openCutoffHz) this.cachedCutoffHz = openCutoffHz;
+      else this.cachedCutoffHz = c;
+      const level = this.level;
+      level.x = s;
+      level.lookUp();
+      const u = this.unit;
+      u[0] = level.y;
+      dbToGainAt(u, 0);
+      this.cachedLevelGain = u[0];
     } else {
       this.cachedCutoffHz = openCutoffHz;
       this.cachedLevelGain = 1;

@@ -76,6 +76,7 @@ export class TargetMapper {
   // Non-small-integer constants copied into fields: in an ES module, reading a module-level double
   // constant on the hot path made V8 allocate a heap number per call (measured by bench/mapping.bench.ts).
   private readonly minRatio: number = MIN_TARGET_RATIO;
+  private readonly maxTargetRatio: number = MAX_TARGET_RATIO;
   private readonly maxCoordinate: number = MAX_COORDINATE;
   private readonly maxRadialSpeed: number = MAX_RADIAL_SPEED;
   private readonly gameClockMinScale: number = GAME_CLOCK_MIN_TIME_SCALE;
@@ -186,18 +187,19 @@ export class TargetMapper {
     let ratio = base * speed * out.doppler;
     const minRatio = this.minRatio;
     out.frozen = g.followsSpeed && !g.holdsWhenFrozen && !(ratio >= minRatio);
-    if (!(ratio >= minRatio)) ratio = minRatio;
-    else if (ratio > MAX_TARGET_RATIO) {
-      ratio = MAX_TARGET_RATIO;
+    // Each branch stores its own value: V8 boxes a double merged with a constant (docs/allocation.md).
+    const maxRatio = this.maxTargetRatio;
+    if (!(ratio >= minRatio)) out.ratio = minRatio;
+    else if (ratio > maxRatio) {
+      out.ratio = maxRatio;
       this.clamps += 1;
-    }
-    out.ratio = ratio;
+    } else out.ratio = ratio;
     if (g.stretches) {
-      let pitch = base * g.cachedPitch * out.doppler;
-      if (pitch > MAX_TARGET_RATIO) pitch = MAX_TARGET_RATIO;
-      else if (!(pitch >= minRatio)) pitch = minRatio;
-      out.pitch = pitch;
-    } else out.pitch = ratio;
+      const pitch = base * g.cachedPitch * out.doppler;
+      if (pitch > maxRatio) out.pitch = maxRatio;
+      else if (!(pitch >= minRatio)) out.pitch = minRatio;
+      else out.pitch = pitch;
+    } else out.pitch = out.ratio;
     return out;
   }
 

@@ -33,3 +33,16 @@ export function gainToDbFloor(gain: number): Decibels {
 export function dbToGainFloor(db: Decibels): number {
   return db <= -119.99 ? 0 : Math.pow(10, db / 20); // dbToGain's formula and DB_FLOOR + 0.01 written out (as above)
 }
+
+// In-place forms for the render path: V8 boxes a double passed to or returned from a call it does not inline (a caller
+// past its inlining budget), so these take the value in a Float64Array slot and write the result back (docs/allocation.md).
+
+/** a[i] = dbToGain(a[i]), in place. */
+export function dbToGainAt(a: Float64Array, i: number): void {
+  a[i] = Math.pow(10, a[i] / 20);
+}
+
+/** a[i] = centsToRatio(a[i]), in place. */
+export function centsToRatioAt(a: Float64Array, i: number): void {
+  a[i] = Math.pow(2, a[i] / 1200);
+}
