@@ -4,8 +4,14 @@ import type { Seconds } from '../units';
 
 /** Maps host time to time-flow time, stopping while paused; a pure function of the pause/resume calls. */
 export class PauseClock {
-  private pausedAt: Seconds = 0;
-  private offset: Seconds = 0;
+  /** A running clock with no time paused. */
+  constructor() {
+    this.pausedAt = 0;
+    this.offset = 0;
+  }
+
+  private pausedAt: Seconds = 0.5;
+  private offset: Seconds = 0.5;
   private paused = false;
 
   /** True while paused. */
@@ -29,7 +35,21 @@ export class PauseClock {
 
   /** Time-flow time at host time `t` (s): t minus the paused time, held at the pause instant while paused. */
   flowTime(t: Seconds): Seconds {
-    return (this.paused && t > this.pausedAt ? this.pausedAt : t) - this.offset;
+    this.host = t;
+    this.mapHost();
+    return this.flow;
+  }
+
+  /** The host time `mapHost` reads, s (a field declared with a double). */
+  host = 0.5;
+  /** The time-flow time `mapHost` wrote, s: flowTime(host). */
+  flow = 0.5;
+
+  /** `flowTime` of the `host` field into the `flow` field (no double passed or returned: docs/allocation.md). */
+  mapHost(): void {
+    const t = this.host;
+    if (this.paused && t > this.pausedAt) this.flow = this.pausedAt - this.offset;
+    else this.flow = t - this.offset;
   }
 
   /** Host time `t` (s) of a request → time-flow time: a request made while paused starts when the clock runs again. */

@@ -25,27 +25,58 @@ export function clampTimeScale(value: number): number {
 
 /** Eases u ∈ [0, 1] from `from` to `to`. */
 export function easeValue(from: number, to: number, u: number, easing: Easing): number {
-  if (u <= 0) return from;
-  if (u >= 1) return to;
-  if (easing === 'smooth') return from + (to - from) * u * u * (3 - 2 * u);
-  if (easing === 'exponential') {
-    const a = from > EXPONENTIAL_FLOOR ? from : EXPONENTIAL_FLOOR;
-    const b = to > EXPONENTIAL_FLOOR ? to : EXPONENTIAL_FLOOR;
+  const io = EASE_SCRATCH;
+  io[0] = from;
+  io[1] = to;
+  io[2] = u;
+  easeInto(io, easing);
+  return io[3];
+}
+
+/** The doubles of `easeValue` handed to easeInto. */
+const EASE_SCRATCH = easeScratch();
+
+/** A Float64Array for easeInto: [from, to, u, result, EXPONENTIAL_FLOOR] (the floor as a double, not a module constant). */
+function easeScratch(): Float64Array {
+  const io = new Float64Array(5);
+  io[4] = EXPONENTIAL_FLOOR;
+  return io;
+}
+
+/**
+ * `easeValue` of io = [from, to, u] into io[3]: its doubles in a Float64Array, since V8 boxes a double passed to or
+ * returned from a call it does not inline (docs/allocation.md); each branch stores its own value.
+ */
+function easeInto(io: Float64Array, easing: Easing): void {
+  const from = io[0];
+  const to = io[1];
+  const u = io[2];
+  if (u <= 0) io[3] = from;
+  else if (u >= 1) io[3] = to;
+  else if (easing === 'smooth') io[3] = from + (to - from) * u * u * (3 - 2 * u);
+  else if (easing === 'exponential') {
+    const floor = io[4];
+    const a = from > floor ? from : floor;
+    const b = to > floor ? to : floor;
     let v = a * Math.pow(b / a, u);
     // Values under the floor: blend linearly toward the true endpoint near the ends so the ramp starts/ends exactly.
-    if (from < EXPONENTIAL_FLOOR) v += (from - a) * (1 - u);
-    if (to < EXPONENTIAL_FLOOR) v += (to - b) * u;
-    return v;
-  }
-  return from + (to - from) * u;
+    if (from < floor) v += (from - a) * (1 - u);
+    if (to < floor) v += (to - b) * u;
+    io[3] = v;
+  } else io[3] = from + (to - from) * u;
 }
 
 /** The global time scale over time: the current ramp (start, duration, easing, endpoints), evaluated on demand. */
 export class TimeFlow {
   /** Requests whose target, ramp or start time were non-finite or out of range and were clamped. */
   clamps = 0;
-  private from: number;
-  private to: number;
+  private from = 0.5;
+  private to = 0.5;
+  /** The time `lookUp` reads, s (a field declared with a double). */
+  time = 0.5;
+  /** The time scale `lookUp` wrote: valueAt(time). */
+  value = 0.5;
+  private readonly io = easeScratch();
   private start: Seconds = 0;
   private duration: Seconds = 0;
   private easing: Easing = 'linear';
@@ -101,10 +132,32 @@ export class TimeFlow {
 
   /** Time scale at `time` (s): the start value up to the ramp start (and for NaN), eased during it, the target after; within 0…4. */
   valueAt(time: Seconds): number {
-    if (this.duration <= 0) return time >= this.start ? this.to : this.from;
-    if (!(time > this.start)) return this.from;
-    const u = (time - this.start) / this.duration;
-    return easeValue(this.from, this.to, u, this.easing);
+    this.time = time;
+    this.lookUp();
+    return this.value;
+  }
+
+  /**
+   * `valueAt` of the `time` field into the `value` field: the render path's form, taking and returning no double (V8
+   * boxes one passed to or returned from a call it does not inline; docs/allocation.md).
+   */
+  lookUp(): void {
+    const time = this.time;
+    if (this.duration <= 0) {
+      if (time >= this.start) this.value = this.to;
+      else this.value = this.from;
+      return;
+    }
+    if (!(time > this.start)) {
+      this.value = this.from;
+      return;
+    }
+    const io = this.io;
+    io[0] = this.from;
+    io[1] = this.to;
+    io[2] = (time - this.start) / this.duration;
+    easeInto(io, this.easing);
+    this.value = io[3];
   }
 
   private clampCounted(value: number): number {

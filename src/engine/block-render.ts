@@ -43,7 +43,14 @@ function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset:
   const tEnd = (core.frameCount + n) / core.sampleRate;
   snapshots.interpolate(tEnd);
   const input = core.input;
-  input.timeScale = core.flow.valueAt(controls.flowTime(tEnd));
+  // Doubles go over in the callees' fields: V8 boxes a double passed to or returned from a call it does not inline.
+  const pause = controls.clock;
+  const flow = core.flow;
+  pause.host = tEnd;
+  pause.mapHost();
+  flow.time = pause.flow;
+  flow.lookUp();
+  input.timeScale = flow.value;
   const clock = core.clock;
   clock.now = tStart;
   const voices = core.voices;
@@ -54,7 +61,14 @@ function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset:
     if (!snapshots.holds(p.sourceSlot, p.sourceId)) v.bindSourceSlot(snapshots.find(p.sourceId));
     if (v.propagating) stage.need(p.sourceSlot);
   }
-  stage.advance(tStart, tEnd, core.flow.valueAt(controls.flowTime(0.5 * (tStart + tEnd))));
+  pause.host = 0.5 * (tStart + tEnd);
+  pause.mapHost();
+  flow.time = pause.flow;
+  flow.lookUp();
+  stage.blockStart = tStart;
+  stage.blockEnd = tEnd;
+  stage.blockScale = flow.value;
+  stage.solveAll();
   for (let i = 0; i < voices.length; i++) {
     const v = voices[i];
     if (v.state === VOICE_FREE) continue;

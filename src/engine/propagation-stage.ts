@@ -58,15 +58,18 @@ export class PropagationStage {
   private readonly lv: Vec3Like = { x: 0, y: 0, z: 0 };
   private readonly sp: Vec3Like = { x: 0, y: 0, z: 0 };
   private readonly sv: Vec3Like = { x: 0, y: 0, z: 0 };
-  private blockStart: Seconds = 0;
+  /** Engine time at the start of the block `solveAll` solves, s (the render loop sets the three, then calls). */
+  blockStart: Seconds = 0.5;
   // Doubles handed to the bodies of push, advance and fillRatios in fields, not as arguments: V8 boxes a double passed
   // to or returned from a call it does not inline (docs/allocation.md); the public methods are small enough to inline.
   private pushNow: Seconds = 0.5;
   private pushInterval: Seconds = 0.5;
   private pushTime: Seconds = 0.5;
   private knot: Seconds = 0.5;
-  private blockEnd: Seconds = 0.5;
-  private blockScale = 0.5;
+  /** Engine time at the end of the block `solveAll` solves, s. */
+  blockEnd: Seconds = 0.5;
+  /** Time scale over that block (0…4). */
+  blockScale = 0.5;
   /** Inputs of `fillRamp`: the time ratio at the block's start and end, the Doppler factor at both, and its mean. */
   readonly ramp = new Float64Array(5);
   /** Source frames advanced by the last `fillRamp` (the sum of its ratios). */
@@ -169,7 +172,7 @@ export class PropagationStage {
   }
 
   /** The body of `advance`, over [blockStart, blockEnd] at `blockScale`. */
-  private solveAll(): void {
+  solveAll(): void {
     const start = this.blockStart;
     const end = this.blockEnd;
     const scale = this.blockScale;
