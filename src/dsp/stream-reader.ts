@@ -37,6 +37,8 @@ export class StreamReader {
   private readonly cur: ReadCursor;
   private readonly scratch: Float32Array[];
   private weights: Float64Array;
+  /** The phase fraction in [0] and a dot product in [1] handed to and from kernel-dot (no boxed doubles). */
+  private readonly dotIo = new Float64Array(2);
   /** The WebAssembly path, or null (TypeScript reference). */
   private readonly wasm: WasmReadPath | null;
 
@@ -337,14 +339,18 @@ export class StreamReader {
       useScratch = true;
     }
     const base = useScratch ? 0 : mLo;
+    const io = this.dotIo;
+    io[0] = f;
     if (chans === 1) {
       const x = useScratch ? this.scratch[0] : this.cur.sources[0];
-      out[0][o] = scale * (stride === 0 ? dotRows(t.phaseMajor, k0, t.taps, x, base, f) : dotStride(t.dense, k0, stride, x, base, count, f));
+      if (stride === 0) dotRows(t.phaseMajor, k0, t.taps, x, base, io);
+      else dotStride(t.dense, k0, stride, x, base, count, io);
+      out[0][o] = scale * io[1];
       return;
     }
     const w = this.weights;
-    if (stride === 0) fillRows(w, t.phaseMajor, k0, t.taps, f);
-    else fillStride(w, t.dense, k0, stride, count, f);
+    if (stride === 0) fillRows(w, t.phaseMajor, k0, t.taps, io);
+    else fillStride(w, t.dense, k0, stride, count, io);
     for (let c = 0; c < chans; c++) {
       const x = useScratch ? this.scratch[c] : this.cur.sources[c];
       let acc = 0;
