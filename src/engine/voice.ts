@@ -310,7 +310,7 @@ export class Voice {
     const k = scratch.wasm;
     if (k !== null) {
       // The same mix in the module (f64 lanes, the same operations): the buffers are views of its memory.
-      const finite = k.exports.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames, gl0, dgl, gr0, dgr);
+      const finite = k.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames, gl0, dgl, gr0, dgr);
       if (finite === 0) this.filter.reset();
       return this.alive(envEnd);
     }

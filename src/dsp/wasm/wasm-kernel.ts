@@ -1,9 +1,10 @@
 // Host side of the WebAssembly SIMD resample kernel (wasm/resample-kernel.ts): feature detection, instantiation,
-// a bump allocator over the module's memory, and the per-stride contiguous tables of each KernelTable.
+// a first-fit allocator with coalescing over the module's memory, and the per-stride contiguous tables of each KernelTable.
 import type { KernelTable } from '../kernel-table';
 import { MAX_RATIO } from '../quality-tiers';
 import { decodeBase64 } from './base64';
 import { kernelModuleBase64 } from './kernel-bytes.generated';
+import { MIX_PARAM_BYTES, MP_DGL, MP_DGR, MP_FRAMES, MP_GL0, MP_GR0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
 
 /** Which inner loop a reader runs: the WebAssembly SIMD kernel or the TypeScript reference. */
 export type KernelName = 'wasm-simd' | 'typescript';
@@ -30,8 +31,16 @@ export interface KernelExports {
   rowFloats(total: number, stride: number): number;
   diffFloats(halfDense: number, stride: number): number;
   buildStride(table: number, dense: number, total: number, stride: number, desc: number, rows: number, diffs: number): void;
-  mix(x0: number, x1: number, mixL: number, mixR: number, frames: number, gl0: number, dgl: number, gr0: number, dgr: number): number;
-  render(table: number, x0: number, x1: number, spanBase: number, out0: number, out1: number, pos: number, iStart: number, iEnd: number, frames: number, rs: number, dr: number, ratios: number, loopEnd: number, state: number): number;
+  /** Mixes one voice as described by the block at `params` (kernel-params.ts, MP_*); 1 when every input sample was finite. */
+  mix(params: number): number;
+  /** Renders a run as described by the block at `params` (kernel-params.ts, RP_*); returns the samples written. */
+  render(params: number): number;
+}
+
+/** Something holding views of module memory: told once after each growth (not polled per render). */
+export interface MemoryWatcher {
+  /** Rebuilds the holder's views of `kernel`'s memory (called right after it grew). */
+  memoryGrew(): void;
 }
 
 /** A placed table's bytes copied out of one module instance (`WasmKernel.imageOf`), transferable to another. */
@@ -84,8 +93,10 @@ export class WasmKernel {
   out0 = 0;
   out1 = 0;
   ratios = 0;
-  /** Byte offset of the render state written by the kernel: end position (f64), then the last stride (i32). */
-  state = 0;
+  /** Byte offset of the `render` parameter block (kernel-params.ts RP_*), written once per kernel call. */
+  renderParams = 0;
+  /** Byte offset of the `mix` parameter block (kernel-params.ts MP_*). */
+  mixParams = 0;
   /** outViews0[n] / outViews1[n]: the first n floats of out0 / out1 (n = 0…RUN_FRAMES), for allocation-free block copies. */
   readonly outViews0: Float32Array[] = [];
   readonly outViews1: Float32Array[] = [];
@@ -96,6 +107,7 @@ export class WasmKernel {
   /** Stride layouts built by this instance (`buildStride` calls); an installed image builds none. */
   stridesBuilt = 0;
   private top: number;
+  private readonly watchers: MemoryWatcher[] = [];
   private readonly tables = new Map<KernelTable, number>();
   /** Byte end of each table's region (header … last stride), for `imageOf`. */
   private readonly tableEnds = new Map<KernelTable, number>();
@@ -111,7 +123,8 @@ export class WasmKernel {
     this.out0 = this.alloc(RUN_FRAMES * 4);
     this.out1 = this.alloc(RUN_FRAMES * 4);
     this.ratios = this.alloc(RUN_FRAMES * 8);
-    this.state = this.alloc(16);
+    this.renderParams = this.alloc(RENDER_PARAM_BYTES);
+    this.mixParams = this.alloc(MIX_PARAM_BYTES);
     this.refreshViews();
   }
 
@@ -140,12 +153,15 @@ export class WasmKernel {
     if (known !== undefined) return known;
     const p = table.phases;
     const total = table.taps * p;
-    const header = this.alloc(32 + 8 * (p + 1));
-    const dense = this.alloc(4 * table.dense.length);
+    const headerBytes = align(32 + 8 * (p + 1));
+    const denseBytes = align(4 * table.dense.length);
     let bytes = 0;
     const halfDense = table.halfTaps * p;
     for (const s of table.strideGrid) bytes += align(32 * s) + align(4 * this.exports.rowFloats(total, s)) + align(4 * this.exports.diffFloats(halfDense, s));
-    const block = this.alloc(bytes);
+    // One region (header, dense, stride layouts), so that imageOf copies it whole and dropTable hands it back whole.
+    const header = this.take(headerBytes + denseBytes + bytes);
+    const dense = header + headerBytes;
+    const block = dense + denseBytes;
     const h = header >> 2;
     this.i32[h] = p;
     this.i32[h + 1] = table.halfTaps * p;
@@ -190,8 +206,14 @@ export class WasmKernel {
     if (this.tables.has(table)) return true;
     let job = this.installs.get(table);
     if (job === undefined || job.image !== image) {
-      job = { at: this.top, copied: 0, image };
-      this.top = align(this.top + image.bytes.length);
+      // A released region that fits (e.g. a closed engine's table) is reused; else the copy grows memory slice by slice.
+      const bytes = align(image.bytes.length);
+      let at = this.takeFree(bytes);
+      if (at < 0) {
+        at = this.top;
+        this.top = align(this.top + bytes);
+      }
+      job = { at, copied: 0, image };
       this.installs.set(table, job);
     }
     const n = Math.min(image.bytes.length - job.copied, Math.max(16, maxBytes));
@@ -235,10 +257,62 @@ export class WasmKernel {
     const smallest = table.strideGrid[table.strideGrid.length - 1];
     const need = spanFloatsFor(table.halfTaps * table.phases, smallest);
     if (need > this.spanFloats) {
-      this.span0 = this.alloc(4 * need);
-      this.span1 = this.alloc(4 * need);
+      if (this.spanFloats > 0) {
+        this.release(this.span0, 4 * this.spanFloats);
+        this.release(this.span1, 4 * this.spanFloats);
+      }
+      this.span0 = this.take(4 * need);
+      this.span1 = this.take(4 * need);
       this.spanFloats = need;
     }
+  }
+
+  /**
+   * Hands `table`'s region back (built or installed here) for reuse; the caller guarantees no reader still uses it
+   * (e.g. the worklet host drops the tables it installed when its engine is disposed). Unknown tables are ignored.
+   */
+  dropTable(table: KernelTable): void {
+    this.installs.delete(table);
+    const header = this.tables.get(table);
+    if (header === undefined) return;
+    this.release(header, (this.tableEnds.get(table) ?? header) - header);
+    this.tables.delete(table);
+    this.tableEnds.delete(table);
+  }
+
+  /** Mixes one voice in module memory (byte offsets; gains linear, ramped per sample); 0 when an input sample was not finite. */
+  mix(x0: number, x1: number, mixL: number, mixR: number, frames: number, gl0: number, dgl: number, gr0: number, dgr: number): number {
+    const p = this.mixParams;
+    const i32 = this.i32;
+    const f64 = this.f64;
+    i32[(p + MP_X0) >> 2] = x0;
+    i32[(p + MP_X1) >> 2] = x1;
+    i32[(p + MP_MIX_L) >> 2] = mixL;
+    i32[(p + MP_MIX_R) >> 2] = mixR;
+    i32[(p + MP_FRAMES) >> 2] = frames;
+    f64[(p + MP_GL0) >> 3] = gl0;
+    f64[(p + MP_DGL) >> 3] = dgl;
+    f64[(p + MP_GR0) >> 3] = gr0;
+    f64[(p + MP_DGR) >> 3] = dgr;
+    return this.exports.mix(p);
+  }
+
+  /** Tells `w` after every growth of module memory, until `unwatch(w)`. */
+  watch(w: MemoryWatcher): void {
+    if (!this.watchers.includes(w)) this.watchers.push(w);
+  }
+
+  /** Stops telling `w` about growth. */
+  unwatch(w: MemoryWatcher): void {
+    const i = this.watchers.indexOf(w);
+    if (i >= 0) this.watchers.splice(i, 1);
+  }
+
+  /** Bytes of module memory handed out and not given back (tables, scratch, resident sources, parameter blocks). */
+  get bytesInUse(): number {
+    let free = 0;
+    for (let k = 0; k < this.freeBytes.length; k++) free += this.freeBytes[k];
+    return this.top - align(this.exports.heapBase()) - free;
   }
 
   /**
@@ -275,14 +349,40 @@ export class WasmKernel {
     this.residentEpoch++;
   }
 
-  /** Returns `bytes` at byte offset `at` (from `allocFloats`) for reuse. */
+  /** Returns `bytes` at byte offset `at` (from `allocFloats`) for reuse; merged with free neighbours, the top lowered when it ends there. */
   release(at: number, bytes: number): void {
-    this.freeAt.push(at);
-    this.freeBytes.push(align(bytes));
+    let start = at;
+    let end = at + align(bytes);
+    // Free blocks are kept sorted by address: find the insertion point, then merge with the blocks either side.
+    let k = 0;
+    while (k < this.freeAt.length && this.freeAt[k] < start) k++;
+    if (k > 0 && this.freeAt[k - 1] + this.freeBytes[k - 1] === start) {
+      k--;
+      start = this.freeAt[k];
+      this.freeAt.splice(k, 1);
+      this.freeBytes.splice(k, 1);
+    }
+    if (k < this.freeAt.length && this.freeAt[k] === end) {
+      end += this.freeBytes[k];
+      this.freeAt.splice(k, 1);
+      this.freeBytes.splice(k, 1);
+    }
+    if (end === this.top && this.installs.size === 0) {
+      this.top = start;
+      return;
+    }
+    this.freeAt.splice(k, 0, start);
+    this.freeBytes.splice(k, 0, end - start);
   }
 
   /** First fit among released blocks, else new memory at the top (may grow memory; throws RangeError when it cannot). */
   private take(bytes: number): number {
+    const at = this.takeFree(align(bytes));
+    return at >= 0 ? at : this.alloc(bytes);
+  }
+
+  /** First fit of `bytes` (aligned) among released blocks, or −1. */
+  private takeFree(bytes: number): number {
     for (let k = 0; k < this.freeAt.length; k++) {
       if (this.freeBytes[k] < bytes) continue;
       const at = this.freeAt[k];
@@ -294,7 +394,7 @@ export class WasmKernel {
       }
       return at;
     }
-    return this.alloc(bytes);
+    return -1;
   }
 
   /** Byte offset of `x`'s resident copy, or 0 when it has none. */
@@ -329,6 +429,7 @@ export class WasmKernel {
     return at;
   }
 
+  /** Renews the views after a growth (called by the allocator, which is where memory grows) and tells the watchers. */
   private refresh(): void {
     const buf = this.exports.memory.buffer;
     if (this.f32 !== undefined && this.f32.buffer === buf) return;
@@ -336,6 +437,7 @@ export class WasmKernel {
     this.f64 = new Float64Array(buf);
     this.i32 = new Int32Array(buf);
     if (this.out1 !== 0) this.refreshViews();
+    for (let k = 0; k < this.watchers.length; k++) this.watchers[k].memoryGrew();
   }
 
   private refreshViews(): void {
