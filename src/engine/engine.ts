@@ -14,6 +14,7 @@ import { SoundBank } from './sound-bank';
 import { SnapshotStore } from './snapshot-store';
 import { MasterBus } from './master-bus';
 import { KernelResidency } from './kernel-residency';
+import { EngineClosedError } from './engine-closed-error';
 import { VoicePool } from './voice-pool';
 import { checkRange, clampNumber, copyTargets } from './engine-values';
 import { StretchBank } from './stretch-stage';
@@ -82,6 +83,7 @@ export class Engine {
   /** Tables handed in by the host (by tier name), or null: the engine designs its own (`KernelTable.forTier`). */
   private readonly given: Map<string, KernelTable> | null;
   private table: KernelTable;
+  private closed = false;
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
   constructor(options: EngineOptions) {
@@ -124,8 +126,7 @@ export class Engine {
     this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()], wasm: null, ratios: new Float32Array(this.maxBlock), stage: this.stage };
     const wasm = this.voices[0].reader.kernelName === 'wasm-simd' ? WasmKernel.shared() : null;
     // Voice scratch and mix bus in module memory: the kernel writes and the module mixes there, with no copies.
-    this.resident = wasm === null ? null : new KernelResidency({ kernel: wasm, maxBlockFrames: this.maxBlock, bank: this.bank, owner: this });
-    this.resident?.bind(this.scratch, this.bus);
+    this.resident = wasm === null ? null : new KernelResidency({ kernel: wasm, maxBlockFrames: this.maxBlock, bank: this.bank, scratch: this.scratch, bus: this.bus, owner: this });
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null, spatial: null };
     this.stats = {
       activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
@@ -149,14 +150,16 @@ export class Engine {
    * On the wasm kernel the samples are copied into module memory here: later changes to the arrays are not heard.
    */
   addSound(channels: readonly Float32Array[], sampleRate: Hz): number {
+    this.live('addSound');
     const id = this.bank.add(channels, sampleRate);
     if (id < 0) this.stats.refused++;
-    else if (this.resident !== null) this.resident.makeResident(this.bank.slot(id), this.scratch, this.bus);
+    else if (this.resident !== null) this.resident.makeResident(this.bank.slot(id));
     return id;
   }
 
   /** Removes a sound; its voices fade out (default stop fade) and the slot frees once they are silent. */
   removeSound(id: number): void {
+    this.live('removeSound');
     const s = this.bank.slot(id);
     if (s < 0) return;
     for (let i = 0; i < this.voices.length; i++) {
@@ -168,6 +171,7 @@ export class Engine {
 
   /** Starts a voice; returns its handle, or −1 if refused (unknown sound, or a full pool of higher priority). */
   play(sound: number, options: PlayOptions = {}): number {
+    this.live('play');
     const slot = this.bank.slot(sound);
     if (slot < 0) {
       this.stats.refused++;
@@ -247,12 +251,14 @@ export class Engine {
 
   /** Stops a voice with a fade (s; default 0.01, 0 = at once); unknown or stale handles are ignored. */
   stop(voice: number, fadeSeconds: Seconds = engineDefaults.stopFadeSeconds): void {
+    this.live('stop');
     const v = this.pool.resolve(voice);
     if (v !== null && v.state === VOICE_PLAYING) this.pool.release(v, fadeSeconds);
   }
 
   /** Changes a playing voice's linear gain (0…16) or base ratio ((0, 4]); changes glide with the tuning's smoothing. */
   setVoice(voice: number, change: { gain?: number; ratio?: number }): void {
+    this.live('setVoice');
     const v = this.pool.resolve(voice);
     if (v === null) return;
     if (change.gain !== undefined) v.gain = clampNumber(change.gain, 0, 16, v.gain);
@@ -261,6 +267,7 @@ export class Engine {
 
   /** Switches tuning (a parseTuning result); voices keep playing and glide to the new targets. */
   setTuning(t: Tuning): void {
+    this.live('setTuning');
     this.tuning = t;
     this.mapper.setTuning(t);
     this.snapshots.configure(t.doppler.velocitySmoothingSeconds, t.doppler.teleportSpeed);
@@ -290,6 +297,7 @@ export class Engine {
 
   /** Adds tables designed elsewhere (by tier name, replacing any of the same name); switches at once if the tuning's tier was waiting for one. */
   useTables(tables: readonly KernelTable[]): void {
+    this.live('useTables');
     if (this.given === null) return;
     for (const k of tables) this.given.set(k.name, k);
     this.switchTable(this.tableFor(this.tuning.resampler.tier));
@@ -307,11 +315,11 @@ export class Engine {
     for (const v of this.voices) v.reader.setTable(table);
     this.stretches.configure(table, this.tuning.smoothing.ratioSeconds);
     this.stats.tier = table.name as Tuning['resampler']['tier'];
-    this.resident?.bind(this.scratch, this.bus); // a new tier's tables may have grown module memory
   }
 
   /** Stores a gameplay snapshot; positions glide from the previous one across the snapshot interval. */
   pushSnapshot(s: EngineSnapshot): void {
+    this.live('pushSnapshot');
     try {
       if (s.timeScale !== undefined) this.flow.jump(s.timeScale, this.controls.flowTime(this.time));
       this.snapshots.push(s, this.time);
@@ -323,6 +331,7 @@ export class Engine {
 
   /** Starts a time-scale ramp (startTime defaults to now, engine time). */
   setTimeScale(request: TimeScaleRequest): void {
+    this.live('setTimeScale');
     const now = this.time;
     // In time-flow time, which stops while the world is paused: a ramp asked for during a pause starts on resume.
     const startTime = this.controls.clock.requestTime(request.startTime ?? now, now);
@@ -334,11 +343,13 @@ export class Engine {
    * voices on it keep playing without a jump in their read). Unknown ids are ignored.
    */
   teleport(sourceId: number): void {
+    this.live('teleport');
     this.stage.teleport(sourceId);
   }
 
   /** Copies pending Mach-cone arrivals (oldest first, up to out.length) into `out`; returns how many. */
   drainShockwaves(out: ShockwaveEvent[]): number {
+    this.live('drainShockwaves');
     return this.stage.drainShockwaves(out);
   }
 
@@ -348,8 +359,11 @@ export class Engine {
    */
   render(outputs: readonly Float32Array[], frames: number, groupOutputs?: readonly (readonly Float32Array[])[]): void {
     const st = this.stats;
+    if (this.closed) {
+      this.renderDisposed(outputs, frames, groupOutputs);
+      return;
+    }
     try {
-      if (this.resident !== null && this.resident.stale(this.bus)) this.resident.bind(this.scratch, this.bus); // memory grew elsewhere
       st.peakIn = 0;
       st.peakOut = 0;
       for (let done = 0; done < frames; ) {
@@ -379,8 +393,36 @@ export class Engine {
     st.time = this.time;
   }
 
+  /**
+   * Releases what the engine holds outside its own objects (its regions of the WebAssembly kernel's memory: voice
+   * scratch, mix bus, resident sounds), at once, for the next engine to reuse; idempotent. Afterwards `render` outputs
+   * silence (each call counted in stats.refused) and every other method throws EngineClosedError.
+   */
+  dispose(): void {
+    if (this.closed) return;
+    this.closed = true;
+    this.resident?.release();
+  }
+
+  /** True after `dispose()`. */
+  get disposed(): boolean {
+    return this.closed;
+  }
+
+  /** Throws EngineClosedError naming `call` once the engine is disposed. */
+  private live(call: string): void {
+    if (this.closed) throw new EngineClosedError(`Engine.${call}`);
+  }
+
+  private renderDisposed(outputs: readonly Float32Array[], frames: number, groupOutputs?: readonly (readonly Float32Array[])[]): void {
+    this.stats.refused++;
+    for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
+    if (groupOutputs !== undefined) for (const g of groupOutputs) for (const o of g) o.fill(0, 0, Math.min(frames, o.length));
+  }
+
   /** Pauses the whole world (no group: every pausable group, and the time scale's transitions) or one group; click-free. */
   pause(group?: string): void {
+    this.live('pause');
     if (group !== undefined) this.controls.buses.setPaused(group, true);
     else if (!this.controls.buses.worldPaused) {
       this.controls.buses.worldPaused = true;
@@ -390,6 +432,7 @@ export class Engine {
 
   /** Resumes the whole world (no group) or one group paused on its own; held voices fade back in where they were. */
   resume(group?: string): void {
+    this.live('resume');
     if (group !== undefined) this.controls.buses.setPaused(group, false);
     else if (this.controls.buses.worldPaused) {
       this.controls.buses.worldPaused = false;
@@ -399,32 +442,38 @@ export class Engine {
 
   /** Whether a world pause holds `group` (default: every group whose policy is not 'exempt'). */
   setGroupPausable(group: string, pausable: boolean): void {
+    this.live('setGroupPausable');
     this.controls.buses.setPausable(group, pausable === true);
   }
 
   /** Sets a group's bus volume in dB (−120…24, clamped and counted); changes glide with the gain smoothing. */
   setGroupVolume(group: string, db: number): void {
+    this.live('setGroupVolume');
     if (!this.controls.buses.setVolume(group, db)) this.engineClamps++;
   }
 
   /** Mutes or unmutes a group's bus (its voices go virtual and keep time). */
   setGroupMute(group: string, muted: boolean): void {
+    this.live('setGroupMute');
     this.controls.buses.setMute(group, muted);
   }
 
   /** Solos or unsolos a group's bus: while any group is soloed, only soloed groups are heard. */
   setGroupSolo(group: string, solo: boolean): void {
+    this.live('setGroupSolo');
     this.controls.buses.setSolo(group, solo);
   }
 
   /** A group bus's state: volume in dB, mute, solo and its own pause. */
   getGroupState(group: string): { volumeDb: number; muted: boolean; solo: boolean; paused: boolean } {
+    this.live('getGroupState');
     const b = this.controls.buses.bus(group);
     return { volumeDb: b.volumeDb, muted: b.muted, solo: b.solo, paused: b.paused };
   }
 
   /** Moves a voice's read head to `seconds` of source time (clamped to the sound) after a short fade; stale handles are ignored. */
   seek(voice: number, seconds: Seconds): void {
+    this.live('seek');
     const v = this.pool.resolve(voice);
     if (v === null || v.state !== VOICE_PLAYING) return;
     const rate = v.rateFactor * this.sampleRate;
@@ -435,11 +484,13 @@ export class Engine {
 
   /** A voice's state: 'playing', 'virtual', 'stopping' (fading out after stop or steal) or 'ended'. */
   voiceState(voice: number): VoiceStateName {
+    this.live('voiceState');
     return this.controls.stateOf(this.pool.resolve(voice));
   }
 
   /** A voice's read position in seconds of source time, or −1 once it has ended. */
   voicePosition(voice: number): Seconds {
+    this.live('voicePosition');
     const v = this.pool.resolve(voice);
     if (v === null) return -1;
     return (v.stretch !== null ? v.stretch.reader.position : v.reader.position) / (v.rateFactor * this.sampleRate);
@@ -447,12 +498,14 @@ export class Engine {
 
   /** Source seconds a voice advances per output second now (its smoothed ratio; 0 while held), or 0 once ended. */
   voiceSpeed(voice: number): number {
+    this.live('voiceSpeed');
     const v = this.pool.resolve(voice);
     return v === null || (v.held && v.env === 0) ? 0 : v.currentRatio / v.rateFactor;
   }
 
   /** Sets (null: clears) a source's own distance model and cone; an invalid object is refused whole (counted in refused). */
   setSourceSpatial(sourceId: number, spatial: SourceSpatial | null): void {
+    this.live('setSourceSpatial');
     if (spatial !== null && sourceSpatialProblems(spatial).length > 0) {
       this.stats.refused++;
       return;
@@ -462,11 +515,13 @@ export class Engine {
 
   /** Moves waiting voice events into `out` as (code, voice handle, engine time) triples; returns the event count. */
   drainEvents(out: Float64Array): number {
+    this.live('drainEvents');
     return this.events.drain(out);
   }
 
   /** Fills `out` with the playing voices (up to out.length) and returns how many were written. */
   monitor(out: VoiceMonitor[]): number {
+    this.live('monitor');
     let k = 0;
     for (let i = 0; i < this.voices.length && k < out.length; i++) {
       const v = this.voices[i];
