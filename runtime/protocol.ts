@@ -101,8 +101,14 @@ export interface SyncCommand {
   id: number;
 }
 
+/** The node is being closed (Ralenti.dispose): the host disposes its engine and the processor ends. */
+export interface CloseCommand {
+  type: 'close';
+}
+
 /** Everything the main thread sends. */
 export type Command =
+  | CloseCommand
   | AddSoundCommand
   | RemoveSoundCommand
   | PlayCommand
@@ -223,6 +229,8 @@ export function decodeCommand(data: unknown): Command | string {
       return isObject(data.tuning) ? (data as unknown as TuningCommand) : 'tuning.tuning: expected an object';
     case 'tables':
       return Array.isArray(data.tables) && data.tables.every(isPackedKernelTable) ? (data as unknown as TablesCommand) : 'tables.tables: expected packed kernel tables';
+    case 'close':
+      return data as unknown as CloseCommand;
     case 'sync':
       return isHandle(data.id) ? (data as unknown as SyncCommand) : 'sync.id: expected a handle';
     case 'teleport':

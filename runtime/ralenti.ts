@@ -387,6 +387,7 @@ export class Ralenti {
   /** Disconnects and closes the port; the runtime is unusable afterwards. */
   dispose(): void {
     if (this.disposed) return;
+    this.send({ type: 'close' }); // the worklet disposes its engine (module memory back at once) and ends the processor
     this.disposed = true;
     try {
       this.node.disconnect();

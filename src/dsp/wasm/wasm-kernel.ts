@@ -272,7 +272,11 @@ export class WasmKernel {
    * (e.g. the worklet host drops the tables it installed when its engine is disposed). Unknown tables are ignored.
    */
   dropTable(table: KernelTable): void {
-    this.installs.delete(table);
+    const job = this.installs.get(table);
+    if (job !== undefined) {
+      this.installs.delete(table);
+      this.release(job.at, job.image.bytes.length);
+    }
     const header = this.tables.get(table);
     if (header === undefined) return;
     this.release(header, (this.tableEnds.get(table) ?? header) - header);
