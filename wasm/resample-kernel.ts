@@ -37,7 +37,15 @@ export function diffFloats(halfDense: i32, s: i32): i32 {
  * Lays out the stretched kernel of stride `s`: residue row ρ holds dense[K − m·s] for m = 0… (K = largest k ≤ total + 1
  * with k ≡ ρ mod s), so the taps of one output sample are contiguous and ascend with the source frame.
  */
-export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc: usize, rows: usize, diffs: usize): void {
+export function buildStride(params: usize): void {
+  // Parameter block (i32 each, bytes): 0 table · 4 dense · 8 total · 12 s · 16 desc · 20 rows · 24 diffs.
+  const table = <usize>load<i32>(params, 0);
+  const dense = <usize>load<i32>(params, 4);
+  const total = load<i32>(params, 8);
+  const s = load<i32>(params, 12);
+  const desc = <usize>load<i32>(params, 16);
+  const rows = <usize>load<i32>(params, 20);
+  let diffs = <usize>load<i32>(params, 24);
   const halfDense = load<i32>(table, 4);
   const count = total + 2;
   for (let rho = 0; rho < s; rho++) {

@@ -54,3 +54,20 @@ export const MP_GR0 = 40;
 export const MP_DGR = 48;
 /** Bytes of a `mix` block. */
 export const MIX_PARAM_BYTES = 56;
+
+/** `buildStride` block (i32 fields, byte offsets): table header, dense table, dense length, stride, descriptor, rows, diffs. */
+export const BP_TABLE = 0;
+/** Dense table (byte address). */
+export const BP_DENSE = 4;
+/** Dense entries, taps × phases (i32). */
+export const BP_TOTAL = 8;
+/** The stride laid out (i32). */
+export const BP_STRIDE = 12;
+/** Its descriptors (byte address). */
+export const BP_DESC = 16;
+/** Its residue rows (byte address). */
+export const BP_ROWS = 20;
+/** Its difference rows (byte address). */
+export const BP_DIFFS = 24;
+/** Bytes of a `buildStride` block. */
+export const BUILD_PARAM_BYTES = 28;

@@ -4,7 +4,7 @@ import type { KernelTable } from '../kernel-table';
 import { MAX_RATIO } from '../quality-tiers';
 import { decodeBase64 } from './base64';
 import { kernelModuleBase64 } from './kernel-bytes.generated';
-import { MIX_PARAM_BYTES, MP_DGL, MP_DGR, MP_FRAMES, MP_GL0, MP_GR0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
+import { BP_DENSE, BP_DESC, BP_DIFFS, BP_ROWS, BP_STRIDE, BP_TABLE, BP_TOTAL, BUILD_PARAM_BYTES, MIX_PARAM_BYTES, MP_DGL, MP_DGR, MP_FRAMES, MP_GL0, MP_GR0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
 
 /** Which inner loop a reader runs: the WebAssembly SIMD kernel or the TypeScript reference. */
 export type KernelName = 'wasm-simd' | 'typescript';
@@ -30,7 +30,8 @@ export interface KernelExports {
   heapBase(): number;
   rowFloats(total: number, stride: number): number;
   diffFloats(halfDense: number, stride: number): number;
-  buildStride(table: number, dense: number, total: number, stride: number, desc: number, rows: number, diffs: number): void;
+  /** Lays out one stride of a table as described by the block at `params` (kernel-params.ts, BP_*). */
+  buildStride(params: number): void;
   /** Mixes one voice as described by the block at `params` (kernel-params.ts, MP_*); 1 when every input sample was finite. */
   mix(params: number): number;
   /** Renders a run as described by the block at `params` (kernel-params.ts, RP_*); returns the samples written. */
@@ -97,6 +98,8 @@ export class WasmKernel {
   renderParams = 0;
   /** Byte offset of the `mix` parameter block (kernel-params.ts MP_*). */
   mixParams = 0;
+  /** Byte offset of the `buildStride` parameter block (kernel-params.ts BP_*). */
+  private buildParams = 0;
   /** outViews0[n] / outViews1[n]: the first n floats of out0 / out1 (n = 0…RUN_FRAMES), for allocation-free block copies. */
   readonly outViews0: Float32Array[] = [];
   readonly outViews1: Float32Array[] = [];
@@ -125,6 +128,7 @@ export class WasmKernel {
     this.ratios = this.alloc(RUN_FRAMES * 8);
     this.renderParams = this.alloc(RENDER_PARAM_BYTES);
     this.mixParams = this.alloc(MIX_PARAM_BYTES);
+    this.buildParams = this.alloc(BUILD_PARAM_BYTES);
     this.refreshViews();
   }
 
@@ -176,7 +180,16 @@ export class WasmKernel {
       const rows = desc + align(32 * s);
       const diffs = rows + align(4 * this.exports.rowFloats(total, s));
       at = diffs + align(4 * this.exports.diffFloats(halfDense, s));
-      this.exports.buildStride(header, dense, total, s, desc, rows, diffs);
+      const bp = this.buildParams >> 2;
+      const i32 = this.i32;
+      i32[bp + (BP_TABLE >> 2)] = header;
+      i32[bp + (BP_DENSE >> 2)] = dense;
+      i32[bp + (BP_TOTAL >> 2)] = total;
+      i32[bp + (BP_STRIDE >> 2)] = s;
+      i32[bp + (BP_DESC >> 2)] = desc;
+      i32[bp + (BP_ROWS >> 2)] = rows;
+      i32[bp + (BP_DIFFS >> 2)] = diffs;
+      this.exports.buildStride(this.buildParams);
       this.stridesBuilt++;
     }
     this.tableEnds.set(table, at);
