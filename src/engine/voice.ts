@@ -310,7 +310,12 @@ export class Voice {
     const k = scratch.wasm;
     if (k !== null) {
       // The same mix in the module (f64 lanes, the same operations): the buffers are views of its memory.
-      const finite = k.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames, gl0, dgl, gr0, dgr);
+      const g = k.mixGains;
+      g[0] = gl0;
+      g[1] = dgl;
+      g[2] = gr0;
+      g[3] = dgr;
+      const finite = k.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames);
       if (finite === 0) this.filter.reset();
       return this.alive(envEnd);
     }

@@ -44,7 +44,7 @@ export const MP_MIX_L = 8;
 export const MP_MIX_R = 12;
 /** Frames to mix (i32). */
 export const MP_FRAMES = 16;
-/** Left gain before sample 0 (f64). */
+/** Left gain before sample 0 (f64); the four gains are contiguous (WasmKernel.mixGains views them). */
 export const MP_GL0 = 24;
 /** Left gain step per sample (f64). */
 export const MP_DGL = 32;

@@ -4,7 +4,7 @@ import type { KernelTable } from '../kernel-table';
 import { MAX_RATIO } from '../quality-tiers';
 import { decodeBase64 } from './base64';
 import { kernelModuleBase64 } from './kernel-bytes.generated';
-import { BP_DENSE, BP_DESC, BP_DIFFS, BP_ROWS, BP_STRIDE, BP_TABLE, BP_TOTAL, BUILD_PARAM_BYTES, MIX_PARAM_BYTES, MP_DGL, MP_DGR, MP_FRAMES, MP_GL0, MP_GR0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
+import { BP_DENSE, BP_DESC, BP_DIFFS, BP_ROWS, BP_STRIDE, BP_TABLE, BP_TOTAL, BUILD_PARAM_BYTES, MIX_PARAM_BYTES, MP_FRAMES, MP_GL0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
 
 /** Which inner loop a reader runs: the WebAssembly SIMD kernel or the TypeScript reference. */
 export type KernelName = 'wasm-simd' | 'typescript';
@@ -98,6 +98,8 @@ export class WasmKernel {
   renderParams = 0;
   /** Byte offset of the `mix` parameter block (kernel-params.ts MP_*). */
   mixParams = 0;
+  /** The gains of the next `mix`, a view of its parameter block: [gl0, dgl, gr0, dgr] (linear; renewed after growth). */
+  mixGains: Float64Array = new Float64Array(4);
   /** Byte offset of the `buildStride` parameter block (kernel-params.ts BP_*). */
   private buildParams = 0;
   /** outViews0[n] / outViews1[n]: the first n floats of out0 / out1 (n = 0…RUN_FRAMES), for allocation-free block copies. */
@@ -130,6 +132,7 @@ export class WasmKernel {
     this.mixParams = this.alloc(MIX_PARAM_BYTES);
     this.buildParams = this.alloc(BUILD_PARAM_BYTES);
     this.refreshViews();
+    this.mixGains = new Float64Array(this.exports.memory.buffer, this.mixParams + MP_GL0, 4);
   }
 
   /** The kernel of this realm (created on first call), or null when WebAssembly SIMD is not available or fails to load. */
@@ -297,20 +300,19 @@ export class WasmKernel {
     this.tableEnds.delete(table);
   }
 
-  /** Mixes one voice in module memory (byte offsets; gains linear, ramped per sample); 0 when an input sample was not finite. */
-  mix(x0: number, x1: number, mixL: number, mixR: number, frames: number, gl0: number, dgl: number, gr0: number, dgr: number): number {
+  /**
+   * Mixes one voice in module memory (byte offsets) with the gains written into `mixGains` first; 0 when an input
+   * sample was not finite. Only small integers pass through the call: doubles passed to a call that is not inlined
+   * would be boxed, one allocation per voice and block.
+   */
+  mix(x0: number, x1: number, mixL: number, mixR: number, frames: number): number {
     const p = this.mixParams;
     const i32 = this.i32;
-    const f64 = this.f64;
     i32[(p + MP_X0) >> 2] = x0;
     i32[(p + MP_X1) >> 2] = x1;
     i32[(p + MP_MIX_L) >> 2] = mixL;
     i32[(p + MP_MIX_R) >> 2] = mixR;
     i32[(p + MP_FRAMES) >> 2] = frames;
-    f64[(p + MP_GL0) >> 3] = gl0;
-    f64[(p + MP_DGL) >> 3] = dgl;
-    f64[(p + MP_GR0) >> 3] = gr0;
-    f64[(p + MP_DGR) >> 3] = dgr;
     return this.exports.mix(p);
   }
 
@@ -454,6 +456,7 @@ export class WasmKernel {
     this.f64 = new Float64Array(buf);
     this.i32 = new Int32Array(buf);
     if (this.out1 !== 0) this.refreshViews();
+    if (this.mixParams !== 0) this.mixGains = new Float64Array(buf, this.mixParams + MP_GL0, 4);
     for (let k = 0; k < this.watchers.length; k++) this.watchers[k].memoryGrew();
   }
 
