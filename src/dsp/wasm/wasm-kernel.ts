@@ -4,6 +4,7 @@ import type { KernelTable } from '../kernel-table';
 import { MAX_RATIO } from '../quality-tiers';
 import { decodeBase64 } from './base64';
 import { kernelModuleBase64 } from './kernel-bytes.generated';
+import { ModuleHeap, align } from './module-heap';
 import { BP_DENSE, BP_DESC, BP_DIFFS, BP_ROWS, BP_STRIDE, BP_TABLE, BP_TOTAL, BUILD_PARAM_BYTES, MIX_PARAM_BYTES, MP_FRAMES, MP_GL0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
 
 /** Which inner loop a reader runs: the WebAssembly SIMD kernel or the TypeScript reference. */
@@ -111,26 +112,24 @@ export class WasmKernel {
   residentEpoch = 0;
   /** Stride layouts built by this instance (`buildStride` calls); an installed image builds none. */
   stridesBuilt = 0;
-  private top: number;
+  private readonly heap: ModuleHeap;
   private readonly watchers: MemoryWatcher[] = [];
   private readonly tables = new Map<KernelTable, number>();
   /** Byte end of each table's region (header … last stride), for `imageOf`. */
   private readonly tableEnds = new Map<KernelTable, number>();
   private readonly installs = new Map<KernelTable, { at: number; copied: number; image: KernelImage }>();
   private readonly resident = new Map<Float32Array, { at: number; bytes: number; users: number }>();
-  private readonly freeAt: number[] = [];
-  private readonly freeBytes: number[] = [];
 
   private constructor(exports: KernelExports) {
     this.exports = exports;
-    this.top = align(exports.heapBase());
+    this.heap = new ModuleHeap(exports.memory, exports.heapBase());
     this.refresh();
-    this.out0 = this.alloc(RUN_FRAMES * 4);
-    this.out1 = this.alloc(RUN_FRAMES * 4);
-    this.ratios = this.alloc(RUN_FRAMES * 8);
-    this.renderParams = this.alloc(RENDER_PARAM_BYTES);
-    this.mixParams = this.alloc(MIX_PARAM_BYTES);
-    this.buildParams = this.alloc(BUILD_PARAM_BYTES);
+    this.out0 = this.take(RUN_FRAMES * 4);
+    this.out1 = this.take(RUN_FRAMES * 4);
+    this.ratios = this.take(RUN_FRAMES * 8);
+    this.renderParams = this.take(RENDER_PARAM_BYTES);
+    this.mixParams = this.take(MIX_PARAM_BYTES);
+    this.buildParams = this.take(BUILD_PARAM_BYTES);
     this.refreshViews();
     this.mixGains = new Float64Array(this.exports.memory.buffer, this.mixParams + MP_GL0, 4);
   }
@@ -224,11 +223,8 @@ export class WasmKernel {
     if (job === undefined || job.image !== image) {
       // A released region that fits (e.g. a closed engine's table) is reused; else the copy grows memory slice by slice.
       const bytes = align(image.bytes.length);
-      let at = this.takeFree(bytes);
-      if (at < 0) {
-        at = this.top;
-        this.top = align(this.top + bytes);
-      }
+      let at = this.heap.takeFree(bytes);
+      if (at < 0) at = this.heap.reserve(bytes);
       job = { at, copied: 0, image };
       this.installs.set(table, job);
     }
@@ -236,8 +232,7 @@ export class WasmKernel {
     const end = job.at + job.copied + n;
     const have = this.exports.memory.buffer.byteLength;
     // Grow a few slices ahead (at most to the image's end), so that views are renewed once per 1 MB rather than per slice.
-    const ahead = Math.min(job.at + image.bytes.length, Math.max(end, have + (1 << 20)));
-    if (end > have) this.exports.memory.grow(Math.ceil((ahead - have) / 65536));
+    this.heap.growTo(end, Math.min(job.at + image.bytes.length, Math.max(end, have + (1 << 20))));
     this.refresh();
     new Uint8Array(this.exports.memory.buffer, job.at + job.copied, n).set(image.bytes.subarray(job.copied, job.copied + n));
     job.copied += n;
@@ -329,9 +324,7 @@ export class WasmKernel {
 
   /** Bytes of module memory handed out and not given back (tables, scratch, resident sources, parameter blocks). */
   get bytesInUse(): number {
-    let free = 0;
-    for (let k = 0; k < this.freeBytes.length; k++) free += this.freeBytes[k];
-    return this.top - align(this.exports.heapBase()) - free;
+    return this.heap.bytesInUse;
   }
 
   /**
@@ -368,52 +361,16 @@ export class WasmKernel {
     this.residentEpoch++;
   }
 
-  /** Returns `bytes` at byte offset `at` (from `allocFloats`) for reuse; merged with free neighbours, the top lowered when it ends there. */
+  /** Returns `bytes` at byte offset `at` (from `allocFloats`) for reuse; merged with free neighbours. */
   release(at: number, bytes: number): void {
-    let start = at;
-    let end = at + align(bytes);
-    // Free blocks are kept sorted by address: find the insertion point, then merge with the blocks either side.
-    let k = 0;
-    while (k < this.freeAt.length && this.freeAt[k] < start) k++;
-    if (k > 0 && this.freeAt[k - 1] + this.freeBytes[k - 1] === start) {
-      k--;
-      start = this.freeAt[k];
-      this.freeAt.splice(k, 1);
-      this.freeBytes.splice(k, 1);
-    }
-    if (k < this.freeAt.length && this.freeAt[k] === end) {
-      end += this.freeBytes[k];
-      this.freeAt.splice(k, 1);
-      this.freeBytes.splice(k, 1);
-    }
-    if (end === this.top && this.installs.size === 0) {
-      this.top = start;
-      return;
-    }
-    this.freeAt.splice(k, 0, start);
-    this.freeBytes.splice(k, 0, end - start);
+    this.heap.release(at, bytes);
   }
 
-  /** First fit among released blocks, else new memory at the top (may grow memory; throws RangeError when it cannot). */
+  /** First fit among released blocks, else new memory at the top (may grow memory, renewing the views; throws RangeError when it cannot). */
   private take(bytes: number): number {
-    const at = this.takeFree(align(bytes));
-    return at >= 0 ? at : this.alloc(bytes);
-  }
-
-  /** First fit of `bytes` (aligned) among released blocks, or −1. */
-  private takeFree(bytes: number): number {
-    for (let k = 0; k < this.freeAt.length; k++) {
-      if (this.freeBytes[k] < bytes) continue;
-      const at = this.freeAt[k];
-      this.freeAt[k] += bytes;
-      this.freeBytes[k] -= bytes;
-      if (this.freeBytes[k] === 0) {
-        this.freeAt.splice(k, 1);
-        this.freeBytes.splice(k, 1);
-      }
-      return at;
-    }
-    return -1;
+    const at = this.heap.take(bytes);
+    this.refresh();
+    return at;
   }
 
   /** Byte offset of `x`'s resident copy, or 0 when it has none. */
@@ -426,25 +383,6 @@ export class WasmKernel {
   allocFloats(floats: number): number {
     const at = this.take(align(4 * floats));
     this.f32.fill(0, at >> 2, (at >> 2) + floats);
-    return at;
-  }
-
-  private alloc(bytes: number): number {
-    const at = this.top;
-    const top = align(at + bytes);
-    const mem = this.exports.memory;
-    const have = mem.buffer.byteLength;
-    // Grow with 25 % headroom so that a run of uploads does not grow (and detach views) every time.
-    if (top > have) {
-      const need = Math.ceil((top - have) / 65536);
-      try {
-        mem.grow(Math.max(need, Math.ceil(have / 4 / 65536)));
-      } catch {
-        mem.grow(need);
-      }
-    }
-    this.top = top;
-    this.refresh();
     return at;
   }
 
@@ -478,6 +416,3 @@ function spanFloatsFor(halfDense: number, smallestStride: number): number {
   return RUN_FRAMES * MAX_RATIO + 2 * halfWindowFor(halfDense, smallestStride) + 16;
 }
 
-function align(n: number): number {
-  return (n + 15) & ~15;
-}
