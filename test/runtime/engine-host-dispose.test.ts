@@ -5,6 +5,7 @@ import { EngineHost } from '../../runtime/worklet/engine-host';
 import type { Report } from '../../runtime/protocol';
 import { WasmKernel, packAllTiers } from '../../src/dsp/index';
 import { defaultTuning } from '../../src/tuning/index';
+import { EVENT_ENDED, EVENT_VIRTUAL, VOICE_EVENT_CAPACITY } from '../../src/engine/index';
 import { Ralenti } from '../../runtime/index';
 import { FakeWorkletNode, fakeContext } from './fake-worklet-node';
 
@@ -76,5 +77,23 @@ describe('EngineHost on close', () => {
     r.dispose();
     r.dispose();
     expect(node.sent.map((s) => s.command.type)).toEqual(['close']);
+  });
+
+  it("forgets a voice whose 'ended' event was lost to a full event ring, and still tells the main thread it ended", () => {
+    const { h, reports } = host(false);
+    const sine = new Float32Array(4800).map((_, i) => 0.5 * Math.sin((2 * Math.PI * 440 * i) / RATE));
+    h.handle({ type: 'add-sound', sound: 1, channels: [sine], sampleRate: RATE });
+    h.handle({ type: 'play', voice: 7, sound: 1, options: { loop: true } });
+    h.process(out());
+    // Fill the ring with events of no mapped voice, so that the voice's 'ended' is dropped when it frees.
+    for (let i = 0; i < VOICE_EVENT_CAPACITY; i++) h.engine.events.push(EVENT_VIRTUAL, 99_999);
+    const dropped = h.engine.events.dropped;
+    h.handle({ type: 'stop', voice: 7, fadeSeconds: 0 });
+    h.process(out());
+    expect(h.engine.events.dropped).toBeGreaterThan(dropped); // the voice's 'ended' never reached the ring
+    expect(h.mappedVoices).toBe(0);
+    const ended = reports.filter((r) => r.type === 'voice-events').flatMap((r) => (r.type === 'voice-events' ? Array.from(r.events) : []));
+    const triples = Array.from({ length: ended.length / 3 }, (_, k) => [ended[3 * k], ended[3 * k + 1]]);
+    expect(triples).toContainEqual([7, EVENT_ENDED]);
   });
 });
