@@ -57,7 +57,7 @@ export class WasmReadPath {
   }
 
   /**
-   * The block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once; the
+   * Carries out `block` (filled by the reader) on the cursor given at construction. The block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once; the
    * kernel reads a source in place when it is resident (WasmKernel.upload) and the span the run can touch lies inside
    * the readable region, else that span is copied (wrapped or silent as `mapIndex` says) into module memory; outputs
    * that are views of module memory are written in place. The kernel runs until the run ends or a loop wraps (the wrap
