@@ -1,6 +1,12 @@
 // Page side of the Chromium engine timing: renders the bench scene through the worklet in an OfflineAudioContext.
-import { createRalenti } from '../runtime/index';
-import { BENCH_RAMP, BENCH_RATE, benchPlays, benchSounds } from './browser-engine-scene';
+import { createRalenti, type RalentiPlayOptions } from '../runtime/index';
+import type { PlayOptions } from '../src/index';
+import { BENCH_RAMP, BENCH_RATE, MOVING_STEP_FRAMES, benchPlays, benchSounds, movingPlays, movingPosition } from './browser-engine-scene';
+
+/** The runtime's form of the scene's engine play options (gain in dB at this API). */
+function runtimeOptions(o: PlayOptions): RalentiPlayOptions {
+  return { loop: o.loop, group: o.group, ratio: o.ratio, fadeInSeconds: o.fadeInSeconds, gainDb: 20 * Math.log10(o.gain ?? 1) };
+}
 
 /**
  * Renders `warmSeconds` + `seconds` and times only the last `seconds`: every OfflineAudioContext starts a new worklet
@@ -12,7 +18,7 @@ async function renderBench(voices: number, seconds: number, warmSeconds: number)
   const r = await createRalenti(ctx, { workletUrl: '/ralenti-processor.js', capacity: Math.max(1, voices), statsIntervalSeconds: 0.05 });
   r.connect(ctx.destination);
   const sounds = benchSounds().map((s) => r.load(s));
-  for (const p of benchPlays(voices)) r.play(sounds[p.sound], p.options);
+  for (const p of benchPlays(voices)) r.play(sounds[p.sound], runtimeOptions(p.options));
   r.setTimeScale(BENCH_RAMP.target, { ramp: total, easing: BENCH_RAMP.easing });
   await r.flush();
   let t0 = performance.now();
@@ -32,4 +38,54 @@ async function renderBench(voices: number, seconds: number, warmSeconds: number)
   return { ms, active };
 }
 
-Object.assign(globalThis, { renderBench });
+/**
+ * The moving scene (`voices` stereo voices on voices/2 sources circling the listener, default tuning: propagation on,
+ * time scale gliding): positions are sent every MOVING_STEP_FRAMES at a suspension of the context; only rendering
+ * after `warmSeconds` is timed, from each resume to the next suspension (the main thread's part is left out).
+ */
+async function renderMoving(voices: number, seconds: number, warmSeconds: number): Promise<{ ms: number; active: number }> {
+  const total = warmSeconds + seconds;
+  const frames = Math.round((total * BENCH_RATE) / MOVING_STEP_FRAMES) * MOVING_STEP_FRAMES;
+  const ctx = new OfflineAudioContext(2, frames, BENCH_RATE);
+  const r = await createRalenti(ctx, { workletUrl: '/ralenti-processor.js', capacity: voices, statsIntervalSeconds: 0.05 });
+  r.connect(ctx.destination);
+  const sounds = benchSounds().map((s) => r.load(s));
+  const sources = Array.from({ length: voices / 2 }, () => r.createSource());
+  r.setListener({ position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } });
+  const place = (frame: number) => {
+    const t = frame / BENCH_RATE;
+    sources.forEach((s, k) => {
+      const p = movingPosition(k, t);
+      s.setPosition(p.x, p.y, p.z);
+    });
+    r.update(t);
+  };
+  place(0);
+  for (const p of movingPlays(voices)) r.play(sounds[p.sound], { ...runtimeOptions(p.options), source: sources[p.source] });
+  r.setTimeScale(BENCH_RAMP.target, { ramp: total, easing: BENCH_RAMP.easing });
+  await r.flush();
+  const warmFrames = Math.round((warmSeconds * BENCH_RATE) / MOVING_STEP_FRAMES) * MOVING_STEP_FRAMES;
+  let ms = 0;
+  let resumed = performance.now();
+  const steps: Promise<void>[] = [];
+  for (let f = MOVING_STEP_FRAMES; f < frames; f += MOVING_STEP_FRAMES) {
+    steps.push(
+      ctx.suspend(f / BENCH_RATE).then(async () => {
+        if (f > warmFrames) ms += performance.now() - resumed;
+        place(f);
+        await r.flush();
+        resumed = performance.now();
+        await ctx.resume();
+      }),
+    );
+  }
+  await ctx.startRendering();
+  ms += performance.now() - resumed;
+  await Promise.all(steps);
+  await r.flush();
+  const active = r.stats.activeVoices;
+  r.dispose();
+  return { ms, active };
+}
+
+Object.assign(globalThis, { renderBench, renderMoving });

@@ -29,3 +29,24 @@ export function benchPlays(voices: number): { sound: number; options: PlayOption
 
 /** The time-scale ramp that makes the toned half glide: 1 → 0.6 over the whole render. */
 export const BENCH_RAMP = Object.freeze({ target: 0.6, easing: 'linear' as const });
+
+/** Voices of the moving scene (propagation on: the default tuning), two per source. */
+export const MOVING_VOICES = 512;
+/** Frames between two snapshots of the moving scene: 16 render quanta (about 23 snapshots per second at 48 kHz). */
+export const MOVING_STEP_FRAMES = 2048;
+
+/** Play requests of the moving scene: stereo loops on `voices` / 2 sources, base ratios 0.8…1.2, half 'effects', half 'vehicles'. */
+export function movingPlays(voices: number): { sound: number; source: number; options: PlayOptions }[] {
+  return Array.from({ length: voices }, (_, i) => ({
+    sound: i % 4,
+    source: i % (voices / 2),
+    options: { loop: true, group: i % 2 ? 'effects' : 'vehicles', ratio: 0.8 + (i % 9) * 0.05, gain: 0.2, fadeInSeconds: 0 },
+  }));
+}
+
+/** Position (m) of moving source `k` at time `t` (s): a circle of radius 10 + k m around the listener at the origin, 30 m/s. */
+export function movingPosition(k: number, t: number): { x: number; y: number; z: number } {
+  const radius = 10 + k;
+  const a = (30 / radius) * t + k;
+  return { x: radius * Math.cos(a), y: 0, z: radius * Math.sin(a) };
+}

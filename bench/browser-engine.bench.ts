@@ -3,7 +3,7 @@
 import { Engine } from '../src/engine/index';
 import { workletSourceText } from '../scripts/build-worklet.mjs';
 import { browserSuiteMode, bundleForBrowser, openPage } from '../test/browser/browser-harness';
-import { BENCH_RAMP, BENCH_RATE, benchPlays, benchSounds } from './browser-engine-scene';
+import { BENCH_RAMP, BENCH_RATE, MOVING_STEP_FRAMES, MOVING_VOICES, benchPlays, benchSounds, movingPlays, movingPosition } from './browser-engine-scene';
 
 const SECONDS = 1;
 /** Rendered before the timed part in the same context (and engine): worklet start-up, module compile and JIT warm-up. */
@@ -11,6 +11,8 @@ const WARM_SECONDS = 0.25;
 /** Runs per row; the fastest counts (the machine is shared, so the minimum is the least disturbed). */
 const REPEATS = 2;
 const VOICES = [0, 32, 64, 128, 256];
+/** Warm-up of the moving scene: one second, so that the farthest sources' sound (265 m away) has arrived and every voice sounds. */
+const MOVING_WARM_SECONDS = 1;
 
 function nodeMs(voices: number, seconds: number, warmSeconds: number): number {
   const engine = new Engine({ sampleRate: BENCH_RATE, capacity: Math.max(1, voices) });
@@ -27,6 +29,44 @@ function nodeMs(voices: number, seconds: number, warmSeconds: number): number {
   return performance.now() - t0;
 }
 
+function cpuMs(): number {
+  const u = process.cpuUsage();
+  return (u.user + u.system) / 1000;
+}
+
+/** The moving scene in Node, snapshots at the same frames as the page sends them: timed part's wall and processor time, ms. */
+function nodeMoving(voices: number, seconds: number, warmSeconds: number): { wall: number; cpu: number } {
+  const total = warmSeconds + seconds;
+  const frames = Math.round((total * BENCH_RATE) / MOVING_STEP_FRAMES) * MOVING_STEP_FRAMES;
+  const warmFrames = Math.round((warmSeconds * BENCH_RATE) / MOVING_STEP_FRAMES) * MOVING_STEP_FRAMES;
+  const engine = new Engine({ sampleRate: BENCH_RATE, capacity: voices });
+  const ids = benchSounds().map((s) => engine.addSound(s.channels, s.sampleRate));
+  const list = Array.from({ length: voices / 2 }, (_, id) => ({ id, position: movingPosition(id, 0) }));
+  const snap = { time: 0, listener: { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } }, sources: list };
+  engine.pushSnapshot(snap);
+  for (const p of movingPlays(voices)) engine.play(ids[p.sound], { ...p.options, sourceId: p.source });
+  engine.setTimeScale({ target: BENCH_RAMP.target, rampSeconds: total, easing: BENCH_RAMP.easing, startTime: 0 });
+  const l = new Float32Array(128);
+  const r = new Float32Array(128);
+  let wall = 0;
+  let cpu = 0;
+  for (let f = 0; f < frames; f += MOVING_STEP_FRAMES) {
+    if (f > 0) {
+      snap.time = f / BENCH_RATE;
+      for (const s of list) s.position = movingPosition(s.id, snap.time);
+      engine.pushSnapshot(snap);
+    }
+    const w0 = performance.now();
+    const c0 = cpuMs();
+    for (let b = 0; b < MOVING_STEP_FRAMES / 128; b++) engine.render([l, r], 128);
+    if (f >= warmFrames) {
+      wall += performance.now() - w0;
+      cpu += cpuMs() - c0;
+    }
+  }
+  return { wall, cpu };
+}
+
 /** Runs the benchmark; prints a table unless `json`. Skips (with a note) when Chromium is absent. */
 export async function run(options: { json: boolean }): Promise<object> {
   if (browserSuiteMode() !== 'run') {
@@ -41,6 +81,7 @@ export async function run(options: { json: boolean }): Promise<object> {
     '/ralenti-processor.js': worklet,
   });
   const rows: { voices: number; chromiumRealTime: number; nodeRealTime: number; chromiumOverNode: number; active: number }[] = [];
+  const moving = { voices: MOVING_VOICES, active: 0, chromiumRealTime: [] as number[], nodeRealTime: [] as number[], nodeProcessorTime: [] as number[] };
   try {
     await session.page.waitForFunction(() => 'renderBench' in globalThis);
     const render = (voices: number) =>
@@ -61,6 +102,24 @@ export async function run(options: { json: boolean }): Promise<object> {
       }
       rows.push({ voices, chromiumRealTime: c.ms / 1000 / SECONDS, nodeRealTime: n / 1000 / SECONDS, chromiumOverNode: c.ms / n, active: c.active });
     }
+    // The moving scene: 512 voices, propagation on (default tuning), sources circling, time scale gliding.
+    const renderMoving = () =>
+      session.page.evaluate(
+        ([v, s, w]) => (globalThis as unknown as { renderMoving(v: number, s: number, w: number): Promise<{ ms: number; active: number }> }).renderMoving(v, s, w),
+        [MOVING_VOICES, SECONDS, MOVING_WARM_SECONDS] as const,
+      );
+    const chromium: number[] = [];
+    const node: number[] = [];
+    const nodeCpu: number[] = [];
+    for (let k = 0; k < REPEATS; k++) {
+      const c = await renderMoving();
+      moving.active = c.active;
+      chromium.push(c.ms / 1000 / SECONDS);
+      const n = nodeMoving(MOVING_VOICES, SECONDS, MOVING_WARM_SECONDS);
+      node.push(n.wall / 1000 / SECONDS);
+      nodeCpu.push(n.cpu / 1000 / SECONDS);
+    }
+    Object.assign(moving, { chromiumRealTime: chromium, nodeRealTime: node, nodeProcessorTime: nodeCpu });
   } finally {
     await session.close();
   }
@@ -71,5 +130,12 @@ export async function run(options: { json: boolean }): Promise<object> {
       console.log(`${r.voices} | ${(r.chromiumRealTime * 100).toFixed(1)} % | ${(r.nodeRealTime * 100).toFixed(1)} % | ${r.voices === 0 ? '—' : r.chromiumOverNode.toFixed(2) + '×'} | ${r.active}`);
     }
   }
-  return { seconds: SECONDS, rows };
+  if (!options.json) {
+    const pc = (v: number[]) => v.map((x) => `${(100 * x).toFixed(1)} %`).join(', ');
+    console.log(
+      `${MOVING_VOICES} voices on ${MOVING_VOICES / 2} moving sources, propagation on (default tuning), time scale gliding, ${SECONDS} s timed after ${MOVING_WARM_SECONDS} s, runs in order (goal ≤ 50 % of one core):` +
+        ` Chromium worklet ${pc(moving.chromiumRealTime)} (wall time of the rendering between snapshot suspensions) | Node ${pc(moving.nodeRealTime)} wall, ${pc(moving.nodeProcessorTime)} processor time | active ${moving.active}`,
+    );
+  }
+  return { seconds: SECONDS, rows, moving };
 }

@@ -1,6 +1,7 @@
 // The one adapter between the panel and the runtime's group buses: mute, solo, volume and state per group, used
 // only when the runtime has them (feature-detected, so the editor also runs on a runtime without group buses).
 import type { Ralenti } from '../runtime';
+import { dbToGain } from '../src';
 
 /** A group's bus state as the panel shows it. */
 export interface GroupBusState {
@@ -71,7 +72,7 @@ export class GroupControls {
       muted: o.muted === true,
       solo: o.solo === true,
       volumeDb: numberField(o, 'volumeDb', 'db', 'volume') ?? 0,
-      peak: numberField(o, 'peak', 'peakLevel') ?? (peakDb !== null ? Math.pow(10, peakDb / 20) : null),
+      peak: numberField(o, 'peak', 'peakLevel') ?? (peakDb !== null ? dbToGain(peakDb) : null),
     };
   }
 }

@@ -13,6 +13,7 @@ export { AUTOSAVE_VERSIONS_KEY, readAutosaveVersions } from './autosave-versions
 export { decodeDroppedFile, type DecodedAudioFile } from './decode-audio-file';
 export { dropSound, type ReplaceSound } from './sound-drop';
 export { groupPageParts, type GroupPagePart, type GroupPageArgs } from './sections/group-section';
-export { CurveBladePlugin, curveBladeBundle, CurveBladeApi } from './curve-blade';
+export type { MutableGroup } from './tuning-store';
+export { CurveBladePlugin, curveBladeBundle, CurveBladeApi, addCurveBlade, type CurveBladeParams, type BladeParent } from './curve-blade';
 export { ElementBladePlugin, elementBladeBundle } from './element-blade';
 export { RecordingSection, type RecordingControls, type RecordingState, type ScriptProblem } from './sections/recording-section';

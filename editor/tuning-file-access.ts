@@ -12,9 +12,13 @@ type OpenPicker = (options: unknown) => Promise<TuningFileHandle[]>;
 
 /** The browser's open picker, or null where the File System Access API is absent. */
 export function openPickerOf(win: Window | null): OpenPicker | null {
-  const p = (win as unknown as { showOpenFilePicker?: OpenPicker } | null)?.showOpenFilePicker;
-  return typeof p === 'function' ? p.bind(win) : null;
+  if (win === null || !('showOpenFilePicker' in win)) return null;
+  const p = win.showOpenFilePicker;
+  return isFunction(p) ? p.bind(win) : null;
 }
+
+// The DOM library has no type for the picker (it is not in every browser): its result is read as TuningFileHandle[].
+const isFunction = (v: unknown): v is OpenPicker => typeof v === 'function';
 
 /** Asks the user for a JSON file through the open picker; resolves with its handle, or null when cancelled. */
 export async function pickTuningFile(picker: OpenPicker): Promise<TuningFileHandle | null> {

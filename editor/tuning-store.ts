@@ -1,6 +1,6 @@
 // Tuning file handling for the editor: autosave to localStorage, restore, download as JSON, read an uploaded file.
 import { parseTuning, serializeTuning, TuningError } from '../runtime';
-import type { Tuning } from '../src';
+import type { CurveSpec, Tuning } from '../src';
 
 /** localStorage key of the autosaved tuning. */
 export const AUTOSAVE_KEY = 'ralenti.tuning.autosave';
@@ -83,6 +83,11 @@ export function editableCopy(tuning: Tuning): MutableTuning {
   return JSON.parse(serializeTuning(tuning)) as MutableTuning;
 }
 
-/** Deeply mutable view of Tuning (the panel edits a plain copy, then validates it through setTuning). */
+/**
+ * Mutable view of Tuning (the panel edits a plain copy, then validates it through setTuning). Scalars are edited in
+ * place; curves are replaced whole by the frozen specs the curve blades give, so they keep CurveSpec's readonly type.
+ */
 export type MutableTuning = { -readonly [K in keyof Tuning]: Mutable<Tuning[K]> };
-type Mutable<T> = T extends readonly (infer U)[] ? Mutable<U>[] : T extends object ? { -readonly [K in keyof T]: Mutable<T[K]> } : T;
+/** A deeply mutable group of the panel's draft. */
+export type MutableGroup = MutableTuning['groups'][string];
+type Mutable<T> = T extends CurveSpec ? CurveSpec : T extends readonly (infer U)[] ? Mutable<U>[] : T extends object ? { -readonly [K in keyof T]: Mutable<T[K]> } : T;

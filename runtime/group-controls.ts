@@ -73,7 +73,7 @@ export class GroupControls {
     this.o.send({ type: 'group', group, pausable });
   }
 
-  /** The live state object of a known group (a copy is not needed: the runtime hands out a frozen copy). */
+  /** The live state object of a known group (mutable: Ralenti.getGroupState hands the game a shallow copy of it). */
   state(group: string): GroupState {
     this.check('getGroupState.group', group);
     let s = this.states.get(group);

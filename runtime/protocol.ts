@@ -1,5 +1,6 @@
 // Messages between the main thread and the worklet processor, over the AudioWorkletNode's MessagePort.
-// Commands go main → worklet, reports come back; snapshots travel as flat Float64Arrays (cheap to clone).
+// Commands go main → worklet, reports come back; snapshots travel as flat Float64Arrays, copied by postMessage's
+// structured clone (not transferred), so each side owns its own array.
 import type {
   EngineSnapshot,
   EngineStats,
@@ -10,7 +11,7 @@ import type {
   Tuning,
   VoiceMonitor,
 } from '../src/index';
-import { decodeControlCommand, type ControlCommand, type VoiceEventsReport } from './control-commands';
+import { controlCommandChecks, type ControlCommand, type MessageFields, type ShapeCheck, type VoiceEventsReport } from './control-commands';
 import { isPackedKernelTable, packedTransfer, type PackedKernelTable } from '../src/dsp/index';
 import type { TableCounters } from './worklet/table-installer';
 
@@ -70,7 +71,10 @@ export interface SetVoiceCommand {
   gain?: number;
   ratio?: number;
 }
-/** One gameplay snapshot, encoded by encodeSnapshot; its time is context time. */
+/**
+ * One gameplay snapshot, encoded by encodeSnapshot. Its time is on the sender's clock (any one, used consistently: the
+ * engine uses only differences between snapshot times). The array is cloned on posting, so the sender may overwrite it.
+ */
 export interface SnapshotCommand {
   type: 'snapshot';
   data: Float64Array;
@@ -170,74 +174,91 @@ export interface SyncedReport {
 /** Everything the worklet sends back. */
 export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport | VoiceEventsReport;
 
-/** Transferable buffers of a command (a sound's channel buffers), for postMessage's transfer list. Snapshots are cloned, so the sender may reuse its array. */
+/**
+ * Transferable buffers of a command, for postMessage's transfer list: a sound's channel buffers and packed kernel tables,
+ * which the sender can no longer read once posted. A snapshot's array is not listed: it is cloned, so the sender may
+ * reuse it for the next snapshot (Ralenti.update does).
+ */
 export function commandTransfer(command: Command): Transferable[] {
   if (command.type === 'add-sound') return command.channels.map((c) => c.buffer as ArrayBuffer);
   if (command.type === 'tables') return packedTransfer(command.tables);
   return [];
 }
 
-const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null;
+const isObject = (v: unknown): v is MessageFields => typeof v === 'object' && v !== null;
 const isHandle = (v: unknown): v is number => typeof v === 'number' && Number.isInteger(v) && v >= 0;
 const isOptionalNumber = (v: unknown): boolean => v === undefined || typeof v === 'number';
 
+/** Command types, the key of every per-type table of the protocol. */
+export type CommandType = Command['type'];
+
+/** Shape checks of every command, one per type: a new command without a check does not compile. */
+const commandChecks: { readonly [K in CommandType]: ShapeCheck } = {
+  'add-sound': (d) => {
+    const ch = d.channels;
+    if (!isHandle(d.sound)) return 'add-sound.sound: expected a handle';
+    if (!Array.isArray(ch) || ch.length < 1 || ch.length > 2 || !ch.every((c) => c instanceof Float32Array))
+      return 'add-sound.channels: expected 1 or 2 Float32Arrays';
+    if (ch.some((c) => c.length !== ch[0].length || c.length === 0)) return 'add-sound.channels: expected equal non-zero lengths';
+    if (typeof d.sampleRate !== 'number' || !(d.sampleRate >= 1000 && d.sampleRate <= 768000)) return 'add-sound.sampleRate: expected 1000…768000 Hz';
+    return null;
+  },
+  'remove-sound': (d) => (isHandle(d.sound) ? null : 'remove-sound.sound: expected a handle'),
+  play: (d) => {
+    if (!isHandle(d.voice)) return 'play.voice: expected a handle';
+    if (!isHandle(d.sound)) return 'play.sound: expected a handle';
+    return isObject(d.options) ? null : 'play.options: expected an object';
+  },
+  stop: (d) => {
+    if (!isHandle(d.voice)) return 'stop.voice: expected a handle';
+    return isOptionalNumber(d.fadeSeconds) ? null : 'stop.fadeSeconds: expected a number';
+  },
+  'set-voice': (d) => {
+    if (!isHandle(d.voice)) return 'set-voice.voice: expected a handle';
+    if (!isOptionalNumber(d.gain)) return 'set-voice.gain: expected a number';
+    return isOptionalNumber(d.ratio) ? null : 'set-voice.ratio: expected a number';
+  },
+  snapshot: (d) => {
+    if (!(d.data instanceof Float64Array)) return 'snapshot.data: expected a Float64Array';
+    return snapshotSourceCount(d.data) < 0 ? 'snapshot.data: malformed encoding' : null;
+  },
+  'time-scale': (d) => {
+    const r = d.request;
+    if (!isObject(r) || typeof r.target !== 'number' || typeof r.rampSeconds !== 'number' || typeof r.easing !== 'string')
+      return 'time-scale.request: expected { target, rampSeconds, easing }';
+    return isOptionalNumber(r.startTime) ? null : 'time-scale.request.startTime: expected a number';
+  },
+  tuning: (d) => (isObject(d.tuning) ? null : 'tuning.tuning: expected an object'),
+  tables: (d) => (Array.isArray(d.tables) && d.tables.every(isPackedKernelTable) ? null : 'tables.tables: expected packed kernel tables'),
+  sync: (d) => (isHandle(d.id) ? null : 'sync.id: expected a handle'),
+  close: () => null,
+  teleport: (d) => (typeof d.source === 'number' && Number.isFinite(d.source) ? null : 'teleport.source: expected a source id'),
+  ...controlCommandChecks,
+};
+
+const isCommandType = (t: string): t is CommandType => Object.prototype.hasOwnProperty.call(commandChecks, t);
+
 /**
- * Checks the shape of a received command; returns it typed, or a message saying what is wrong.
+ * Marks `d` as the command its type names, once that type's check found nothing wrong (`problem` null). The compiler
+ * cannot derive an interface from run-time checks, so this assertion is where a checked message becomes a Command;
+ * `commandChecks` holds what it rests on.
+ */
+function checked(d: MessageFields, problem: null): asserts d is MessageFields & Command {
+  void problem;
+}
+
+/**
+ * Checks the shape of a received command; returns it typed (the same object), or a message saying what is wrong.
  * Values inside (gains, ratios, times) are range-checked by the engine, which clamps and counts.
  */
 export function decodeCommand(data: unknown): Command | string {
   if (!isObject(data) || typeof data.type !== 'string') return 'command: expected an object with a string "type"';
-  switch (data.type) {
-    case 'add-sound': {
-      const ch = data.channels;
-      if (!isHandle(data.sound)) return 'add-sound.sound: expected a handle';
-      if (!Array.isArray(ch) || ch.length < 1 || ch.length > 2 || !ch.every((c) => c instanceof Float32Array))
-        return 'add-sound.channels: expected 1 or 2 Float32Arrays';
-      if (ch.some((c) => c.length !== ch[0].length || c.length === 0)) return 'add-sound.channels: expected equal non-zero lengths';
-      if (typeof data.sampleRate !== 'number' || !(data.sampleRate >= 1000 && data.sampleRate <= 768000))
-        return 'add-sound.sampleRate: expected 1000…768000 Hz';
-      return data as unknown as AddSoundCommand;
-    }
-    case 'remove-sound':
-      return isHandle(data.sound) ? (data as unknown as RemoveSoundCommand) : 'remove-sound.sound: expected a handle';
-    case 'play':
-      if (!isHandle(data.voice)) return 'play.voice: expected a handle';
-      if (!isHandle(data.sound)) return 'play.sound: expected a handle';
-      if (!isObject(data.options)) return 'play.options: expected an object';
-      return data as unknown as PlayCommand;
-    case 'stop':
-      if (!isHandle(data.voice)) return 'stop.voice: expected a handle';
-      if (!isOptionalNumber(data.fadeSeconds)) return 'stop.fadeSeconds: expected a number';
-      return data as unknown as StopCommand;
-    case 'set-voice':
-      if (!isHandle(data.voice)) return 'set-voice.voice: expected a handle';
-      if (!isOptionalNumber(data.gain)) return 'set-voice.gain: expected a number';
-      if (!isOptionalNumber(data.ratio)) return 'set-voice.ratio: expected a number';
-      return data as unknown as SetVoiceCommand;
-    case 'snapshot':
-      if (!(data.data instanceof Float64Array)) return 'snapshot.data: expected a Float64Array';
-      if (snapshotSourceCount(data.data) < 0) return 'snapshot.data: malformed encoding';
-      return data as unknown as SnapshotCommand;
-    case 'time-scale': {
-      const r = data.request;
-      if (!isObject(r) || typeof r.target !== 'number' || typeof r.rampSeconds !== 'number' || typeof r.easing !== 'string')
-        return 'time-scale.request: expected { target, rampSeconds, easing }';
-      if (!isOptionalNumber(r.startTime)) return 'time-scale.request.startTime: expected a number';
-      return data as unknown as TimeScaleCommand;
-    }
-    case 'tuning':
-      return isObject(data.tuning) ? (data as unknown as TuningCommand) : 'tuning.tuning: expected an object';
-    case 'tables':
-      return Array.isArray(data.tables) && data.tables.every(isPackedKernelTable) ? (data as unknown as TablesCommand) : 'tables.tables: expected packed kernel tables';
-    case 'close':
-      return data as unknown as CloseCommand;
-    case 'sync':
-      return isHandle(data.id) ? (data as unknown as SyncCommand) : 'sync.id: expected a handle';
-    case 'teleport':
-      return typeof data.source === 'number' && Number.isFinite(data.source) ? (data as unknown as TeleportCommand) : 'teleport.source: expected a source id';
-    default:
-      return decodeControlCommand(data) ?? `command: unknown type "${String(data.type)}"`;
-  }
+  const type = data.type;
+  if (!isCommandType(type)) return `command: unknown type "${type}"`;
+  const problem = commandChecks[type](data);
+  if (problem !== null) return problem;
+  checked(data, problem);
+  return data;
 }
 
 /** Encoding version stored in the first slot of a snapshot. */
@@ -292,9 +313,9 @@ export function createSnapshot(): EngineSnapshot {
 }
 
 /**
- * Decodes into a fresh snapshot: the engine may keep the objects it is given to interpolate between snapshots,
- * so nothing is shared with earlier results. Returns null for a malformed encoding.
- * `timeOffset` is subtracted from the time (context time → engine time).
+ * Decodes into a fresh snapshot object (nothing shared with earlier results); null for a malformed encoding.
+ * Engine.pushSnapshot copies the values it needs and keeps no reference to the object, so the receiver owns it
+ * afterwards. `timeOffset` is subtracted from the time (sender's clock → engine time).
  */
 export function decodeSnapshot(d: Float64Array, timeOffset: Seconds = 0): EngineSnapshot | null {
   const n = snapshotSourceCount(d);

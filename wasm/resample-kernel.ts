@@ -127,15 +127,28 @@ export function render(params: usize): i32 {
   let st = phases;
   let scale: f64 = 1; // st / phases
   let dbase: usize = 0; // descriptors of stride st
-  let lastR: f64 = -1; // stride, scale and descriptors depend on r only: reuse them while r repeats
+  let lastR: f64 = -1; // the stride depends on r only: reuse it while r repeats
+  let dst = -1; // the stride that scale and dbase belong to
   let fixed = false;
-  if (ratios == 0 && iEnd > iStart) {
-    // A linear ramp is monotone and the stride is monotone in r: equal strides at both ends hold throughout.
-    const rFirst = dr == 0 ? rs : rs + (dr * <f64>iStart) / frames;
-    const rLast = dr == 0 ? rs : rs + (dr * <f64>(iEnd - 1)) / frames;
-    const s0 = strideOf(rFirst, spr, phases, grid);
-    if (s0 == strideOf(rLast, spr, phases, grid)) {
+  if (iEnd > iStart) {
+    // The stride is monotone in r: equal strides at the smallest and the largest ratio of the run hold throughout
+    // (a linear ramp's extremes are its ends; per-sample ratios are scanned once).
+    let rLo = dr == 0 ? rs : rs + (dr * <f64>iStart) / frames;
+    let rHi = dr == 0 ? rs : rs + (dr * <f64>(iEnd - 1)) / frames;
+    if (ratios != 0) {
+      rLo = load<f64>(ratios);
+      rHi = rLo;
+      const rEnd = ratios + (<usize>(iEnd - iStart) << 3);
+      for (let q = ratios + 8; q < rEnd; q += 8) {
+        const r = load<f64>(q);
+        rLo = r < rLo ? r : rLo;
+        rHi = r > rHi ? r : rHi;
+      }
+    }
+    const s0 = strideOf(rLo, spr, phases, grid);
+    if (s0 == strideOf(rHi, spr, phases, grid)) {
       st = s0;
+      dst = st;
       scale = <f64>st / fp;
       dbase = <usize>load<i32>(descs + (<usize>st << 2));
       fixed = true;
@@ -147,8 +160,11 @@ export function render(params: usize): i32 {
     if (!fixed && r != lastR) {
       lastR = r;
       st = strideOf(r, spr, phases, grid);
-      scale = <f64>st / fp;
-      dbase = <usize>load<i32>(descs + (<usize>st << 2));
+      if (st != dst) {
+        dst = st;
+        scale = <f64>st / fp;
+        dbase = <usize>load<i32>(descs + (<usize>st << 2));
+      }
     }
     const nf = Math.floor(p);
     const n = <i32>nf;

@@ -47,6 +47,7 @@ export class CurveController implements ValueController<CurveSpec, CurveView> {
     this.selected.emitter.on('change', () => this.redraw());
     this.marker.emitter.on('change', () => this.view.updateMarker(this.state()));
 
+    // PointerHandler is typed for HTMLElement but uses only Element members (bounds, events, ownerDocument): an SVG graph works.
     const ph = new PointerHandler(this.view.graphElement as unknown as HTMLElement);
     ph.emitter.on('down', (ev) => this.onPointerDown(ev));
     ph.emitter.on('move', (ev) => this.onPointerMove(ev));

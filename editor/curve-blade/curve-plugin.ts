@@ -6,6 +6,7 @@ import {
   createValue,
   parseRecord,
   type BaseBladeParams,
+  type BladeApi,
   type BladePlugin,
   type TpPluginBundle,
 } from '@tweakpane/core';
@@ -112,6 +113,18 @@ export const CurveBladePlugin: BladePlugin<CurveBladeParams> = createPlugin<Blad
     return new CurveBladeApi(args.controller as LabeledValueBladeController<CurveSpec, CurveController>);
   },
 });
+
+/** Anything blades are added to (a pane, folder or tab page). */
+export interface BladeParent {
+  addBlade(params: BaseBladeParams): BladeApi;
+}
+
+/** Adds a curve blade to `parent` and returns its API; throws unless curveBladeBundle is registered on the pane. */
+export function addCurveBlade(parent: BladeParent, params: CurveBladeParams): CurveBladeApi {
+  const blade = parent.addBlade(params);
+  if (!(blade instanceof CurveBladeApi)) throw new Error('addCurveBlade: the curve blade plugin is not registered on this pane (curveBladeBundle)');
+  return blade;
+}
 
 /** Bundle for Pane.registerPlugin: the curve blade and its CSS. */
 export const curveBladeBundle: TpPluginBundle = { id: 'ralenti-curve', css: curveBladeCss, plugins: [CurveBladePlugin] };

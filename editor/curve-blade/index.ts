@@ -1,5 +1,5 @@
 // The curve blade: a tweakpane blade plugin for editing a tuning curve against the time scale.
-export { CurveBladePlugin, curveBladeBundle, type CurveBladeParams } from './curve-plugin';
+export { CurveBladePlugin, curveBladeBundle, addCurveBlade, type CurveBladeParams, type BladeParent } from './curve-plugin';
 export { CurveBladeApi, type CurveBladeEvents } from './curve-api';
 export { CurveController } from './curve-controller';
 export { CurveView } from './curve-view';

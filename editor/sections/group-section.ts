@@ -2,8 +2,9 @@
 // and the selected group's page: bus mute/solo/volume and meter, policy, Doppler, priority and the three curves.
 // The page is built from `groupPageParts`, a list other features extend (e.g. a stretch policy) without touching this file.
 import type { BladeApi, FolderApi, Pane } from 'tweakpane';
-import type { CurveSpec, GroupTuning } from '../../src';
-import type { CurveBladeApi, CurveBladeParams } from '../curve-blade';
+import type { CurveSpec } from '../../src';
+import { CurveBladeApi, addCurveBlade, type CurveBladeParams } from '../curve-blade';
+import type { MutableGroup } from '../tuning-store';
 import { curveFieldSpecs, groupChoiceSpecs, groupPrioritySpec, roundToStep, tooltipOf } from '../field-specs';
 import { addStretchControls } from './stretch-controls';
 import { addChoiceField, addNumberField } from '../controls/number-field';
@@ -15,7 +16,7 @@ import type { TunableContext } from './tunable-sections';
 export interface GroupPageArgs {
   folder: FolderApi;
   name: string;
-  group: Record<string, unknown>;
+  group: MutableGroup;
   ctx: TunableContext;
   buses: GroupControls;
   /** Registers the group's meter so that the panel feeds it. */
@@ -29,9 +30,9 @@ const timeAxis = Object.freeze({ xMin: 0, xMax: 4, xKnee: 1 });
 
 function addCurve(a: GroupPageArgs, key: 'pitch' | 'tone' | 'level', params: Partial<CurveBladeParams>): CurveBladeApi {
   const spec = curveFieldSpecs[key];
-  const owner = a.group as { [k: string]: CurveSpec };
+  const owner = a.group;
   const title = `${a.name} · ${spec.label}`;
-  const blade = a.folder.addBlade({ view: 'curve', value: owner[key], title, unit: spec.unit, yMin: spec.limit.min, yMax: spec.limit.max, ...timeAxis, ...params }) as unknown as CurveBladeApi;
+  const blade = addCurveBlade(a.folder, { view: 'curve', value: owner[key], title, unit: spec.unit, yMin: spec.limit.min, yMax: spec.limit.max, ...timeAxis, ...params });
   blade.element.dataset.curve = title;
   blade.element.title = `${tooltipOf(spec)} x: time scale 0…4 (the part above 1 is drawn compressed; see the knee mark).`;
   blade.on('change', (ev) => {
@@ -113,12 +114,12 @@ export function curvesPart(a: GroupPageArgs): BladeApi[] {
     addCurve(a, 'pitch', { yKnee: 1 }),
     addCurve(a, 'tone', { yScale: 'log' }),
     addCurve(a, 'level', {}),
-  ] as unknown as BladeApi[];
+  ];
 }
 
 /** The 'stretch' policy's controls (freeze mode and pitch curve in cents). */
 export function stretchPart(a: GroupPageArgs): BladeApi[] {
-  return addStretchControls(a.folder, a.ctx, a.name, a.group as unknown as GroupTuning);
+  return addStretchControls(a.folder, a.ctx, a.name, a.group);
 }
 
 /** Parts of every group page, in order (push to extend). */
@@ -165,7 +166,7 @@ export class GroupSection {
   select(name: string): void {
     for (const b of this.blades) b.dispose();
     for (const c of this.blades) {
-      const i = this.ctx.curves.indexOf(c as unknown as CurveBladeApi);
+      const i = c instanceof CurveBladeApi ? this.ctx.curves.indexOf(c) : -1;
       if (i >= 0) this.ctx.curves.splice(i, 1);
     }
     this.meters.clear();
@@ -175,7 +176,7 @@ export class GroupSection {
       b.setAttribute('aria-selected', String(on));
       if (on && typeof b.scrollIntoView === 'function') b.scrollIntoView({ block: 'nearest', inline: 'nearest' });
     }
-    const group = (this.ctx.draft.groups as unknown as Record<string, Record<string, unknown>>)[name];
+    const group = this.ctx.draft.groups[name];
     const args: GroupPageArgs = { folder: this.folder, name, group, ctx: this.ctx, buses: this.buses, meter: (m) => this.meters.set(name, m) };
     this.blades = groupPageParts.flatMap((part) => part(args));
     this.folder.element.dataset.group = name;

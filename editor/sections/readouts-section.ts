@@ -114,7 +114,7 @@ export class ReadoutsSection {
     l.errors = stats.errors;
     l.tier = stats.tier;
     // Tier and inner loop ('wasm-simd', or 'typescript' where the audio thread has no WebAssembly SIMD).
-    l.resampler = `${stats.tier} · ${stats.kernel ?? '…'}`;
+    l.resampler = `${stats.tier} · ${stats.kernel}`;
     l.capacity = capacity;
     // Share of the audio thread's time spent in process(): above 100 % it cannot keep up and the output breaks up.
     l.loadPercent = load && Number.isFinite(load.fraction) ? 100 * load.fraction : 0;

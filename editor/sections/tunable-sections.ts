@@ -2,6 +2,7 @@
 // Every field's range, step and tooltip come from field-specs.ts (the format's limits table).
 import type { FolderApi, Pane } from 'tweakpane';
 import { speedOfSound } from '../../src/motion';
+import { tuningLimits } from '../../src';
 import type { CurveBladeApi } from '../curve-blade';
 import type { MutableTuning } from '../tuning-store';
 import { LISTENING_FLOOR_DB } from '../listening-level';
@@ -20,13 +21,15 @@ export interface TunableContext {
   notice: Announcer;
 }
 
-type Fields = Record<string, unknown>;
+type SectionName = keyof typeof tuningLimits.sections;
+const isSectionName = (name: string): name is SectionName => Object.prototype.hasOwnProperty.call(tuningLimits.sections, name);
 
 /** Adds the field at `path` ('section.key') of the draft, number or choice, with the labels of `options` for enums. */
 export function addField(parent: FieldParent, ctx: TunableContext, path: string, options?: Record<string, string>) {
   const [section, key] = path.split('.');
-  const target = (ctx.draft as unknown as Record<string, Fields>)[section];
   const spec = fieldSpec(path);
+  if (!isSectionName(section)) throw new Error(`no tuning section ${section}`);
+  const target = ctx.draft[section];
   return spec.limit.kind === 'number'
     ? addNumberField(parent, target, key, spec, ctx.notice, (last) => ctx.changed(last))
     : addChoiceField(parent, target, key, spec, (last) => ctx.changed(last), options);
@@ -54,7 +57,7 @@ export function addDopplerSection(pane: Pane, ctx: TunableContext): FolderApi {
   const overrideOn = f.addBinding(shown, 'override', { label: 'override sound' });
   overrideOn.element.title = 'Use a fixed speed of sound instead of the one the temperature gives. Off clears the override (null).';
   const speedSpec = fieldSpec('air.speedOfSound');
-  const speed = addNumberField(f, shown as unknown as Fields, 'value', speedSpec, ctx.notice, (last) => {
+  const speed = addNumberField(f, shown, 'value', speedSpec, ctx.notice, (last) => {
     if (!shown.override) return;
     air.speedOfSound = shown.value;
     shown.c = inUse();

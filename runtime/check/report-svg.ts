@@ -2,6 +2,7 @@
 // band (expected ± the p95 limit), judged and unjudged spans shaded by reason, the closest-approach mark, a verdict
 // badge with the figures, and the time scale plotted beneath on the same time axis.
 import type { Seconds } from '../../src/index';
+import { centsToRatio } from '../../src/dsp';
 import type { CheckLimits, SourceFigures, UnjudgedSpan } from './judge/judge-source';
 
 /** One checked source as the report shows it (a CheckedSource fits). */
@@ -178,8 +179,8 @@ function valueAxis(f: Frame, lo: number, hi: number, label: string, out: string[
 const REASON_TEXT: Readonly<Record<string, string>> = Object.freeze({ unvoiced: 'unvoiced', level: 'too quiet', overlap: 'overlap with another source', range: 'outside the tracker range', 'path-step': 'step in the recorded path' });
 
 function sourcePanel(s: ReportSource, f: Frame, limits: CheckLimits, out: string[]): void {
-  const bandHi = Array.from(s.expectedHz as ArrayLike<number>, (v) => v * 2 ** (limits.p95Cents / 1200));
-  const bandLo = Array.from(s.expectedHz as ArrayLike<number>, (v) => v * 2 ** (-limits.p95Cents / 1200));
+  const bandHi = Array.from(s.expectedHz as ArrayLike<number>, (v) => v * centsToRatio(limits.p95Cents));
+  const bandLo = Array.from(s.expectedHz as ArrayLike<number>, (v) => v * centsToRatio(-limits.p95Cents));
   const [lo, hi] = range([s.expectedHz, s.heardHz], Math.max(1, median(s.expectedHz) * 0.01));
   out.push(`<g class="source" data-source="${escapeXml(s.name)}">`);
   const y = valueAxis(f, lo, hi, 'pitch (Hz)', out);

@@ -1,7 +1,7 @@
 // `ralenti bake <in.wav> --speed V -o out.wav`: variable-speed replay of a file (band-limited resampling),
 // for pre-rendering slowed or sped-up variants of assets. Pitch and duration change together. Streams: the input
 // is read and the output written block by block, so memory stays bounded for any length.
-import { qualityTiers, MAX_RATIO, ratioToCents } from '../../src/dsp';
+import { qualityTiers, MAX_RATIO, ratioToCents, gainToDb } from '../../src/dsp';
 import type { QualityTierName } from '../../src/index';
 import { BakeStream, WAV_SAMPLE_BOUND, type WavEncoding } from '../offline';
 import { CliError, EXIT, choiceOption, numberOption, parseArgs, progressBar, type CliIo } from './cli-io';
@@ -98,7 +98,7 @@ async function run(args: readonly string[], io: CliIo): Promise<number> {
     io.out(
       `baked ${input} at speed ${speed} (${ratioToCents(speed).toFixed(1)} cents, ${tier} tier) to ${output}\n` +
         `${l.channels} channel(s) at ${l.sampleRate} Hz, ${inSeconds.toFixed(3)} s → ${outSeconds.toFixed(3)} s (${enc}${enc === 'pcm16' ? ', TPDF dither' : ''}), ` +
-        `gain ${(20 * Math.log10(gain)).toFixed(1)} dB, peak ${formatDb(20 * Math.log10(writer.counts.peak))}\n` +
+        `gain ${gainToDb(gain).toFixed(1)} dB, peak ${formatDb(gainToDb(writer.counts.peak))}\n` +
         clipReport(writer.counts, enc, wav.counts.clamped),
     );
     return EXIT.ok;

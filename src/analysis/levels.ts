@@ -1,5 +1,6 @@
 // Signal levels: root-mean-square and peak amplitude, in linear units and in dB re 1 (full scale).
 import type { Decibels } from '../units';
+import { gainToDb } from '../dsp';
 
 /** Root-mean-square of signal[start … end) (default the whole signal); 0 for an empty range. */
 export function rmsLevel(signal: ArrayLike<number>, start = 0, end: number = signal.length): number {
@@ -23,10 +24,10 @@ export function peakLevel(signal: ArrayLike<number>, start = 0, end: number = si
 
 /** RMS level in dB re 1 (a full-scale square wave reads 0 dB, a full-scale sine −3.01 dB); −Infinity for silence. */
 export function rmsDb(signal: ArrayLike<number>, start = 0, end: number = signal.length): Decibels {
-  return 20 * Math.log10(rmsLevel(signal, start, end));
+  return gainToDb(rmsLevel(signal, start, end));
 }
 
 /** Peak level in dB re 1 (dBFS); −Infinity for silence. */
 export function peakDb(signal: ArrayLike<number>, start = 0, end: number = signal.length): Decibels {
-  return 20 * Math.log10(peakLevel(signal, start, end));
+  return gainToDb(peakLevel(signal, start, end));
 }

@@ -1,6 +1,7 @@
 // Pitch error statistics in cents (1200·log2 of a frequency ratio); percentiles by linear interpolation between
 // order statistics (R. J. Hyndman & Y. Fan, "Sample quantiles in statistical packages", Am. Stat. 50(4) 1996, definition 7).
 import type { Cents, Hz } from '../units';
+import { ratioToCents } from '../dsp';
 
 /** Summary of |measured − expected| in cents over the frames where both are present. */
 export interface PitchErrorStats {
@@ -21,7 +22,7 @@ export interface PitchErrorStats {
 /** Interval from referenceHz to measuredHz in cents: 1200·log2(measured/reference); NaN if either is missing. */
 export function centsBetween(referenceHz: Hz, measuredHz: Hz): Cents {
   if (!(referenceHz > 0) || !(measuredHz > 0) || !Number.isFinite(referenceHz) || !Number.isFinite(measuredHz)) return NaN;
-  return 1200 * Math.log2(measuredHz / referenceHz);
+  return ratioToCents(measuredHz / referenceHz);
 }
 
 /** p-quantile (p in 0…1) of ascending-sorted values, Hyndman–Fan definition 7; NaN for an empty list. */

@@ -3,7 +3,7 @@
 // summing the power of the main lobe (Parseval's theorem).
 import FFT from 'fft.js';
 import type { Decibels, Hz } from '../units';
-import { kaiserWindow } from '../dsp';
+import { dbToGain, gainToDb, kaiserWindow } from '../dsp';
 import { hannWindow } from './windows';
 
 /** Analysis window shape. */
@@ -110,12 +110,12 @@ export class SpectrumAnalyzer {
     for (let k = lo + 1; k <= hi; k++) if (this.magnitudes[k] > this.magnitudes[best]) best = k;
     const m = this.magnitudes;
     if (!(m[best] > 0)) return null;
-    const a = 20 * Math.log10(Math.max(m[best - 1], 1e-300));
-    const b = 20 * Math.log10(m[best]);
-    const c = 20 * Math.log10(Math.max(m[best + 1], 1e-300));
+    const a = gainToDb(Math.max(m[best - 1], 1e-300));
+    const b = gainToDb(m[best]);
+    const c = gainToDb(Math.max(m[best + 1], 1e-300));
     const curvature = a - 2 * b + c;
     const p = curvature < 0 ? (0.5 * (a - c)) / curvature : 0;
-    return { frequency: (best + p) * binHz, amplitude: 10 ** ((b - 0.25 * (a - c) * p) / 20) };
+    return { frequency: (best + p) * binHz, amplitude: dbToGain(b - 0.25 * (a - c) * p) };
   }
 
   /** Amplitude of a tone at frequency Hz in the last analysis, from the power of its main lobe (±lobeBins + 1). */
@@ -179,5 +179,5 @@ export function toneLevelDb(
 ): Decibels {
   const analyzer = analyzerFor(signal.length, options, options.zeroPad ?? spectrumDefaults.zeroPad);
   analyzer.analyze(signal);
-  return 20 * Math.log10(analyzer.toneAmplitude(sampleRate, frequency));
+  return gainToDb(analyzer.toneAmplitude(sampleRate, frequency));
 }

@@ -5,7 +5,7 @@ import type { CurveSpec } from '../tuning';
 /** Smallest x distance between neighbouring keys (the tuning parser enforces the same), keeps tangents finite. */
 export const MIN_KEY_SPACING = 1e-6;
 
-/** An evaluable curve built once from a CurveSpec; evaluate() never allocates. */
+/** An evaluable curve built once from a CurveSpec; evaluate() creates no objects (what V8 may still box: docs/allocation.md). */
 export class Curve {
   /** Key x values, strictly increasing. */
   readonly xs: Float64Array;

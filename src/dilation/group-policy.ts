@@ -1,6 +1,7 @@
 // Group policies: how a group's voices respond to the time scale, compiled once from the tuning.
 import type { GroupPolicy, GroupTuning, MotionModel } from '../tuning';
 import { Curve } from './curve';
+import { centsToRatio, dbToGain } from '../dsp';
 
 /** Whether voices of a policy change speed with the time scale: 'follow-time' (pitch too) and 'stretch' (pitch apart). */
 export function policyFollowsSpeed(policy: GroupPolicy): boolean {
@@ -57,11 +58,11 @@ export class CompiledGroup {
     if (s === this.cachedScale) return;
     this.cachedScale = s;
     this.cachedSpeed = this.followsSpeed ? this.pitch.evaluate(s) : 1;
-    this.cachedPitch = this.stretches ? Math.pow(2, this.stretchPitch.evaluate(s) / 1200) : this.cachedSpeed;
+    this.cachedPitch = this.stretches ? centsToRatio(this.stretchPitch.evaluate(s)) : this.cachedSpeed;
     if (this.appliesTone) {
       const c = this.tone.evaluate(s);
       this.cachedCutoffHz = c < minCutoffHz ? minCutoffHz : c > openCutoffHz ? openCutoffHz : c;
-      this.cachedLevelGain = Math.pow(10, this.level.evaluate(s) / 20);
+      this.cachedLevelGain = dbToGain(this.level.evaluate(s));
     } else {
       this.cachedCutoffHz = openCutoffHz;
       this.cachedLevelGain = 1;

@@ -8,6 +8,7 @@ import type { ListenerState, SourceState, VoiceTargets } from './snapshot-types'
 import { CompiledGroup } from './group-policy';
 import { distanceGain, equalPowerFromSine } from './spatial-gains';
 import { coneGain } from './cone-gain';
+import { centsToRatio } from '../dsp';
 import type { SourceSpatial } from './source-spatial';
 
 /** Largest target ratio (the resampler's maximum playback ratio). */
@@ -58,7 +59,7 @@ function finiteCoord(v: number, limit: number): boolean {
   return v >= -limit && v <= limit;
 }
 
-/** Maps voices to targets under one tuning; allocation-free per call; counts every clamped input. */
+/** Maps voices to targets under one tuning; creates no objects per call (docs/allocation.md); counts every clamped input. */
 export class TargetMapper {
   /** Inputs replaced or clamped: time scales, ratios, gains, positions, velocities, orientations. */
   clamps = 0;
@@ -110,7 +111,7 @@ export class TargetMapper {
     this.tuning = t;
     this.c = t.air.speedOfSound ?? speedOfSound(t.air.temperatureCelsius);
     const maxShift = t.doppler.maxShiftCents;
-    this.maxDoppler = Math.min(Math.pow(2, maxShift / 1200), MAX_TARGET_RATIO);
+    this.maxDoppler = Math.min(centsToRatio(maxShift), MAX_TARGET_RATIO);
     this.minDoppler = 1 / this.maxDoppler;
     this.gameClock = t.doppler.velocityClock === 'game';
     this.dopplerFactor = t.doppler.factor;

@@ -22,7 +22,7 @@ export const blastGuardDefaults = Object.freeze({
   returnSeconds: 0.05 as Seconds,
 });
 
-/** Mutes a stereo mix in place when it blasts; allocation-free; counts trips and non-finite samples. */
+/** Mutes a stereo mix in place when it blasts; creates no objects (docs/allocation.md); counts trips and non-finite samples. */
 export class BlastGuard {
   /** Times the guard has muted the output since construction. */
   trips = 0;

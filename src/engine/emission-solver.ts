@@ -46,7 +46,7 @@ export function createEmissionSolution(): EmissionSolution {
   return { state: EMISSION_NONE, tau: NaN, doppler: 1, distance: 0, meanDoppler: NaN, coneTime: NaN, position: { x: 0, y: 0, z: 0 }, scanResidual: 0, scanRate: 0, evaluations: 0 };
 }
 
-/** Solves the emission-time equation for one source; allocation-free. */
+/** Solves the emission-time equation for one source; creates no objects, and its steps pass doubles in fields, not calls (docs/allocation.md). */
 export class EmissionSolver {
   /** Speed of sound, m per game second. */
   c = 343;
@@ -55,17 +55,22 @@ export class EmissionSolver {
   /** Listener position and velocity (engine clock) at reception time; set by `setListener`. */
   private readonly lp: Vec3Like = { x: 0, y: 0, z: 0 };
   private readonly lv: Vec3Like = { x: 0, y: 0, z: 0 };
-  private t: Seconds = 0;
-  private gt: Seconds = 0;
+  private t: Seconds = 0.5;
+  private gt: Seconds = 0.5;
   private st = 1;
   private region = 0;
-  private dist = 0;
-  private deriv = 0;
+  private dist = 0.5;
+  private deriv = 0.5;
   private evals = 0;
 
   /** Sets the reception time t (engine s) and the listener's position and velocity (m/s, engine clock) then. */
   setListener(t: Seconds, clock: GameClock, p: Vec3Like, v: Vec3Like): void {
     this.t = t;
+    this.listenAt(clock, p, v);
+  }
+
+  private listenAt(clock: GameClock, p: Vec3Like, v: Vec3Like): void {
+    const t = this.t;
     this.gt = clock.gameAt(t);
     this.st = clock.slopeAt(t);
     copy(this.lp, p);
@@ -77,46 +82,87 @@ export class EmissionSolver {
    * bracket's lower end when the source cannot be supersonic (`subsonic`).
    */
   solve(tracks: SourceTracks, clock: GameClock, slot: number, previous: Seconds, subsonic: boolean, out: EmissionSolution): void {
+    this.previous = previous;
+    this.solveSlot(tracks, clock, slot, subsonic, out);
+  }
+
+  // Doubles move between the steps below in fields (x, fx, lo, hi, …), never as arguments or return values: V8 boxes a
+  // double passed to or returned from a call it does not inline, and these steps are too large to be always inlined.
+  private previous: Seconds = 0.5;
+  /** Point of the last residual evaluation (τ, engine s) and its residual f(τ), m. */
+  private x: Seconds = 0.5;
+  private fx = 0.5;
+  /** Bracket of `bracket`: f(lo) ≥ 0 ≥ f(hi). */
+  private lo: Seconds = 0.5;
+  private flo = 0.5;
+  private hi: Seconds = 0.5;
+  private fhi = 0.5;
+  private root: Seconds = 0.5;
+  /** Loop state of `bracket` and of the backward scan: lo, hi, x. */
+  private readonly box = new Float64Array(4);
+  /** MAX_EMISSION_DOPPLER as a field: a module constant merged with a computed double made V8 box the double. */
+  private readonly maxDoppler = MAX_EMISSION_DOPPLER;
+
+  private solveSlot(tracks: SourceTracks, clock: GameClock, slot: number, subsonic: boolean, out: EmissionSolution): void {
     this.evals = 0;
     out.scanResidual = 0;
     out.scanRate = 0;
     const t = this.t;
-    const fT = this.residual(tracks, clock, slot, t);
+    const previous = this.previous;
+    this.x = t;
+    this.residual(tracks, clock, slot);
+    const fT = this.fx;
     if (this.dist < 1e-9) {
-      this.finish(tracks, clock, slot, t, out);
+      this.root = t;
+      this.finish(tracks, clock, slot, out);
       return;
     }
     if (subsonic && previous <= t) {
-      const fa = this.residual(tracks, clock, slot, previous);
+      this.x = previous;
+      this.residual(tracks, clock, slot);
+      const fa = this.fx;
       if (fa >= 0) {
-        this.bracket(tracks, clock, slot, previous, fa, t, fT);
-        this.finish(tracks, clock, slot, this.root, out);
+        this.lo = previous;
+        this.flo = fa;
+        this.hi = t;
+        this.fhi = fT;
+        this.bracket(tracks, clock, slot);
+        this.finish(tracks, clock, slot, out);
         return;
       }
     }
     // Backward scan from t: |df/dτ| ≤ K, so f stays negative for −f/K before a point where it is negative.
     const K = this.c * (clock.maxSlope > 0.05 ? clock.maxSlope : 0.05) + tracks.maxSpeed[slot] + 1;
-    let x = t;
-    let fx = fT;
+    const b = this.box;
+    b[2] = t;
+    b[3] = fT;
     const floor = t - MAX_DELAY_SECONDS;
     for (let i = 0; i < 96; i++) {
       if (this.region === TRACK_BEFORE) {
         // Before the first knot the source stands still: f decreases with τ, Newton from the right converges.
-        this.extension(tracks, clock, slot, x, fx);
-        this.finish(tracks, clock, slot, this.root, out);
+        this.x = b[2];
+        this.fx = b[3];
+        this.extension(tracks, clock, slot);
+        this.finish(tracks, clock, slot, out);
         return;
       }
-      const step = -fx / K;
-      const hi = x;
-      const fhi = fx;
-      x -= step > 1e-6 ? step : 1e-6;
-      if (x < floor) break;
-      fx = this.residual(tracks, clock, slot, x);
-      if (fx > 0) {
-        out.scanResidual = fx;
+      const step = -b[3] / K;
+      b[1] = b[2];
+      const fhi = b[3];
+      b[2] -= step > 1e-6 ? step : 1e-6;
+      if (b[2] < floor) break;
+      this.x = b[2];
+      this.residual(tracks, clock, slot);
+      b[3] = this.fx;
+      if (this.fx > 0) {
+        out.scanResidual = this.fx;
         out.scanRate = this.c * this.st - this.deriv; // ∂f/∂t at fixed τ (deriv holds û·L' from residual)
-        this.bracket(tracks, clock, slot, x, fx, hi, fhi);
-        this.finish(tracks, clock, slot, this.root, out);
+        this.lo = b[2];
+        this.flo = this.fx;
+        this.hi = b[1];
+        this.fhi = fhi;
+        this.bracket(tracks, clock, slot);
+        this.finish(tracks, clock, slot, out);
         return;
       }
     }
@@ -124,39 +170,54 @@ export class EmissionSolver {
     out.evaluations = this.evals;
   }
 
-  private root = 0;
-
   /** Safeguarded Newton in [lo, hi] with f(lo) ≥ 0 ≥ f(hi); leaves the root in `root`. */
-  private bracket(tracks: SourceTracks, clock: GameClock, slot: number, lo: Seconds, flo: number, hi: Seconds, fhi: number): void {
-    let x = flo - fhi > 0 ? lo + (hi - lo) * (flo / (flo - fhi)) : hi;
+  private bracket(tracks: SourceTracks, clock: GameClock, slot: number): void {
+    // Loop-carried values live in a Float64Array: V8 kept them in tagged loop variables here and boxed every update.
+    const b = this.box;
+    b[0] = this.lo;
+    b[1] = this.hi;
+    const flo = this.flo;
+    const fhi = this.fhi;
+    b[2] = flo - fhi > 0 ? b[0] + (b[1] - b[0]) * (flo / (flo - fhi)) : b[1];
     for (let i = 0; i < 24; i++) {
-      const fx = this.residual(tracks, clock, slot, x);
-      if (fx > 0) lo = x;
-      else hi = x;
-      if (Math.abs(fx) < 1e-9 || hi - lo < 1e-12) break;
-      const fp = this.slope(clock, x);
-      let nx = fp < 0 ? x - fx / fp : NaN;
-      if (!(nx > lo && nx < hi)) nx = 0.5 * (lo + hi);
-      x = nx;
+      this.x = b[2];
+      this.residual(tracks, clock, slot);
+      const fx = this.fx;
+      if (fx > 0) b[0] = b[2];
+      else b[1] = b[2];
+      if (Math.abs(fx) < 1e-9 || b[1] - b[0] < 1e-12) break;
+      // df/dτ at x: −c·s(τ) + û·S'(τ).
+      const d = this.dist;
+      const us = d > 1e-12 ? ((this.lp.x - this.sp.x) * this.sv.x + (this.lp.y - this.sp.y) * this.sv.y + (this.lp.z - this.sp.z) * this.sv.z) / d : 0;
+      const fp = -this.c * clock.slopeAt(b[2]) + us;
+      // (No NaN literal in a merge here: a global read V8 has no feedback for is a tagged value, and boxes the other.)
+      const nx = b[2] - fx / fp;
+      b[2] = fp < 0 && nx > b[0] && nx < b[1] ? nx : 0.5 * (b[0] + b[1]);
     }
-    this.root = x;
+    this.root = b[2];
   }
 
-  /** Root before the first knot (source at its first position): Newton on a decreasing function. */
-  private extension(tracks: SourceTracks, clock: GameClock, slot: number, x: Seconds, fx: number): void {
-    for (let i = 0; i < 24 && Math.abs(fx) > 1e-9; i++) {
-      const s = clock.slopeAt(x);
-      const nx = x + fx / (this.c * (s > 1e-3 ? s : 1e-3));
-      if (!(nx < x) && fx < 0) break;
-      x = nx;
-      fx = this.residual(tracks, clock, slot, x);
+  /** Root before the first knot (source at its first position), from (x, fx): Newton on a decreasing function. */
+  private extension(tracks: SourceTracks, clock: GameClock, slot: number): void {
+    const b = this.box;
+    b[2] = this.x;
+    b[3] = this.fx;
+    for (let i = 0; i < 24 && Math.abs(b[3]) > 1e-9; i++) {
+      const s = clock.slopeAt(b[2]);
+      const nx = b[2] + b[3] / (this.c * (s > 1e-3 ? s : 1e-3));
+      if (!(nx < b[2]) && b[3] < 0) break;
+      b[2] = nx;
+      this.x = nx;
+      this.residual(tracks, clock, slot);
+      b[3] = this.fx;
     }
-    this.root = x;
+    this.root = b[2];
   }
 
-  /** f(τ) = c·(G(t) − G(τ)) − |L(t) − S(τ)|; leaves S(τ), S'(τ), the distance and û·L' in scratch. */
-  private residual(tracks: SourceTracks, clock: GameClock, slot: number, tau: Seconds): number {
+  /** fx = f(x) = c·(G(t) − G(x)) − |L(t) − S(x)|; leaves S(x), S'(x), the distance and û·L' in scratch. */
+  private residual(tracks: SourceTracks, clock: GameClock, slot: number): void {
     this.evals++;
+    const tau = this.x;
     this.region = tracks.evaluate(slot, tau, this.sp, this.sv);
     const dx = this.lp.x - this.sp.x;
     const dy = this.lp.y - this.sp.y;
@@ -164,19 +225,14 @@ export class EmissionSolver {
     const d = Math.sqrt(dx * dx + dy * dy + dz * dz);
     this.dist = d;
     this.deriv = d > 1e-12 ? (dx * this.lv.x + dy * this.lv.y + dz * this.lv.z) / d : 0;
-    return this.c * (this.gt - clock.gameAt(tau)) - d;
+    this.fx = this.c * (this.gt - clock.gameAt(tau)) - d;
   }
 
-  /** df/dτ at the last residual's τ: −c·s(τ) + û·S'(τ). */
-  private slope(clock: GameClock, tau: Seconds): number {
-    const d = this.dist;
-    const us = d > 1e-12 ? ((this.lp.x - this.sp.x) * this.sv.x + (this.lp.y - this.sp.y) * this.sv.y + (this.lp.z - this.sp.z) * this.sv.z) / d : 0;
-    return -this.c * clock.slopeAt(tau) + us;
-  }
-
-  /** Fills `out` at emission time tau: position, distance and the game-clock Doppler factor dG(τ)/dG(t). */
-  private finish(tracks: SourceTracks, clock: GameClock, slot: number, tau: Seconds, out: EmissionSolution): void {
-    this.residual(tracks, clock, slot, tau);
+  /** Fills `out` at emission time τ = `root`: position, distance and the game-clock Doppler factor dG(τ)/dG(t). */
+  private finish(tracks: SourceTracks, clock: GameClock, slot: number, out: EmissionSolution): void {
+    const tau = this.root;
+    this.x = tau;
+    this.residual(tracks, clock, slot);
     out.state = this.region === TRACK_BEFORE ? EMISSION_BEFORE : EMISSION_HISTORY;
     out.tau = tau;
     out.distance = this.dist;
@@ -184,16 +240,15 @@ export class EmissionSolver {
     const d = this.dist;
     const sTau = clock.slopeAt(tau);
     const st = this.st;
-    let D = out.doppler;
+    // Straight-line branches, each storing its own value: a double merged from branches (and from a field) was boxed.
     if (d > 1e-9 && st > 1e-4 && sTau > 1e-4) {
       const us = ((this.lp.x - this.sp.x) * this.sv.x + (this.lp.y - this.sp.y) * this.sv.y + (this.lp.z - this.sp.z) * this.sv.z) / d;
       const num = this.c * st - this.deriv;
       const den = this.c * sTau - us;
-      D = den > 0 ? (sTau * num) / (st * den) : MAX_EMISSION_DOPPLER;
-      if (!(D < MAX_EMISSION_DOPPLER)) D = MAX_EMISSION_DOPPLER;
-      else if (!(D > 0)) D = 1 / MAX_EMISSION_DOPPLER;
-    } else if (d <= 1e-9) D = 1;
-    out.doppler = D;
+      const cap = this.maxDoppler;
+      const D = den > 0 ? (sTau * num) / (st * den) : cap;
+      out.doppler = !(D < cap) ? cap : !(D > 0) ? 1 / cap : D;
+    } else if (d <= 1e-9) out.doppler = 1;
     out.evaluations = this.evals;
   }
 }

@@ -5,7 +5,7 @@ import type { Seconds } from '../units';
 /** Slope changes the clock keeps (a constant time scale needs one; a ramp one per block). */
 export const GAME_CLOCK_ENTRIES = 4096;
 
-/** Game time over engine time; allocation-free after construction. */
+/** Game time over engine time; creates no objects after construction; its bodies take and return no doubles (docs/allocation.md). */
 export class GameClock {
   /** Game time at the end of the last advanced block, s. */
   game: Seconds = 0;
@@ -18,6 +18,15 @@ export class GameClock {
   private first = 0;
   private count = 0;
   private maxSlopeSeen = 1;
+  /** Engine time of the last `gameAt`/`slopeAt` query, s: held in a field so that no double crosses the search call. */
+  private query: Seconds = 0.5;
+  /** Time scale of the block being advanced (a field for the same reason). */
+  private scale = 0.5;
+  /** Slope being recorded by `push`. */
+  private slope = 0.5;
+  /** Results of the last `lookUp`: game time, s, and slope. */
+  private gameFound: Seconds = 0.5;
+  private slopeFound = 0.5;
 
   /** Keeps up to `entries` (≥ 2) slope changes. */
   constructor(entries: number = GAME_CLOCK_ENTRIES) {
@@ -25,19 +34,15 @@ export class GameClock {
     this.t = new Float64Array(this.cap);
     this.g = new Float64Array(this.cap);
     this.s = new Float64Array(this.cap);
-    this.push(0, 0, 1);
+    this.slope = 1;
+    this.push();
   }
 
   /** Advances from `time` to `end` (engine s) at time scale `scale` (0…4); records a slope change when it differs. */
   advance(end: Seconds, scale: number): void {
-    const dt = end - this.time;
-    if (!(dt > 0)) return;
-    const s = scale >= 0 && scale <= 4 ? scale : 0;
-    const last = (this.first + this.count - 1) % this.cap;
-    if (this.s[last] !== s) this.push(this.time, this.game, s);
-    this.game += s * dt;
-    this.time = end;
-    if (s > this.maxSlopeSeen) this.maxSlopeSeen = s;
+    this.query = end;
+    this.scale = scale;
+    this.step();
   }
 
   /** Largest time scale in the history (for bounds on how fast the emission-time equation can change). */
@@ -47,16 +52,28 @@ export class GameClock {
 
   /** Game time at engine time `T` (s); extrapolated with the first and last slopes outside the history. */
   gameAt(T: Seconds): Seconds {
-    const i = this.entryAt(T);
-    return this.g[i] + this.s[i] * (T - this.t[i]);
+    this.query = T;
+    this.lookUp();
+    return this.gameFound;
   }
 
   /** Time scale (dG/dT) at engine time `T`. */
   slopeAt(T: Seconds): number {
-    return this.s[this.entryAt(T)];
+    this.query = T;
+    this.lookUp();
+    return this.slopeFound;
   }
 
-  private entryAt(T: Seconds): number {
+  /** Game time and slope at engine time `query` into `gameFound` and `slopeFound` (fields: no boxed return). */
+  private lookUp(): void {
+    const i = this.entry();
+    this.gameFound = this.g[i] + this.s[i] * (this.query - this.t[i]);
+    this.slopeFound = this.s[i];
+  }
+
+  /** History entry holding engine time `query` (an integer index: returned without boxing). */
+  private entry(): number {
+    const T = this.query;
     const cap = this.cap;
     let lo = 0;
     let hi = this.count - 1;
@@ -71,15 +88,33 @@ export class GameClock {
     return (this.first + lo) % cap;
   }
 
-  private push(T: Seconds, G: Seconds, s: number): void {
+  /** The body of `advance`: doubles arrive in fields, none is passed to a call (docs/allocation.md). */
+  private step(): void {
+    const end = this.query;
+    const dt = end - this.time;
+    if (!(dt > 0)) return;
+    const scale = this.scale;
+    const s = scale >= 0 && scale <= 4 ? scale : 0;
+    const last = (this.first + this.count - 1) % this.cap;
+    if (this.s[last] !== s) {
+      this.slope = s;
+      this.push();
+    }
+    this.game += s * dt;
+    this.time = end;
+    if (s > this.maxSlopeSeen) this.maxSlopeSeen = s;
+  }
+
+  /** Records a slope change: `slope` from engine time `time`, game time `game` on. */
+  private push(): void {
     let idx: number;
     if (this.count < this.cap) idx = (this.first + this.count++) % this.cap;
     else {
       idx = this.first;
       this.first = (this.first + 1) % this.cap;
     }
-    this.t[idx] = T;
-    this.g[idx] = G;
-    this.s[idx] = s;
+    this.t[idx] = this.time;
+    this.g[idx] = this.game;
+    this.s[idx] = this.slope;
   }
 }

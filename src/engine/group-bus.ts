@@ -1,6 +1,7 @@
 // Group buses of the engine: per-group volume (dB), mute and solo, and pause state (the whole world and per group).
 // A voice's bus gain is volume × (muted or soloed-out ? 0 : 1); the voice's own dB smoothing makes every change glide.
 import type { Decibels } from '../units';
+import { dbToGain } from '../dsp';
 
 /** Lowest group volume accepted, dB (quieter is clamped); −Infinity is not a volume, use mute. */
 export const MIN_GROUP_VOLUME_DB: Decibels = -120;
@@ -30,7 +31,7 @@ export class GroupBus {
   }
 }
 
-/** The buses of every group named so far, the world pause and the solo count; allocation-free on the audio path. */
+/** The buses of every group named so far, the world pause and the solo count; creates no objects on the audio path (docs/allocation.md). */
 export class GroupBuses {
   /** True while the whole world is paused. */
   worldPaused = false;
@@ -53,7 +54,7 @@ export class GroupBuses {
     const b = this.bus(group);
     const v = db < MIN_GROUP_VOLUME_DB ? MIN_GROUP_VOLUME_DB : db > MAX_GROUP_VOLUME_DB ? MAX_GROUP_VOLUME_DB : db;
     b.volumeDb = v;
-    b.volumeGain = v <= MIN_GROUP_VOLUME_DB ? 0 : Math.pow(10, v / 20);
+    b.volumeGain = v <= MIN_GROUP_VOLUME_DB ? 0 : dbToGain(v);
     return v === db;
   }
 

@@ -6,7 +6,7 @@ import type { VoiceScratch } from './voice';
 /** Largest number of routed groups. */
 export const MAX_GROUP_OUTPUTS = 8;
 
-/** Buffers and a plain-mix scratch for the routed groups; allocation-free per block. */
+/** Buffers and a plain-mix scratch for the routed groups; creates no objects per block (docs/allocation.md). */
 export class GroupRoutes {
   /** Routed group names, in output order. */
   readonly names: readonly string[];

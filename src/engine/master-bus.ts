@@ -1,11 +1,13 @@
 // The engine's stereo master bus: the mix buffers voices sum into, a master gain ramped linearly across each block,
 // peak metering before and after the safety limiter, and the write to the host's outputs (mono hosts get the mid).
-// The blast guard and the 0 dBFS hard ceiling always run; the tuning switches only the limiter.
+// The blast guard always runs. The tuning switches the limiter: on, no sample leaves above `master.ceilingDb`; off,
+// a hard clip at 0 dBFS holds instead (PeakLimiter).
 import type { Decibels, Hz } from '../units';
 import type { EngineStats } from './engine-types';
 import type { MixBus } from './kernel-residency';
 import { PeakLimiter } from './peak-limiter';
 import { BlastGuard } from './blast-guard';
+import { dbToGain } from '../dsp';
 
 /** Construction options of a MasterBus. */
 export interface MasterBusOptions {
@@ -13,7 +15,7 @@ export interface MasterBusOptions {
   sampleRate: Hz;
   /** Block capacity, frames (1…16384). */
   maxBlockFrames: number;
-  /** Limiter ceiling, dBFS. */
+  /** Limiter ceiling, dBFS (−24…0); holds only while the limiter runs (else 0 dBFS is the hard ceiling). */
   ceilingDb: Decibels;
   /** Whether the limiter runs. */
   limiter: boolean;
@@ -21,7 +23,7 @@ export interface MasterBusOptions {
   gainDb: Decibels;
 }
 
-/** Mix buffers, master gain, limiter and metering of one engine; never allocates after construction. */
+/** Mix buffers, master gain, limiter and metering of one engine; creates no objects after construction (what V8 may still box: docs/allocation.md). */
 export class MasterBus implements MixBus {
   /** Left mix channel (rebound to module memory on the wasm kernel). */
   left: Float32Array;
@@ -41,14 +43,14 @@ export class MasterBus implements MixBus {
     this.limiter = new PeakLimiter({ sampleRate: options.sampleRate, ceilingDb: options.ceilingDb });
     this.limiter.enabled = options.limiter;
     this.guard = new BlastGuard({ sampleRate: options.sampleRate });
-    this.master = this.masterPrev = Math.pow(10, options.gainDb / 20);
+    this.master = this.masterPrev = dbToGain(options.gainDb);
   }
 
   /** Changes the ceiling (dBFS), the limiter switch and the master gain (dB; glides across the next block). */
   configure(ceilingDb: Decibels, limiter: boolean, gainDb: Decibels): void {
     this.limiter.setCeiling(ceilingDb);
     this.limiter.enabled = limiter;
-    this.master = Math.pow(10, gainDb / 20);
+    this.master = dbToGain(gainDb);
   }
 
   /** Samples clamped or replaced on the bus: non-finite samples and hard-ceiling clips. */

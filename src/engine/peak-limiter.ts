@@ -1,6 +1,7 @@
 // Safety peak limiter: soft-knee gain computer with an infinite ratio and smooth-branching release
 // (Giannoulis, Massberg & Reiss, "Digital Dynamic Range Compressor Design — A Tutorial and Analysis", JAES 60(6), 2012).
 import type { Decibels, Hz, Seconds } from '../units';
+import { dbToGain, gainToDb } from '../dsp';
 
 /** Options of PeakLimiter. */
 export interface PeakLimiterOptions {
@@ -18,9 +19,11 @@ export interface PeakLimiterOptions {
 export const peakLimiterDefaults = Object.freeze({ ceilingDb: -1, kneeDb: 4, releaseSeconds: 0.08 });
 
 /**
- * Stereo sample-peak limiter with instant attack (look-ahead 0: no overshoot, no latency) and exponential release;
- * a sustained loud input settles exactly at the ceiling. Non-finite samples become 0 (counted). With `enabled`
- * false a hard ceiling at 0 dBFS still holds (samples beyond it are clipped and counted in `hardClips`).
+ * Stereo sample-peak limiter with instant attack (look-ahead 0: no overshoot, no latency) and exponential release.
+ * The ceiling: with `enabled`, no sample leaves above `ceilingDb` (sample peaks; a final clamp catches rounding).
+ * Peaks from ceiling − knee/2 to ceiling + knee/2 are reduced softly and leave below the ceiling; louder ones leave
+ * exactly at it. Non-finite samples become 0 (counted). With `enabled` false the tuning's ceiling does not apply, but
+ * a hard ceiling at 0 dBFS still holds (samples beyond it are clipped and counted in `hardClips`).
  */
 export class PeakLimiter {
   /** Whether limiting is applied (sanitising of non-finite samples always is). */
@@ -48,8 +51,8 @@ export class PeakLimiter {
   setCeiling(ceilingDb: Decibels, kneeDb: Decibels = this.kneeDb): void {
     this.ceilingDb = Number.isFinite(ceilingDb) ? Math.min(0, Math.max(-24, ceilingDb)) : -1;
     this.kneeDb = Number.isFinite(kneeDb) ? Math.min(12, Math.max(0, kneeDb)) : 4;
-    this.ceiling = Math.pow(10, this.ceilingDb / 20);
-    this.kneeStart = Math.pow(10, (this.ceilingDb - this.kneeDb / 2) / 20);
+    this.ceiling = dbToGain(this.ceilingDb);
+    this.kneeStart = dbToGain(this.ceilingDb - this.kneeDb / 2);
   }
 
   /** Static curve: output level in dB for input level `x` dB (soft knee of width W centred on the ceiling, ratio ∞). */
@@ -65,7 +68,7 @@ export class PeakLimiter {
 
   /** Gain reduction now, in dB (≤ 0). */
   get reductionDb(): Decibels {
-    return this.gain >= 1 ? 0 : 20 * Math.log10(this.gain);
+    return this.gain >= 1 ? 0 : gainToDb(this.gain);
   }
 
   /** Limits left/right in place over [offset, offset + frames). */
@@ -74,6 +77,8 @@ export class PeakLimiter {
     const ceiling = this.ceiling;
     const kneeStart = this.kneeStart;
     const rel = this.release;
+    const t = this.ceilingDb;
+    const w = this.kneeDb;
     let g = this.gain;
     for (let i = offset; i < end; i++) {
       let l = left[i];
@@ -105,8 +110,10 @@ export class PeakLimiter {
       const x = al > ar ? al : ar;
       let target = 1;
       if (x > kneeStart) {
-        const xdb = 20 * Math.log10(x);
-        target = Math.pow(10, (this.curveDb(xdb) - xdb) / 20);
+        // curveDb(xdb) written out: a call taking and returning doubles boxes them where V8 does not inline it.
+        const xdb = gainToDb(x);
+        const ydb = xdb <= t - w / 2 ? xdb : w > 0 && xdb < t + w / 2 ? xdb - ((xdb - t + w / 2) * (xdb - t + w / 2)) / (2 * w) : t;
+        target = dbToGain(ydb - xdb);
       }
       if (target < g) g = target;
       else if (g < 1) {

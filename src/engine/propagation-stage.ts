@@ -25,7 +25,7 @@ export interface PropagationStageOptions {
   knots?: number;
 }
 
-/** Tracks, clock and emission-time solutions for an engine; allocation-free after construction. */
+/** Tracks, clock and emission-time solutions for an engine; creates no objects after construction; its bodies take and return no doubles (docs/allocation.md). */
 export class PropagationStage {
   /** The game clock over engine time. */
   readonly clock = new GameClock();
@@ -59,6 +59,21 @@ export class PropagationStage {
   private readonly sp: Vec3Like = { x: 0, y: 0, z: 0 };
   private readonly sv: Vec3Like = { x: 0, y: 0, z: 0 };
   private blockStart: Seconds = 0;
+  // Doubles handed to the bodies of push, advance and fillRatios in fields, not as arguments: V8 boxes a double passed
+  // to or returned from a call it does not inline (docs/allocation.md); the public methods are small enough to inline.
+  private pushNow: Seconds = 0.5;
+  private pushInterval: Seconds = 0.5;
+  private pushTime: Seconds = 0.5;
+  private knot: Seconds = 0.5;
+  private blockEnd: Seconds = 0.5;
+  private blockScale = 0.5;
+  /** Inputs of `fillRamp`: the time ratio at the block's start and end, the Doppler factor at both, and its mean. */
+  readonly ramp = new Float64Array(5);
+  /** Source frames advanced by the last `fillRamp` (the sum of its ratios). */
+  rampSum = 0.5;
+  /** The resampler's ratio range as fields: module constants merged with a computed double made V8 box the double. */
+  private readonly minRatio = MIN_RATIO;
+  private readonly maxRatio = MAX_RATIO;
 
   /** Preallocates the tracks of `maxSources` sources and the listener. */
   constructor(options: PropagationStageOptions) {
@@ -83,17 +98,39 @@ export class PropagationStage {
 
   /** Engine time of a snapshot stamped `time` pushed at engine time `now` to be reached after `interval` (s). */
   knotTime(time: Seconds, now: Seconds, interval: Seconds): Seconds {
-    const target = now + interval - time;
-    if (!Number.isFinite(target)) return NaN;
+    this.pushNow = now;
+    this.pushInterval = interval;
+    this.pushTime = time;
+    this.syncKnot();
+    return this.knot;
+  }
+
+  /** The body of `knotTime`: from `pushTime`, `pushNow` and `pushInterval` into `knot` (NaN: no valid time). */
+  private syncKnot(): void {
+    const time = this.pushTime;
+    const target = this.pushNow + this.pushInterval - time;
+    if (!Number.isFinite(target)) {
+      this.knot = NaN;
+      return;
+    }
     if (!(Math.abs(target - this.offset) < RESYNC_SECONDS)) this.offset = target;
     else this.offset += (target - this.offset) * OFFSET_SLEW;
-    return time + this.offset;
+    this.knot = time + this.offset;
   }
 
   /** Records one snapshot's listener and sources; `slotOf` maps a source id to the snapshot store's slot (−1: none). */
   push(s: EngineSnapshot, now: Seconds, interval: Seconds, slotOf: (id: number) => number): void {
+    this.pushNow = now;
+    this.pushInterval = interval;
+    this.record(s, slotOf);
+  }
+
+  /** The body of `push`, at engine time `pushNow` with interval `pushInterval`. */
+  private record(s: EngineSnapshot, slotOf: (id: number) => number): void {
     this.pushes++;
-    const T = this.knotTime(s.time, now, interval);
+    this.pushTime = s.time;
+    this.syncKnot();
+    const T = this.knot;
     if (!Number.isFinite(T)) {
       this.tracks.dropped++;
       return;
@@ -126,6 +163,16 @@ export class PropagationStage {
   /** Advances the game clock over the block [start, end] at time scale `scale` and solves every live source at `end`. */
   advance(start: Seconds, end: Seconds, scale: number): void {
     this.blockStart = start;
+    this.blockEnd = end;
+    this.blockScale = scale;
+    this.solveAll();
+  }
+
+  /** The body of `advance`, over [blockStart, blockEnd] at `blockScale`. */
+  private solveAll(): void {
+    const start = this.blockStart;
+    const end = this.blockEnd;
+    const scale = this.blockScale;
     const gStart = this.clock.game;
     this.clock.advance(end, scale);
     const tracks = this.tracks;
@@ -146,7 +193,8 @@ export class PropagationStage {
       const sNow = this.clock.slopeAt(end);
       const sLow = same && prev.state !== EMISSION_NONE ? Math.min(sNow, this.clock.slopeAt(prev.tau)) : sNow;
       const subsonic = same && prev.state !== EMISSION_NONE && tracks.maxSpeed[slot] < 0.9 * c * sLow;
-      solver.solve(tracks, this.clock, slot, same && prev.state !== EMISSION_NONE ? prev.tau : NaN, subsonic, cur);
+      // The previous τ is used only when `subsonic` (which implies a valid previous solution).
+      solver.solve(tracks, this.clock, slot, prev.tau, subsonic, cur);
       cur.coneTime = NaN;
       if (!same) {
         // A new or teleported track: the block starts from this solution (no glide from elsewhere).
@@ -155,16 +203,17 @@ export class PropagationStage {
         continue;
       }
       const gBlock = this.clock.game - gStart;
-      cur.meanDoppler = prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9 ? (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock : NaN;
-      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur.tau)) {
+      if (prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9) cur.meanDoppler = (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock;
+      else cur.meanDoppler = NaN;
+      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur)) {
         let te = end - cur.scanResidual / cur.scanRate;
         if (!(te >= start)) te = start;
         cur.coneTime = te;
-        this.emit(te, this.ids[slot]);
-      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && this.supersonicAt(slot, cur.tau)) {
+        this.emit(cur, slot);
+      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && this.supersonicAt(slot, cur)) {
         // The latest root jumped forward: a (second) cone arrived.
         cur.coneTime = start;
-        this.emit(start, this.ids[slot]);
+        this.emit(cur, slot);
       }
     }
   }
@@ -190,6 +239,27 @@ export class PropagationStage {
    * the resampler's range (counted). Returns their sum (source frames advanced).
    */
   fillRatios(out: Float32Array, frames: number, r0: number, r1: number, d0: number, d1: number, mean: number): number {
+    const q = this.ramp;
+    q[0] = r0;
+    q[1] = r1;
+    q[2] = d0;
+    q[3] = d1;
+    q[4] = mean;
+    this.fillRamp(out, frames);
+    return this.rampSum;
+  }
+
+  /**
+   * `fillRatios` with its five doubles taken from `ramp` (r0, r1, d0, d1, mean) and its sum left in `rampSum`: the form
+   * for the render path, where a call V8 does not inline would box every double passed or returned.
+   */
+  fillRamp(out: Float32Array, frames: number): void {
+    const q = this.ramp;
+    const r0 = q[0];
+    const r1 = q[1];
+    const d0 = q[2];
+    const d1 = q[3];
+    const mean = q[4];
     const dr = (r1 - r0) / frames;
     const dd = (d1 - d0) / frames;
     const lo = d0 < d1 ? d0 : d1;
@@ -198,6 +268,8 @@ export class PropagationStage {
     // U'(1) = d1, averaged over each sample, so that the read advances by exactly the emission-time span; linear
     // when the mean is unknown or implausible (a new track, a Mach cone).
     const cubic = mean >= 0.5 * lo && mean <= 2 * hi;
+    const minRatio = this.minRatio;
+    const maxRatio = this.maxRatio;
     let uPrev = 0;
     let sum = 0;
     for (let i = 0; i < frames; i++) {
@@ -211,17 +283,17 @@ export class PropagationStage {
         uPrev = u;
       } else d = d0 + dd * i;
       let r = (r0 + dr * i) * d;
-      if (!(r >= MIN_RATIO)) {
-        r = MIN_RATIO;
+      if (!(r >= minRatio)) {
+        r = minRatio;
         this.ratioClamps++;
-      } else if (r > MAX_RATIO) {
-        r = MAX_RATIO;
+      } else if (r > maxRatio) {
+        r = maxRatio;
         this.ratioClamps++;
       }
       out[i] = r;
       sum += out[i];
     }
-    return sum;
+    this.rampSum = sum;
   }
 
   /** Engine time of the start of the last solved block, s. */
@@ -230,13 +302,17 @@ export class PropagationStage {
   }
 
   /** Whether source `slot` moved at least at the speed of sound (game clock) at engine time `tau`: a cone can only come from there. */
-  private supersonicAt(slot: number, tau: Seconds): boolean {
+  private supersonicAt(slot: number, sol: EmissionSolution): boolean {
+    const tau = sol.tau;
     this.tracks.evaluate(slot, tau, this.sp, this.sv);
     const v = this.sv;
     return Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * this.clock.slopeAt(tau);
   }
 
-  private emit(time: Seconds, sourceId: number): void {
+  /** Queues a shockwave of source slot `slot` at its solution's `coneTime`. */
+  private emit(sol: EmissionSolution, slot: number): void {
+    const time = sol.coneTime;
+    const sourceId = this.ids[slot];
     this.shockwaves++;
     this.lastShockwaveTime = time;
     this.lastShockwaveSource = sourceId;

@@ -17,7 +17,7 @@ export interface SnapshotStoreOptions {
 /** Source slots not seen for this many snapshots may be reused for new ids. */
 const STALE_PUSHES = 120;
 
-/** Listener and source states from the last two snapshots; allocation-free after construction. */
+/** Listener and source states from the last two snapshots; creates no objects after construction (what V8 may still box: docs/allocation.md). */
 export class SnapshotStore {
   /** Snapshots received. */
   pushes = 0;

@@ -27,7 +27,7 @@ export const APPEND_TELEPORT = 1;
 /** The knot was dropped (non-finite or absurd position, or time not after the last knot). */
 export const APPEND_DROPPED = -1;
 
-/** Trajectory rings for `slots` sources; allocation-free after construction. */
+/** Trajectory rings for `slots` sources; creates no objects after construction; its bodies take and return no doubles (docs/allocation.md). */
 export class SourceTracks {
   /** Knots dropped (bad positions, time going backwards) and explicit velocities ignored as non-finite. */
   dropped = 0;
@@ -47,6 +47,11 @@ export class SourceTracks {
   /** Largest speed seen per slot since its last restart, m/s (engine clock). */
   readonly maxSpeed: Float64Array;
   private readonly pendingTeleport: Uint8Array;
+  /** Engine time of the knot being appended or of the evaluation asked for, s: a field, so that no double crosses the
+   * calls into the bodies of `append` and `evaluate` (V8 boxes one passed to a call it does not inline). */
+  private at: Seconds = 0.5;
+  /** TRACK_EXTRAPOLATE_SECONDS as a field: a module constant merged with a computed double made V8 box the double. */
+  private readonly reach: Seconds = TRACK_EXTRAPOLATE_SECONDS;
 
   /** Preallocates `slots` rings of `knots` (≥ 4) knots. */
   constructor(slots: number, knots: number = TRACK_KNOTS) {
@@ -96,6 +101,13 @@ export class SourceTracks {
 
   /** Appends a knot at engine time T; `velocity` (m/s, engine clock) or null to derive it from positions. */
   append(slot: number, T: Seconds, p: Vec3Like, velocity: Vec3Like | null | undefined): number {
+    this.at = T;
+    return this.appendAt(slot, p, velocity);
+  }
+
+  /** The body of `append`, at engine time `at`. */
+  private appendAt(slot: number, p: Vec3Like, velocity: Vec3Like | null | undefined): number {
+    const T = this.at;
     const lim = TRACK_MAX_COORDINATE;
     if (!(p.x >= -lim && p.x <= lim && p.y >= -lim && p.y <= lim && p.z >= -lim && p.z <= lim) || !Number.isFinite(T)) {
       this.dropped++;
@@ -171,27 +183,48 @@ export class SourceTracks {
    * TRACK_BEFORE (first position held, velocity 0) or TRACK_AFTER. An empty slot gives the origin, velocity 0.
    */
   evaluate(slot: number, T: Seconds, outP: Vec3Like, outV: Vec3Like): number {
+    this.at = T;
+    return this.evaluateAt(slot, outP, outV);
+  }
+
+  /** The body of `evaluate`, at engine time `at`. */
+  private evaluateAt(slot: number, outP: Vec3Like, outV: Vec3Like): number {
+    const T = this.at;
     const n = this.count[slot];
     const P = this.pos;
     const V = this.vel;
+    // Coordinates are written field by field: a helper taking three doubles boxes them where V8 does not inline it.
     if (n === 0) {
-      setXYZ(outP, 0, 0, 0);
-      setXYZ(outV, 0, 0, 0);
+      outP.x = 0;
+      outP.y = 0;
+      outP.z = 0;
+      outV.x = 0;
+      outV.y = 0;
+      outV.z = 0;
       return TRACK_BEFORE;
     }
     const f = this.index(slot, 0);
     if (!(T > this.time[f])) {
-      setXYZ(outP, P[3 * f], P[3 * f + 1], P[3 * f + 2]);
-      setXYZ(outV, 0, 0, 0);
+      outP.x = P[3 * f];
+      outP.y = P[3 * f + 1];
+      outP.z = P[3 * f + 2];
+      outV.x = 0;
+      outV.y = 0;
+      outV.z = 0;
       return n === 1 && T === this.time[f] ? TRACK_INSIDE : TRACK_BEFORE;
     }
     const l = this.index(slot, n - 1);
     if (T >= this.time[l]) {
       const dt = T - this.time[l];
-      const e = dt < TRACK_EXTRAPOLATE_SECONDS ? dt : TRACK_EXTRAPOLATE_SECONDS;
-      const moving = dt < TRACK_EXTRAPOLATE_SECONDS ? 1 : 0;
-      setXYZ(outP, P[3 * l] + V[3 * l] * e, P[3 * l + 1] + V[3 * l + 1] * e, P[3 * l + 2] + V[3 * l + 2] * e);
-      setXYZ(outV, V[3 * l] * moving, V[3 * l + 1] * moving, V[3 * l + 2] * moving);
+      const reach = this.reach;
+      const e = dt < reach ? dt : reach;
+      const moving = dt < reach ? 1 : 0;
+      outP.x = P[3 * l] + V[3 * l] * e;
+      outP.y = P[3 * l + 1] + V[3 * l + 1] * e;
+      outP.z = P[3 * l + 2] + V[3 * l + 2] * e;
+      outV.x = V[3 * l] * moving;
+      outV.y = V[3 * l + 1] * moving;
+      outV.z = V[3 * l + 2] * moving;
       return TRACK_AFTER;
     }
     // Segment k … k+1 holding T: the hint first, then a binary search.
@@ -244,18 +277,19 @@ export class SourceTracks {
     const n = this.count[slot];
     const c = this.index(slot, n - 1);
     if (n === 1) {
-      if (this.given[c] === 0) this.setVel(c, 0, 0, 0);
+      if (this.given[c] === 0) this.vel.fill(0, 3 * c, 3 * c + 3);
       return;
     }
     const b = this.index(slot, n - 2);
     if (n === 2) {
       const h = this.time[c] - this.time[b];
       const P = this.pos;
-      const vx = (P[3 * c] - P[3 * b]) / h;
-      const vy = (P[3 * c + 1] - P[3 * b + 1]) / h;
-      const vz = (P[3 * c + 2] - P[3 * b + 2]) / h;
-      if (this.given[c] === 0) this.setVel(c, vx, vy, vz);
-      if (this.given[b] === 0) this.setVel(b, vx, vy, vz);
+      const V = this.vel;
+      for (let d = 0; d < 3; d++) {
+        const v = (P[3 * c + d] - P[3 * b + d]) / h;
+        if (this.given[c] === 0) V[3 * c + d] = v;
+        if (this.given[b] === 0) V[3 * b + d] = v;
+      }
       return;
     }
     const a = this.index(slot, n - 3);
@@ -272,29 +306,11 @@ export class SourceTracks {
     const h1 = T[c] - T[b];
     const w = h1 / (h0 + h1);
     // Slopes of the two chords; the quadratic's derivative at b is their weighted mean, at c it extrapolates.
-    let out0 = 0;
-    let out1 = 0;
-    let out2 = 0;
     for (let d = 0; d < 3; d++) {
       const s0 = (P[3 * b + d] - P[3 * a + d]) / h0;
       const s1 = (P[3 * c + d] - P[3 * b + d]) / h1;
-      const v = at === c ? s1 + (s1 - s0) * w : (s0 * h1 + s1 * h0) / (h0 + h1);
-      if (d === 0) out0 = v;
-      else if (d === 1) out1 = v;
-      else out2 = v;
+      this.vel[3 * at + d] = at === c ? s1 + (s1 - s0) * w : (s0 * h1 + s1 * h0) / (h0 + h1);
     }
-    this.setVel(at, out0, out1, out2);
-  }
-
-  private setVel(i: number, x: number, y: number, z: number): void {
-    this.vel[3 * i] = x;
-    this.vel[3 * i + 1] = y;
-    this.vel[3 * i + 2] = z;
   }
 }
 
-function setXYZ(o: Vec3Like, x: number, y: number, z: number): void {
-  o.x = x;
-  o.y = y;
-  o.z = z;
-}

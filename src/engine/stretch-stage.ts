@@ -1,6 +1,6 @@
 // The time-stretch stage of a 'stretch' voice: a WSOLA StretchReader (src/stretch) reads in place of the voice's
 // StreamReader; the read speed is the voice's smoothed ratio, the content's pitch ratio is smoothed in cents apart.
-import { OnePoleSmoother, type KernelPreference, type KernelTable, type StreamSourceOptions } from '../dsp';
+import { OnePoleSmoother, centsToRatio, ratioToCents, type KernelPreference, type KernelTable, type StreamSourceOptions } from '../dsp';
 import { StretchReader } from '../stretch';
 import type { VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
@@ -38,15 +38,37 @@ export class StretchStage {
    * voice's smoothed `dopplerCents`).
    */
   read(out: readonly Float32Array[], frames: number, speedStart: number, speedEnd: number, targets: VoiceTargets, dopplerCents: number): void {
-    const end = this.pitchAt(targets, frames, dopplerCents);
-    this.reader.read(out, 0, frames, speedStart, speedEnd, this.startPitch, end);
-    this.startPitch = end;
+    this.speedStart = speedStart;
+    this.speedEnd = speedEnd;
+    this.dopplerCents = dopplerCents;
+    this.readBlock(out, frames, targets);
   }
 
   /** Advances the position without output (virtual voices). */
   skip(frames: number, speedStart: number, speedEnd: number, targets: VoiceTargets, dopplerCents: number): void {
-    this.startPitch = this.pitchAt(targets, frames, dopplerCents);
-    this.reader.skip(frames, speedStart, speedEnd);
+    this.speedStart = speedStart;
+    this.speedEnd = speedEnd;
+    this.dopplerCents = dopplerCents;
+    this.skipBlock(frames, targets);
+  }
+
+  // Doubles handed to the bodies below in fields, not as arguments or return values: V8 boxes a double passed to or
+  // returned from a call it does not inline (docs/allocation.md).
+  private speedStart = 0.5;
+  private speedEnd = 0.5;
+  private dopplerCents = 0.5;
+  private endPitch = 0.5;
+
+  private readBlock(out: readonly Float32Array[], frames: number, targets: VoiceTargets): void {
+    this.pitchAt(targets, frames);
+    this.reader.read(out, 0, frames, this.speedStart, this.speedEnd, this.startPitch, this.endPitch);
+    this.startPitch = this.endPitch;
+  }
+
+  private skipBlock(frames: number, targets: VoiceTargets): void {
+    this.pitchAt(targets, frames);
+    this.startPitch = this.endPitch;
+    this.reader.skip(frames, this.speedStart, this.speedEnd);
   }
 
   /** True once a one-shot has played out. */
@@ -54,21 +76,23 @@ export class StretchStage {
     return this.reader.finished;
   }
 
-  private pitchAt(targets: VoiceTargets, frames: number, dopplerCents: number): number {
+  /** The pitch ratio at the block's end into `endPitch` (and, for a fresh voice, its start into `startPitch`). */
+  private pitchAt(targets: VoiceTargets, frames: number): void {
     const p = targets.pitch ?? targets.ratio;
     if (p !== this.memoPitch || targets.doppler !== this.memoDoppler) {
       this.memoPitch = p;
       this.memoDoppler = targets.doppler;
-      this.memoCents = 1200 * Math.log2(p / targets.doppler);
+      this.memoCents = ratioToCents(p / targets.doppler);
     }
     const target = this.memoCents;
+    const dopplerCents = this.dopplerCents;
     if (this.fresh) {
       this.fresh = false;
       this.pitchCents.reset(target);
-      this.startPitch = Math.pow(2, (target + dopplerCents) / 1200);
+      this.startPitch = centsToRatio(target + dopplerCents);
     }
     const c = this.pitchCents.advance(target, frames);
-    return Math.pow(2, (c + dopplerCents) / 1200);
+    this.endPitch = centsToRatio(c + dopplerCents);
   }
 }
 

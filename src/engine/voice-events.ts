@@ -1,5 +1,5 @@
 // Voice events of the engine (ended, stolen, virtual, audible) in a preallocated ring that the host drains:
-// the audio path writes numbers into typed arrays and never allocates; overflow is counted, never thrown.
+// the audio path writes numbers into typed arrays and creates no objects; overflow is counted, never thrown.
 import type { Seconds } from '../units';
 
 /** Event code: the voice has ended (its slot is free; always the voice's last event). */
@@ -22,7 +22,7 @@ export function voiceEventName(code: number): VoiceEventType {
 /** Events the ring holds by default before the host drains it. */
 export const VOICE_EVENT_CAPACITY = 1024;
 
-/** A first-in, first-out ring of (code, voice handle, engine time) triples; allocation-free after construction. */
+/** A first-in, first-out ring of (code, voice handle, engine time) triples; creates no objects after construction (what V8 may still box: docs/allocation.md). */
 export class VoiceEventRing {
   /** Events dropped because the ring was full (the host drains too rarely). */
   dropped = 0;

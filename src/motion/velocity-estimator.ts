@@ -16,7 +16,7 @@ export const velocityEstimatorDefaults: Readonly<VelocityEstimatorOptions> = Obj
   teleportSpeed: 400,
 });
 
-/** Estimates a smoothed wall-clock velocity (m/s) from (position, time) samples; allocation-free after construction. */
+/** Estimates a smoothed wall-clock velocity (m/s) from (position, time) samples; creates no objects after construction (what V8 may still box: docs/allocation.md). */
 export class VelocityEstimator {
   /** Current estimate in m/s (the same object is returned by update). */
   readonly velocity: Vec3Like = { x: 0, y: 0, z: 0 };

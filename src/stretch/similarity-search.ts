@@ -5,7 +5,7 @@
 /** Effective sample rate of the coarse pass, Hz: its decimation is round(sampleRate ÷ this), at least 1. */
 export const SEARCH_COARSE_RATE = 6000;
 
-/** Preallocated buffers and the search itself; never allocates after construction. */
+/** Preallocated buffers and the search itself; creates no objects after construction (what V8 may still box: docs/allocation.md). */
 export class SimilaritySearch {
   /** Longest compared segment, samples. */
   readonly maxCompare: number;

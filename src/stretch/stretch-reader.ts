@@ -26,7 +26,7 @@ export const stretchReaderDefaults = Object.freeze({ grainSeconds: 0.04, toleran
 
 /**
  * Reads a source at a read speed (source frames per output frame, 0 = held) with its pitch set apart by a pitch ratio
- * (the playback ratio of the grains' content); allocates nothing after construction.
+ * (the playback ratio of the grains' content); creates no objects after construction; doubles reach its bodies in fields (docs/allocation.md).
  */
 export class StretchReader {
   /** Hop between grain starts, output frames (half a grain). */
@@ -48,6 +48,17 @@ export class StretchReader {
   private newer = 0;
   private phase = 0;
   private clamps = 0;
+  // Doubles handed to the bodies of read, skip, startGrain and advance in fields, not as arguments: V8 boxes a double
+  // passed to or returned from a call it does not inline (docs/allocation.md).
+  private speedStart = 0.5;
+  private speedEnd = 0.5;
+  private pitchStart = 0.5;
+  private pitchEnd = 0.5;
+  private grainSpeed = 0.5;
+  private grainPitch = 0.5;
+  private step = 0.5;
+  /** MAX_RATIO as a field: a module constant merged with a computed double made V8 box the double. */
+  private readonly maxRatio = MAX_RATIO;
 
   /** Allocates two grain readers, their buffers, the window and the search buffers. */
   constructor(options: StretchReaderOptions) {
@@ -131,16 +142,30 @@ export class StretchReader {
    * pitchStart to pitchEnd (MIN_RATIO…4, 1 = pitch kept).
    */
   read(out: readonly Float32Array[], outOffset: number, frames: number, speedStart: number, speedEnd: number, pitchStart: number, pitchEnd: number): void {
-    const ss = this.speed(speedStart);
-    const ds = this.speed(speedEnd) - ss;
-    const ps = this.pitch(pitchStart);
-    const dp = this.pitch(pitchEnd) - ps;
+    this.speedStart = speedStart;
+    this.speedEnd = speedEnd;
+    this.pitchStart = pitchStart;
+    this.pitchEnd = pitchEnd;
+    this.readBlock(out, outOffset, frames);
+  }
+
+  /** The body of `read`, with the speed and pitch ramps in fields. */
+  private readBlock(out: readonly Float32Array[], outOffset: number, frames: number): void {
+    this.clampRamps();
+    const ss = this.speedStart;
+    const ds = this.speedEnd - ss;
+    const ps = this.pitchStart;
+    const dp = this.pitchEnd - ps;
     const hop = this.hopFrames;
     const w = this.hann;
     const chans = Math.min(out.length, this.channelsInUse);
     let done = 0;
     while (done < frames) {
-      if (this.phase >= hop) this.startGrain(ss + (ds * done) / frames, ps + (dp * done) / frames);
+      if (this.phase >= hop) {
+        this.grainSpeed = ss + (ds * done) / frames;
+        this.grainPitch = ps + (dp * done) / frames;
+        this.startGrain();
+      }
       const n = Math.min(frames - done, hop - this.phase);
       const p0 = ps + (dp * done) / frames;
       const p1 = ps + (dp * (done + n)) / frames;
@@ -156,7 +181,8 @@ export class StretchReader {
         const o = outOffset + done;
         for (let i = 0; i < n; i++) y[o + i] = w[ph + i] * a[i] + w[ph + hop + i] * b[i];
       }
-      this.advance(n * ss + (ds / frames) * ((n * (2 * done + n - 1)) / 2));
+      this.step = n * ss + (ds / frames) * ((n * (2 * done + n - 1)) / 2);
+      this.advance();
       this.phase += n;
       done += n;
     }
@@ -164,10 +190,46 @@ export class StretchReader {
 
   /** Advances the position as `read` would, without output (virtual voices); the next read starts a fresh grain. */
   skip(frames: number, speedStart: number, speedEnd: number): void {
-    const ss = this.speed(speedStart);
-    const se = this.speed(speedEnd);
-    this.advance(frames * ss + ((se - ss) * (frames - 1)) / 2);
+    this.speedStart = speedStart;
+    this.speedEnd = speedEnd;
+    this.skipBlock(frames);
+  }
+
+  /** The body of `skip`. */
+  private skipBlock(frames: number): void {
+    this.pitchStart = 1;
+    this.pitchEnd = 1;
+    this.clampRamps();
+    const ss = this.speedStart;
+    const se = this.speedEnd;
+    this.step = frames * ss + ((se - ss) * (frames - 1)) / 2;
+    this.advance();
     this.restart();
+  }
+
+  /** Clamps the ramps' ends in place (counted): speeds to 0…MAX_RATIO, pitch ratios to 1/64…MAX_RATIO (NaN → 1). */
+  private clampRamps(): void {
+    const max = this.maxRatio;
+    const s0 = this.speedStart;
+    const s1 = this.speedEnd;
+    const p0 = this.pitchStart;
+    const p1 = this.pitchEnd;
+    if (!(s0 >= 0 && s0 <= max)) {
+      this.clamps++;
+      this.speedStart = s0 > max ? max : 0;
+    }
+    if (!(s1 >= 0 && s1 <= max)) {
+      this.clamps++;
+      this.speedEnd = s1 > max ? max : 0;
+    }
+    if (!(p0 >= 1 / 64 && p0 <= max)) {
+      this.clamps++;
+      this.pitchStart = p0 > max ? max : p0 >= 0 ? 1 / 64 : 1;
+    }
+    if (!(p1 >= 1 / 64 && p1 <= max)) {
+      this.clamps++;
+      this.pitchEnd = p1 > max ? max : p1 >= 0 ? 1 / 64 : 1;
+    }
   }
 
   /** Positions the continuation reader at the current position and asks for a new grain at the next read. */
@@ -178,7 +240,9 @@ export class StretchReader {
   }
 
   /** Hop boundary: the finished grain's reader starts the next grain where the search puts it. */
-  private startGrain(speed: number, pitch: number): void {
+  private startGrain(): void {
+    const speed = this.grainSpeed;
+    const pitch = this.grainPitch;
     const hop = this.hopFrames;
     const cont = this.readers[this.newer].position;
     const next = 1 - this.newer;
@@ -219,25 +283,14 @@ export class StretchReader {
     }
   }
 
-  private advance(frames: number): void {
-    let p = this.pos + frames;
+  /** Moves the position by `step` source frames (loop-wrapped). */
+  private advance(): void {
+    let p = this.pos + this.step;
     if (this.loop && p >= this.loopEnd) {
       p = this.loopStart + ((p - this.loopStart) % (this.loopEnd - this.loopStart));
       this.wrapped = true;
     }
     this.pos = p;
-  }
-
-  private speed(s: number): number {
-    if (s >= 0 && s <= MAX_RATIO) return s;
-    this.clamps++;
-    return s > MAX_RATIO ? MAX_RATIO : 0;
-  }
-
-  private pitch(p: number): number {
-    if (p >= 1 / 64 && p <= MAX_RATIO) return p;
-    this.clamps++;
-    return p > MAX_RATIO ? MAX_RATIO : p >= 0 ? 1 / 64 : 1;
   }
 }
 

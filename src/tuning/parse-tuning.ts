@@ -153,7 +153,8 @@ function parseGroup(value: Json, path: string, issues: IssueSink): GroupTuning |
     else if (limit === 'curve') out[key] = parseCurve(obj[key], key as 'stretchPitch', childPath(path, key), issues);
     else out[key] = field(obj, key, limit, path, issues);
   }
-  return out as unknown as GroupTuning;
+  assembledAs<GroupTuning>(out);
+  return out;
 }
 
 function parseGroups(value: Json, issues: IssueSink): Obj {
@@ -212,7 +213,16 @@ function parseVersion1(doc: Obj, issues: IssueSink): Tuning {
     out[name] = Object.prototype.hasOwnProperty.call(doc, name) ? parseSection(name, doc[name], issues) : defaultTuning[name];
   }
   out.groups = Object.prototype.hasOwnProperty.call(doc, 'groups') ? parseGroups(doc.groups, issues) : defaultTuning.groups;
-  return out as unknown as Tuning;
+  assembledAs<Tuning>(out);
+  return out;
+}
+
+/**
+ * Marks `out`, assembled key by key from the limits table, as a T. The compiler cannot follow that assembly; every
+ * field was checked against its limit on the way, and parseTuning throws when any check recorded an issue.
+ */
+function assembledAs<T>(out: Obj): asserts out is Obj & T {
+  void out;
 }
 
 function deepFreeze<T>(value: T): T {

@@ -32,7 +32,7 @@ export function serializeTuning(tuning: Tuning): string {
   const t = parseTuning(tuning);
   const doc: Record<string, unknown> = { version: t.version };
   for (const name of Object.keys(sectionLimits) as (keyof typeof sectionLimits)[]) {
-    doc[name] = ordered(t[name] as unknown as Record<string, unknown>, Object.keys(sectionLimits[name]));
+    doc[name] = ordered(t[name], Object.keys(sectionLimits[name]));
   }
   const groups: Record<string, unknown> = {};
   for (const name of Object.keys(t.groups)) groups[name] = group(t.groups[name]);

@@ -44,7 +44,7 @@ describe('snapshot encoding', () => {
     expect(grown.length).toBe(snapshotLength(2));
   });
 
-  it('gives fresh objects on every decode (the engine may keep them)', () => {
+  it('gives fresh objects on every decode (nothing shared between results)', () => {
     const d = encodeSnapshot(snapshot);
     const a = decodeSnapshot(d)!;
     const b = decodeSnapshot(d)!;
@@ -75,6 +75,8 @@ describe('command decoding', () => {
     { type: 'time-scale', request: { target: 0.5, rampSeconds: 1, easing: 'smooth', startTime: 2 } },
     { type: 'tuning', tuning: {} as never },
     { type: 'sync', id: 4 },
+    { type: 'teleport', source: 7 },
+    { type: 'remove-sound', sound: 2 },
   ];
   it.each(good.map((c) => [c.type, c] as const))('accepts a well-formed %s command unchanged', (_t, c) => {
     expect(decodeCommand(c)).toBe(c);
@@ -94,6 +96,12 @@ describe('command decoding', () => {
     [{ type: 'snapshot', data: [1, 2] }, 'snapshot.data'],
     [{ type: 'time-scale', request: { target: 0.5 } }, 'time-scale.request'],
     [{ type: 'sync', id: 'x' }, 'sync.id'],
+    [{ type: 'remove-sound', sound: 'a' }, 'remove-sound.sound'],
+    [{ type: 'tuning', tuning: 'default' }, 'tuning.tuning'],
+    [{ type: 'tables', tables: [{}] }, 'tables.tables'],
+    [{ type: 'teleport', source: Infinity }, 'teleport.source'],
+    [{ type: 'toString' }, 'unknown type'],
+    [{ type: '__proto__' }, 'unknown type'],
   ])('rejects %j naming %s', (data, field) => {
     const r = decodeCommand(data);
     expect(typeof r).toBe('string');

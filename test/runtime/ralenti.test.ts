@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { Ralenti, RalentiOptionError, TuningError, defaultTuning, type RalentiPlayOptions } from '../../runtime/index';
+import { Ralenti, RalentiOptionError, TuningError, defaultTuning, parseTuning, serializeTuning, type RalentiPlayOptions } from '../../runtime/index';
+import { Engine } from '../../src/engine/index';
 import { decodeSnapshot } from '../../runtime/protocol';
 import { FakeWorkletNode, fakeContext } from './fake-worklet-node';
 
@@ -153,6 +154,16 @@ describe('Ralenti main-thread API', () => {
     const [sync] = node.commands('sync');
     node.deliver({ type: 'synced', id: sync.id, contextTime: 1 });
     await expect(flushed).resolves.toBeUndefined();
+  });
+
+  it('holds complete stats before the first report: counters at their start, the tuning\'s tier, the same fields as an engine\'s', () => {
+    const node = new FakeWorkletNode();
+    const tuning = parseTuning({ ...JSON.parse(serializeTuning(defaultTuning)), resampler: { tier: 'high' } });
+    const r = new Ralenti({ context: fakeContext(0), node: node as unknown as AudioWorkletNode, tuning, capacity: 8 });
+    expect(r.stats).toMatchObject({ activeVoices: 0, steals: 0, errors: 0, timeScale: 1, tier: 'high', shockwaves: 0, lastShockwaveSource: -1 });
+    expect(['wasm-simd', 'typescript']).toContain(r.stats.kernel);
+    const engine = new Engine({ sampleRate: 48000, capacity: 1, tuning });
+    expect(Object.keys(r.stats).sort()).toEqual(Object.keys(engine.stats).sort());
   });
 
   it('connects, disposes once, and refuses work afterwards', () => {

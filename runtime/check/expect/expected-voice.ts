@@ -4,6 +4,7 @@
 // and the tuning's maximum shift. Nothing here is taken from the engine; smoothing or lag is never expected.
 import type { Tuning } from '../../../src/tuning';
 import { DEFAULT_GROUP } from '../../../src/tuning';
+import { centsToRatio, dbToGain, ratioToCents } from '../../../src/dsp';
 import type { MotionSpec, SceneScript, VoiceSpec } from '../../offline/scene-types';
 import { CheckCurve } from './check-curve';
 import { CheckPath, type Vec } from './check-path';
@@ -19,6 +20,10 @@ export const EXPECTED_RATIO_RANGE = Object.freeze({ min: 1 / 1024, max: 4 });
 export const GAME_CLOCK_FLOOR = 0.05;
 
 const MODELS: readonly string[] = ['propagation', 'instant', 'off'];
+const isModel = (v: unknown): v is DopplerModel => typeof v === 'string' && MODELS.includes(v);
+
+/** Field `key` of `o` as stored, whatever the format's type says: the checker reads older and newer tuning formats alike. */
+const stored = (o: object | undefined, key: string): unknown => (o === undefined ? undefined : Reflect.get(o, key));
 
 /**
  * The Doppler model a tuning asks for in `groupName` (unknown groups use the default group): `doppler: false` or a
@@ -27,11 +32,11 @@ const MODELS: readonly string[] = ['propagation', 'instant', 'off'];
  * `doppler.model`, else 'instant' — the only model of the engine before the switch existed.
  */
 export function dopplerModelOf(tuning: Tuning, groupName: string | null | undefined): DopplerModel {
-  const group = (tuning.groups[groupName ?? DEFAULT_GROUP] ?? tuning.groups[DEFAULT_GROUP]) as unknown as Record<string, unknown> | undefined;
-  if (!group || !(tuning.doppler.factor > 0) || group.doppler === false) return 'off';
-  for (const own of [group.motion, group.doppler, group.dopplerModel]) if (typeof own === 'string' && MODELS.includes(own)) return own as DopplerModel;
-  const global = (tuning.doppler as unknown as Record<string, unknown>).model;
-  return typeof global === 'string' && MODELS.includes(global) ? (global as DopplerModel) : 'instant';
+  const group: object | undefined = tuning.groups[groupName ?? DEFAULT_GROUP] ?? tuning.groups[DEFAULT_GROUP];
+  if (!group || !(tuning.doppler.factor > 0) || stored(group, 'doppler') === false) return 'off';
+  for (const own of [stored(group, 'motion'), stored(group, 'doppler'), stored(group, 'dopplerModel')]) if (isModel(own)) return own;
+  const global = stored(tuning.doppler, 'model');
+  return isModel(global) ? global : 'instant';
 }
 
 /** Speed of sound the tuning declares, m/s: the override, or 331.3·√(1 + T/273.15) (docs/references.md §2, from memory). */
@@ -46,8 +51,6 @@ export interface ExpectedSample {
   /** Why hz is NaN: before the sound arrives or after it ends, frozen, or no single emission (supersonic). */
   silentWhy: 'not-started' | 'ended' | 'frozen' | 'supersonic' | null;
 }
-
-const cents = (r: number): number => 1200 * Math.log2(r);
 
 /** Expected pitch of one voice of a scene script. */
 export class ExpectedVoice {
@@ -106,7 +109,7 @@ export class ExpectedVoice {
     this.factor = tuning.doppler.factor;
     // A Doppler factor DF scales the effect as a speed of sound c/DF would (OpenAL 1.1 §3.5.2 algebra).
     this.c = declaredSpeedOfSound(tuning) / (this.factor > 0 ? this.factor : 1);
-    this.maxShift = Math.min(tuning.doppler.maxShiftCents, cents(EXPECTED_RATIO_RANGE.max));
+    this.maxShift = Math.min(tuning.doppler.maxShiftCents, ratioToCents(EXPECTED_RATIO_RANGE.max));
     this.gameClock = tuning.doppler.velocityClock === 'game';
     this.solver = this.model === 'propagation' && this.source ? new EmissionSolver(this.source, this.c, this.clock) : null;
   }
@@ -159,7 +162,7 @@ export class ExpectedVoice {
         const sHere = this.clock.valueAt(t);
         if (!(sHere > 0)) return { hz: NaN, silentWhy: 'frozen' };
         const gameRatio = (e.ratio * this.clock.valueAt(e.tau)) / sHere;
-        dopplerCents = gameRatio > 0 ? cents(gameRatio) : -Infinity;
+        dopplerCents = gameRatio > 0 ? ratioToCents(gameRatio) : -Infinity;
       } else {
         // maxShiftCents belongs to the same-instant formula only: propagation has no clamp but the ratio range's.
         dopplerCents = Math.max(-this.maxShift, Math.min(this.maxShift, this.instantCents(t)));
@@ -169,9 +172,9 @@ export class ExpectedVoice {
     if (this.voice.stop !== null && emitAt > this.voice.stop) return { hz: NaN, silentWhy: 'ended' };
     const s = this.clock.valueAt(t);
     const speed = this.followsTime ? this.pitch.valueAt(s) : 1;
-    const total = speed > 0 ? cents(speed) + dopplerCents : -Infinity;
-    if (!(total >= cents(EXPECTED_RATIO_RANGE.min))) return { hz: NaN, silentWhy: 'frozen' };
-    return { hz: this.emittedHz * 2 ** (Math.min(total, cents(EXPECTED_RATIO_RANGE.max)) / 1200), silentWhy: null };
+    const total = speed > 0 ? ratioToCents(speed) + dopplerCents : -Infinity;
+    if (!(total >= ratioToCents(EXPECTED_RATIO_RANGE.min))) return { hz: NaN, silentWhy: 'frozen' };
+    return { hz: this.emittedHz * centsToRatio(Math.min(total, ratioToCents(EXPECTED_RATIO_RANGE.max))), silentWhy: null };
   }
 
   /** Same-instant formula: projections on source→listener, each clamped to c/DF from above, (c − vls)/(c − vss). */
@@ -189,7 +192,7 @@ export class ExpectedVoice {
     const num = this.c - vls;
     const den = this.c - vss;
     if (den <= 0) return num <= 0 ? 0 : Infinity;
-    return num > 0 ? cents(num / den) : -Infinity;
+    return num > 0 ? ratioToCents(num / den) : -Infinity;
   }
 
   /**
@@ -199,7 +202,7 @@ export class ExpectedVoice {
    */
   gainAt(t: number): number {
     const groupDb = this.exempt ? 0 : this.level.valueAt(this.clock.valueAt(t));
-    let g = this.voice.gain * 10 ** (groupDb / 20);
+    let g = this.voice.gain * dbToGain(groupDb);
     if (this.source !== null) {
       this.listener.at(t, this.L, this.vL);
       this.source.at(t, this.S, this.vS);

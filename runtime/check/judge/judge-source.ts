@@ -3,6 +3,7 @@
 // the same windows as the heard audio, so the tracker's averaging over fast glides (closest approach) cancels and
 // every voiced frame can be judged. Frames that cannot be judged are kept as spans with their reason.
 import { PitchTracker } from '../../../src/analysis';
+import { centsToRatio, dbToGain, gainToDb, ratioToCents } from '../../../src/dsp';
 import { followBand } from './band-follower';
 import { verdict } from './source-verdict';
 
@@ -118,7 +119,7 @@ const ONSET_SECONDS = 0.01;
 const MIN_PERIODS_IN_WINDOW = 2;
 /** Glide across one window above which a frame of too few periods is not judged, cents. */
 const GLIDE_CENTS = 10;
-const cents = (a: number, b: number): number => 1200 * Math.log2(a / b);
+const cents = (a: number, b: number): number => ratioToCents(a / b);
 
 /** Judges one source; see the file comment. */
 export function judgeSource(input: JudgeInput): JudgedSource {
@@ -199,7 +200,7 @@ export function judgeSource(input: JudgeInput): JudgedSource {
     levels[i] = Math.sqrt(e / W);
     peak = Math.max(peak, levels[i]);
   }
-  const floor = Math.max(1e-4, peak * 10 ** (-45 / 20));
+  const floor = Math.max(1e-4, peak * dbToGain(-45));
   for (let i = 0; i < frames; i++) {
     const o = i * tracker.hopFrames;
     const t = (o + (W - 1) / 2) / sr;
@@ -243,11 +244,11 @@ function overlaps(f: number, level: number, partials: readonly number[], other: 
     const c = Math.abs(cents(other * k, f));
     if (c > OVERLAP_CENTS) continue;
     if (c < OVERLAP_NEAR_CENTS) return true;
-    const r = 2 ** (c / 1200);
+    const r = centsToRatio(c);
     const x = BAND_Q * (r - 1 / r);
     const attenuationDb = 4 * 10 * Math.log10(1 + x * x);
     const theirs = (otherLevel * otherPartials[k - 1]) / sum;
-    if (theirs > 0 && 20 * Math.log10(theirs / Math.max(own, 1e-12)) - attenuationDb > -OVERLAP_DB) return true;
+    if (theirs > 0 && gainToDb(theirs / Math.max(own, 1e-12)) - attenuationDb > -OVERLAP_DB) return true;
   }
   return false;
 }

@@ -1,0 +1,81 @@
+// A runtime's life on the main thread: open until dispose() or until its AudioContext closes; the flush() waiters
+// that must settle either way; and the listeners of audio-thread errors.
+import type { Command } from './protocol';
+import type { RalentiAudioError } from './ralenti-types';
+import { RalentiClosedError } from './runtime-error';
+
+/** Open/closed state, pending flushes and error listeners of one runtime. */
+export class RuntimeLifecycle {
+  private disposedFlag = false;
+  private contextClosed = false;
+  private nextSync = 1;
+  private readonly syncWaiters = new Map<number, () => void>();
+  private readonly errorListeners = new Set<(e: RalentiAudioError) => void>();
+
+  /** Watches `context`: once it closes, every waiting flush settles (a closed context answers no more messages). */
+  constructor(private readonly context: BaseAudioContext) {
+    const events: Partial<Pick<EventTarget, 'addEventListener'>> = context;
+    events.addEventListener?.('statechange', () => {
+      if (context.state === 'closed') this.settle();
+    });
+  }
+
+  /** True after dispose(). */
+  get disposed(): boolean {
+    return this.disposedFlag;
+  }
+
+  /** True after dispose() or once the context is closed (a closed context stays closed). */
+  get closed(): boolean {
+    if (!this.contextClosed && this.context.state === 'closed') this.contextClosed = true;
+    return this.disposedFlag || this.contextClosed;
+  }
+
+  /** Throws RalentiClosedError naming call `what` after dispose() or once the context is closed. */
+  alive(what: string): void {
+    if (this.disposedFlag) throw new RalentiClosedError(what, 'disposed');
+    if (this.closed) throw new RalentiClosedError(what, 'closed');
+  }
+
+  /** A promise that settles when the worklet answers the 'sync' command sent through `send`; at once when closed. */
+  flush(send: (c: Command) => void): Promise<void> {
+    if (this.closed) return Promise.resolve();
+    const id = this.nextSync++;
+    return new Promise((resolve) => {
+      this.syncWaiters.set(id, resolve);
+      send({ type: 'sync', id });
+    });
+  }
+
+  /** The worklet answered sync `id`: its flush settles. */
+  synced(id: number): void {
+    const w = this.syncWaiters.get(id);
+    this.syncWaiters.delete(id);
+    w?.();
+  }
+
+  /** Settles every waiting flush (the worklet will answer no more). */
+  settle(): void {
+    for (const resolve of this.syncWaiters.values()) resolve();
+    this.syncWaiters.clear();
+  }
+
+  /** Marks the runtime disposed and settles the waiting flushes; false when it already was. */
+  dispose(): boolean {
+    if (this.disposedFlag) return false;
+    this.disposedFlag = true;
+    this.settle();
+    return true;
+  }
+
+  /** Adds an error listener; returns a function that removes it. */
+  onError(cb: (e: RalentiAudioError) => void): () => void {
+    this.errorListeners.add(cb);
+    return () => this.errorListeners.delete(cb);
+  }
+
+  /** Calls every error listener with `e`. */
+  emitError(e: RalentiAudioError): void {
+    for (const cb of this.errorListeners) cb(e);
+  }
+}

@@ -1,0 +1,83 @@
+// The measurement of the zero-allocation check (docs/allocation.md), run in its own `node --expose-gc` process on the
+// engine bundled by esbuild as the package ships it (zero-allocation.test.ts builds and spawns it). Prints one JSON line.
+// "0 bytes": V8's used heap size (every space) read right before and right after each span of blocks differs by exactly
+// what the two readings allocate themselves (measured around an empty span). With no collection in between the used
+// heap only grows, by every byte allocated. A collection inside a span is counted from its 'gc' performance entry:
+// a scavenge would hide allocation, so the test fails on any.
+import { getHeapStatistics } from 'node:v8';
+import { PerformanceObserver, performance, type PerformanceEntry } from 'node:perf_hooks';
+import type { KernelPreference } from '../../src/index';
+import { allocationScene } from './allocation-scene';
+
+/** Blocks rendered before measuring, twice with a full collection between, in calls of WARM_UP_CALL. */
+const WARM_UP_BLOCKS = 2000;
+const WARM_UP_CALL = 50;
+/** Blocks measured, in spans of SPAN_BLOCKS, each after a scavenge (small enough to fit the young generation). */
+const MEASURED_BLOCKS = 10_000;
+const SPAN_BLOCKS = 50;
+
+/** What the probe reports. */
+export interface AllocationReport {
+  kernel: string;
+  blocks: number;
+  /** Bytes allocated over all measured blocks (reading overhead subtracted). */
+  bytes: number;
+  /** Collections that started inside a measured span. */
+  collections: number;
+  /** Bytes per block of each span. */
+  spans: number[];
+  /** Voices playing or virtual at the end, and render errors. */
+  voices: number;
+  errors: number;
+}
+
+const gc = (globalThis as unknown as { gc?: (o?: { type: 'major' | 'minor' }) => void }).gc;
+
+async function main(): Promise<void> {
+  if (gc === undefined) throw new Error('run with node --expose-gc');
+  const kernel = (process.argv[2] ?? 'auto') as KernelPreference;
+  const entries: PerformanceEntry[] = [];
+  const observer = new PerformanceObserver((list) => entries.push(...list.getEntries()));
+  observer.observe({ entryTypes: ['gc'] });
+  const settle = async () => {
+    for (let i = 0; i < 3; i++) await new Promise((r) => setImmediate(r));
+    await new Promise((r) => setTimeout(r, 0));
+    entries.push(...observer.takeRecords());
+  };
+  // A scavenge before each span empties the young generation; a full collection would also let V8 drop optimised
+  // code that embeds objects it no longer holds ("weak objects"), and code running unoptimised boxes its doubles.
+  const across = async (work: () => void) => {
+    gc({ type: 'minor' });
+    await settle();
+    const from = performance.now();
+    const before = getHeapStatistics().used_heap_size;
+    work();
+    const after = getHeapStatistics().used_heap_size;
+    const to = performance.now();
+    await settle();
+    return { bytes: after - before, collections: entries.filter((e) => e.startTime >= from && e.startTime <= to).length };
+  };
+
+  const scene = allocationScene(kernel);
+  for (let b = 0; b < WARM_UP_BLOCKS; b += WARM_UP_CALL) scene.run(WARM_UP_CALL);
+  gc({ type: 'major' }); // the set-up's garbage; then warm up again so that what it dropped is optimised again
+  for (let b = 0; b < WARM_UP_BLOCKS; b += WARM_UP_CALL) scene.run(WARM_UP_CALL);
+  const nothing = () => {};
+  await across(nothing);
+  const overhead = await across(nothing);
+  const report: AllocationReport = { kernel: scene.engine.stats.kernel, blocks: MEASURED_BLOCKS, bytes: 0, collections: overhead.collections, spans: [], voices: 0, errors: 0 };
+  const span = () => scene.run(SPAN_BLOCKS);
+  for (let b = 0; b < MEASURED_BLOCKS; b += SPAN_BLOCKS) {
+    const m = await across(span);
+    report.bytes += m.bytes - overhead.bytes;
+    report.collections += m.collections;
+    report.spans.push((m.bytes - overhead.bytes) / SPAN_BLOCKS);
+  }
+  observer.disconnect();
+  const st = scene.engine.stats;
+  report.voices = st.activeVoices + st.virtualVoices;
+  report.errors = st.errors;
+  process.stdout.write(`${JSON.stringify(report)}\n`);
+}
+
+void main();
