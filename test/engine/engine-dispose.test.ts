@@ -7,6 +7,9 @@ import { engineAt, renderFor, sine } from './engine-helpers';
 
 const SR = 48000;
 
+/** Names of Engine's public methods (keyof sees public members only). */
+type EngineMethod = { [K in keyof Engine]: Engine[K] extends (...args: never[]) => unknown ? K : never }[keyof Engine];
+
 /** An engine on the default kernel with a stereo sound of `seconds` playing (looped). */
 function busyEngine(seconds: number): { engine: Engine; channels: Float32Array[] } {
   const engine = engineAt();
@@ -89,39 +92,40 @@ describe('Engine.dispose', () => {
     }
   });
 
-  // Every public method but render, with plausible arguments: each must throw EngineClosedError naming itself.
-  const calls: [string, (e: Engine) => unknown][] = [
-    ['addSound', (e) => e.addSound([new Float32Array(16)], SR)],
-    ['removeSound', (e) => e.removeSound(0)],
-    ['play', (e) => e.play(0)],
-    ['stop', (e) => e.stop(0)],
-    ['setVoice', (e) => e.setVoice(0, { gain: 1 })],
-    ['setTuning', (e) => e.setTuning(e.currentTuning)],
-    ['useTables', (e) => e.useTables([])],
-    ['pushSnapshot', (e) => e.pushSnapshot({ time: 0, listener: { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } }, sources: [] })],
-    ['setTimeScale', (e) => e.setTimeScale({ target: 0.5, rampSeconds: 0.1, easing: 'linear' })],
-    ['teleport', (e) => e.teleport(0)],
-    ['drainShockwaves', (e) => e.drainShockwaves([])],
-    ['pause', (e) => e.pause()],
-    ['resume', (e) => e.resume()],
-    ['setGroupPausable', (e) => e.setGroupPausable('music', false)],
-    ['setGroupVolume', (e) => e.setGroupVolume('music', -6)],
-    ['setGroupMute', (e) => e.setGroupMute('music', true)],
-    ['setGroupSolo', (e) => e.setGroupSolo('music', true)],
-    ['getGroupState', (e) => e.getGroupState('music')],
-    ['seek', (e) => e.seek(0, 0)],
-    ['voiceState', (e) => e.voiceState(0)],
-    ['voicePosition', (e) => e.voicePosition(0)],
-    ['voiceSpeed', (e) => e.voiceSpeed(0)],
-    ['setSourceSpatial', (e) => e.setSourceSpatial(0, null)],
-    ['drainEvents', (e) => e.drainEvents(new Float64Array(3))],
-    ['monitor', (e) => e.monitor([])],
-  ];
+  // Every public method but render and dispose, with plausible arguments: each must throw EngineClosedError naming
+  // itself. The type makes a new public method of Engine a compile error here until it is added.
+  const calls: Record<Exclude<EngineMethod, 'render' | 'dispose'>, (e: Engine) => unknown> = {
+    addSound: (e) => e.addSound([new Float32Array(16)], SR),
+    removeSound: (e) => e.removeSound(0),
+    play: (e) => e.play(0),
+    stop: (e) => e.stop(0),
+    setVoice: (e) => e.setVoice(0, { gain: 1 }),
+    setTuning: (e) => e.setTuning(e.currentTuning),
+    useTables: (e) => e.useTables([]),
+    pushSnapshot: (e) => e.pushSnapshot({ time: 0, listener: { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } }, sources: [] }),
+    setTimeScale: (e) => e.setTimeScale({ target: 0.5, rampSeconds: 0.1, easing: 'linear' }),
+    teleport: (e) => e.teleport(0),
+    drainShockwaves: (e) => e.drainShockwaves([]),
+    pause: (e) => e.pause(),
+    resume: (e) => e.resume(),
+    setGroupPausable: (e) => e.setGroupPausable('music', false),
+    setGroupVolume: (e) => e.setGroupVolume('music', -6),
+    setGroupMute: (e) => e.setGroupMute('music', true),
+    setGroupSolo: (e) => e.setGroupSolo('music', true),
+    getGroupState: (e) => e.getGroupState('music'),
+    seek: (e) => e.seek(0, 0),
+    voiceState: (e) => e.voiceState(0),
+    voicePosition: (e) => e.voicePosition(0),
+    voiceSpeed: (e) => e.voiceSpeed(0),
+    setSourceSpatial: (e) => e.setSourceSpatial(0, null),
+    drainEvents: (e) => e.drainEvents(new Float64Array(3)),
+    monitor: (e) => e.monitor([]),
+  };
 
   it('refuses every other call after dispose with EngineClosedError naming the call', () => {
     const engine = engineAt();
     engine.dispose();
-    for (const [name, call] of calls) {
+    for (const [name, call] of Object.entries(calls)) {
       let caught: unknown = null;
       try {
         call(engine);
@@ -131,16 +135,5 @@ describe('Engine.dispose', () => {
       expect(caught, name).toBeInstanceOf(EngineClosedError);
       expect((caught as EngineClosedError).field).toBe(`Engine.${name}`);
     }
-  });
-
-  it('lists every public method of Engine in the refusal table', () => {
-    const own = Object.getOwnPropertyNames(Engine.prototype).filter((n) => {
-      const d = Object.getOwnPropertyDescriptor(Engine.prototype, n)!;
-      return typeof d.value === 'function' && n !== 'constructor';
-    });
-    const covered = new Set([...calls.map(([n]) => n), 'render', 'dispose']);
-    // Private helpers are prototype functions too; they are named here so that a new public method must be added above.
-    const privateHelpers = new Set(['live', 'renderDisposed', 'tableFor', 'switchTable', 'block', 'mapInto', 'mapSource', 'smoothing']);
-    expect(own.filter((n) => !covered.has(n) && !privateHelpers.has(n))).toEqual([]);
   });
 });
