@@ -219,11 +219,12 @@ export class EngineHost {
 
   /**
    * Renders one block into `output` (the node's first output, one Float32Array per channel).
-   * Never throws: on failure the block is silent, the error counted and reported. Returns true (keep alive).
+   * Never throws: on failure the block is silent, the error counted and reported. Returns true (keep alive), false once disposed.
    */
   process(output: Float32Array[] | undefined, all?: Float32Array[][]): boolean {
     if (this.engine.disposed) {
       if (output) silence(output);
+      if (all) for (let k = 1; k < all.length; k++) silence(all[k]);
       return false; // the node was closed: let the processor go
     }
     if (!output || output.length === 0) return true;
