@@ -20,3 +20,16 @@ export function centsToRatio(cents: Cents): number {
 export function ratioToCents(ratio: number): Cents {
   return 1200 * Math.log2(ratio);
 }
+
+/** The level floor of the floored conversions, dB: a gain at or below 10⁻⁶ reads as this, and this level as silence. */
+export const DB_FLOOR: Decibels = -120;
+
+/** Level in dB for a linear gain, floored: gains at or below 10⁻⁶ (−120 dB), 0 and NaN give DB_FLOOR (−120). */
+export function gainToDbFloor(gain: number): Decibels {
+  return gain > 1e-6 ? 20 * Math.log10(gain) : -120; // gainToDb's formula and DB_FLOOR written out: a module constant merged with a double boxes it in V8
+}
+
+/** Linear gain for a level in dB, floored: levels within 0.01 dB of DB_FLOOR (−120) or below give exactly 0. */
+export function dbToGainFloor(db: Decibels): number {
+  return db <= -119.99 ? 0 : Math.pow(10, db / 20); // dbToGain's formula and DB_FLOOR + 0.01 written out (as above)
+}

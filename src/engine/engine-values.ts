@@ -1,6 +1,6 @@
 // Value checks of the engine: option ranges validated on the main thread (typed errors naming the field), and the
 // clamping and target copies of the audio thread (no allocation, no throw).
-import type { Voice } from './voice';
+import type { VoiceTargets } from '../dilation';
 
 /** Returns `v` when it is an integer in min…max; otherwise throws RangeError naming EngineOptions.`name`. */
 export function checkRange(name: string, v: number, min: number, max: number): number {
@@ -15,7 +15,7 @@ export function clampNumber(v: number, min: number, max: number, fallback: numbe
 }
 
 /** Copies every field of one voice's mapped targets into another's. */
-export function copyTargets(from: Voice['targets'], to: Voice['targets']): void {
+export function copyTargets(from: VoiceTargets, to: VoiceTargets): void {
   to.ratio = from.ratio;
   to.cutoffHz = from.cutoffHz;
   to.gain = from.gain;

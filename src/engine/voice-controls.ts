@@ -43,16 +43,16 @@ export class VoiceControls {
   /** Binds slot `v` to its group's bus and its source's spatial settings (command path: may create the bus). */
   attach(v: Voice, exempt: boolean): void {
     this.rebind(v, exempt);
-    this.sourceSpatial[v.index] = v.sourceId === -1 ? null : (this.spatial.get(v.sourceId) ?? null);
+    this.sourceSpatial[v.index] = v.params.sourceId === -1 ? null : (this.spatial.get(v.params.sourceId) ?? null);
     this.seekFrame[v.index] = -1;
-    v.held = false;
+    v.unhold();
   }
 
   /** Rebinds slot `v` to its (possibly changed) group's bus after a tuning change. */
   rebind(v: Voice, exempt: boolean): void {
-    this.bus[v.index] = this.buses.bus(v.group);
+    this.bus[v.index] = this.buses.bus(v.params.group);
     this.exempt[v.index] = exempt ? 1 : 0;
-    this.route[v.index] = this.routes === null ? -1 : this.routes.indexOf(v.group);
+    this.route[v.index] = this.routes === null ? -1 : this.routes.indexOf(v.params.group);
   }
 
   /** Routed output index of slot `v`'s group, or −1 for the master bus. */
@@ -69,7 +69,7 @@ export class VoiceControls {
   setSourceSpatial(sourceId: number, s: SourceSpatial | null, voices: readonly Voice[]): void {
     if (s === null) this.spatial.delete(sourceId);
     else this.spatial.set(sourceId, s);
-    for (let i = 0; i < voices.length; i++) if (voices[i].state !== VOICE_FREE && voices[i].sourceId === sourceId) this.sourceSpatial[i] = s;
+    for (let i = 0; i < voices.length; i++) if (voices[i].state !== VOICE_FREE && voices[i].params.sourceId === sourceId) this.sourceSpatial[i] = s;
   }
 
   /** Asks slot `v` to move its read head to `frame` (source frames) after a short fade out; it fades back in there. */
@@ -81,15 +81,15 @@ export class VoiceControls {
   beforeRender(v: Voice): void {
     const b = this.bus[v.index];
     v.targets.gain *= this.buses.gainOf(b);
-    v.held = this.seekFrame[v.index] >= 0 || this.buses.heldOf(b, this.exempt[v.index] === 1);
+    if (this.seekFrame[v.index] >= 0 || this.buses.heldOf(b, this.exempt[v.index] === 1)) v.hold();
+    else v.unhold();
   }
 
   /** After rendering slot `v`: completes a pending seek once the voice is silent. */
   afterRender(v: Voice): void {
     const f = this.seekFrame[v.index];
     if (f >= 0 && v.env === 0) {
-      v.reader.position = f;
-      if (v.stretch !== null) v.stretch.reader.seek(f); // 'stretch' groups read through their stretch stage
+      v.seekTo(f);
       this.seekFrame[v.index] = -1;
     }
   }

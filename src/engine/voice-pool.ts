@@ -30,6 +30,8 @@ export class VoicePool {
   readonly capacity: number;
   /** Playing (not releasing) voices: raised by `take`, lowered by `release` and `free`. */
   private owned = 0;
+  /** Generation of each slot's handle: raised each time the slot frees. */
+  private readonly generations: Uint32Array;
   private readonly bank: SoundBank;
   private readonly events: VoiceEventRing | null;
 
@@ -39,6 +41,7 @@ export class VoicePool {
     this.capacity = options.capacity;
     this.bank = options.bank;
     this.events = options.events ?? null;
+    this.generations = new Uint32Array(options.voices.length);
   }
 
   /** True when `capacity` voices are playing. */
@@ -48,7 +51,7 @@ export class VoicePool {
 
   /** The handle of voice `v` (a non-negative integer). */
   handleOf(v: Voice): number {
-    return v.index + HANDLE_SLOTS * v.generation;
+    return v.index + HANDLE_SLOTS * this.generations[v.index];
   }
 
   /** The voice a handle names, or null for an unknown, stale or free one. */
@@ -56,7 +59,7 @@ export class VoicePool {
     if (!Number.isInteger(handle) || handle < 0) return null;
     const i = handle % HANDLE_SLOTS;
     const v = this.voices[i];
-    if (v === undefined || v.state === VOICE_FREE || (handle - i) / HANDLE_SLOTS !== v.generation) return null;
+    if (v === undefined || v.state === VOICE_FREE || (handle - i) / HANDLE_SLOTS !== this.generations[i]) return null;
     return v;
   }
 
@@ -68,7 +71,7 @@ export class VoicePool {
       if (v.state !== VOICE_PLAYING) continue;
       if (victim === null || yieldsBefore(v, victim)) victim = v;
     }
-    if (victim === null || victim.priority > priority || (victim.priority === priority && victim.audibility > audibility)) return false;
+    if (victim === null || victim.params.priority > priority || (victim.params.priority === priority && victim.audibility > audibility)) return false;
     // A sounding victim needs a fade slot; with every fade slot busy, making room would cut a voice (a click): refuse.
     if (victim.env !== 0 && !this.hasFreeSlot()) return false;
     this.events?.push(EVENT_STOLEN, this.handleOf(victim));
@@ -82,9 +85,7 @@ export class VoicePool {
       this.free(v);
       return;
     }
-    v.state = VOICE_RELEASING;
-    v.envTarget = 0;
-    v.releaseStep = v.fadeStep(fadeSeconds);
+    v.release(fadeSeconds);
     this.owned--;
   }
 
@@ -92,17 +93,17 @@ export class VoicePool {
   free(v: Voice): void {
     if (v.state === VOICE_PLAYING) this.owned--;
     if (v.state !== VOICE_FREE) {
-      this.bank.release(v.sound, -1);
+      this.bank.release(v.params.sound, -1);
       this.events?.push(EVENT_ENDED, this.handleOf(v));
     }
-    v.state = VOICE_FREE;
-    v.generation = (v.generation + 1) % GENERATIONS;
+    v.free();
+    this.generations[v.index] = (this.generations[v.index] + 1) % GENERATIONS;
   }
 
   /** A free voice slot, marked playing and counted; when every slot is busy, the quietest releasing voice is cut (it is fading out anyway). */
   take(): Voice {
     const v = this.freeOrQuietest();
-    v.state = VOICE_PLAYING;
+    v.reserve();
     this.owned++;
     return v;
   }
@@ -114,7 +115,7 @@ export class VoicePool {
     let readerClamps = 0;
     for (let i = 0; i < this.voices.length; i++) {
       const v = this.voices[i];
-      readerClamps += v.reader.clampCount;
+      readerClamps += v.clampCount;
       if (v.state === VOICE_FREE) continue;
       if (v.virtual) virtual++;
       else active++;
@@ -143,8 +144,8 @@ export class VoicePool {
 
 /** Whether `v` is stolen before `w`: lower priority, then lower audibility, then older. */
 function yieldsBefore(v: Voice, w: Voice): boolean {
-  if (v.priority !== w.priority) return v.priority < w.priority;
+  if (v.params.priority !== w.params.priority) return v.params.priority < w.params.priority;
   const a = v.audibility;
   const b = w.audibility;
-  return a !== b ? a < b : v.sequence < w.sequence;
+  return a !== b ? a < b : v.params.sequence < w.params.sequence;
 }

@@ -5,7 +5,6 @@ import type { SourceState } from '../dilation';
 import type { AirAbsorption } from '../motion';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { PropagationStage } from './propagation-stage';
-import { EMISSION_NONE } from './emission-solver';
 import type { Voice } from './voice';
 
 /** A propagating voice on a source no snapshot has named yet waits this long for it, then plays non-positioned, s. */
@@ -23,33 +22,13 @@ const AIR_OPEN_HZ = OPEN_CUTOFF_HZ * 0.999;
 export function propagateVoice(
   stage: PropagationStage, v: Voice, slot: number, n: number, now: number, sampleRate: number, emission: SourceState & { velocity: Vec3Like },
 ): (SourceState & { velocity: Vec3Like }) | null {
-  v.dopplerStart = v.dopplerEnd;
-  v.dopplerMean = NaN;
   if (slot < 0) {
-    if (!v.arrived && now - v.startTime >= SOURCE_WAIT_SECONDS) v.arrived = true;
-    v.dopplerEnd = 1;
+    v.loseEmission(now, SOURCE_WAIT_SECONDS);
     return null;
   }
   const sol = stage.now[slot];
-  const pre = stage.before[slot];
-  if (v.fresh) v.dopplerStart = pre.state !== EMISSION_NONE ? pre.doppler : sol.doppler;
-  if (sol.state !== EMISSION_NONE) v.dopplerEnd = sol.doppler;
-  v.dopplerMean = sol.meanDoppler;
-  if (!v.arrived && sol.state !== EMISSION_NONE && sol.tau >= v.startTime) {
-    v.arrived = true;
-    const span = sol.tau - pre.tau;
-    const block = n / sampleRate;
-    if (pre.state !== EMISSION_NONE && pre.tau < v.startTime && span > 0 && span < 8 * block) {
-      const k = Math.floor((n * (v.startTime - pre.tau)) / span);
-      v.arrivalFrames = k < 0 ? 0 : k >= n ? n - 1 : k;
-    } else {
-      if (sol.tau - v.startTime > block) v.arrivalSkipFrames = (sol.tau - v.startTime) * sampleRate;
-      // A Mach cone: silent until its estimated arrival inside the block.
-      const k = Math.floor((sol.coneTime - now) * sampleRate);
-      v.arrivalFrames = k > 0 ? (k < n ? k : n - 1) : 0;
-    }
-  }
-  emission.id = v.sourceId;
+  v.followEmission(stage.before[slot], sol, n, now, sampleRate);
+  emission.id = v.params.sourceId;
   emission.position.x = sol.position.x;
   emission.position.y = sol.position.y;
   emission.position.z = sol.position.z;
@@ -64,7 +43,7 @@ export function propagateVoice(
 export function airStage(v: Voice, air: AirAbsorption): void {
   const t = v.targets;
   const cut = air.cutoffHz(t.distance);
-  if (cut < AIR_ENGAGE_HZ) v.airEngaged = true;
+  if (cut < AIR_ENGAGE_HZ) v.engageAir();
   if (!v.airEngaged) return;
   if (cut < t.cutoffHz) t.cutoffHz = cut < AIR_OPEN_HZ ? cut : AIR_OPEN_HZ;
   else if (t.cutoffHz > AIR_OPEN_HZ) t.cutoffHz = AIR_OPEN_HZ;

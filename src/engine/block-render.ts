@@ -1,0 +1,99 @@
+// The per-block render loop: control values at each block's end (snapshots, time flow, propagation), each voice's
+// targets mapped and rendered through its stage chain into the master bus or its group's route, then the buses'
+// finish and the stats. Never throws (a caught exception zeroes the block and counts an error), never allocates.
+import { EVENT_AUDIBLE, EVENT_VIRTUAL } from './voice-events';
+import { VOICE_FREE } from './voice';
+import { airStage, propagateVoice } from './voice-propagation';
+import type { EngineCore } from './engine-core';
+
+/** Renders `frames` stereo frames into outputs[0|1] and each routed group into groupOutputs[k][0|1], in blocks of at most maxBlock. */
+export function renderFrames(core: EngineCore, outputs: readonly Float32Array[], frames: number, groupOutputs: readonly (readonly Float32Array[])[] | undefined): void {
+  const st = core.stats;
+  try {
+    st.peakIn = 0;
+    st.peakOut = 0;
+    for (let done = 0; done < frames; ) {
+      const n = frames - done < core.maxBlock ? frames - done : core.maxBlock;
+      renderBlock(core, outputs, done, n, groupOutputs);
+      done += n;
+    }
+  } catch {
+    st.errors++;
+    for (const o of outputs) o.fill(0, 0, Math.min(frames, o.length));
+    if (groupOutputs !== undefined) for (const g of groupOutputs) for (const o of g) o.fill(0, 0, Math.min(frames, o.length));
+  }
+  collectStats(core);
+}
+
+function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset: number, n: number, groupOutputs: readonly (readonly Float32Array[])[] | undefined): void {
+  const bus = core.bus;
+  const mixL = bus.left;
+  const mixR = bus.right;
+  bus.clear(n);
+  const routes = core.routes;
+  routes.clear(n);
+  const controls = core.controls;
+  const snapshots = core.snapshots;
+  const stage = core.stage;
+  core.events.now = core.time;
+  // Control values at the block's end, reached there by per-sample ramps from the block's start (no half-block lag).
+  // The time flow runs on the pause clock: it holds while the world is paused.
+  const tStart = core.frameCount / core.sampleRate;
+  const tEnd = (core.frameCount + n) / core.sampleRate;
+  snapshots.interpolate(tEnd);
+  const input = core.input;
+  input.timeScale = core.flow.valueAt(controls.flowTime(tEnd));
+  const voices = core.voices;
+  for (let i = 0; i < voices.length; i++) {
+    const v = voices[i];
+    const p = v.params;
+    if (v.state === VOICE_FREE || p.sourceId === -1) continue;
+    if (!snapshots.holds(p.sourceSlot, p.sourceId)) v.bindSourceSlot(snapshots.find(p.sourceId));
+    if (v.propagating) stage.need(p.sourceSlot);
+  }
+  stage.advance(tStart, tEnd, core.flow.valueAt(controls.flowTime(0.5 * (tStart + tEnd))));
+  for (let i = 0; i < voices.length; i++) {
+    const v = voices[i];
+    if (v.state === VOICE_FREE) continue;
+    const p = v.params;
+    const slot = p.sourceId === -1 ? -1 : p.sourceSlot;
+    const source = v.propagating ? propagateVoice(stage, v, slot, n, core.time, core.sampleRate, core.emission) : slot >= 0 ? snapshots.sourceAt(slot) : null;
+    input.group = p.group;
+    input.baseRatio = p.ratio * p.rateFactor;
+    input.gain = p.gain;
+    input.source = source;
+    input.spatial = controls.spatialOf(v);
+    core.mapper.map(v.targets, input);
+    if (v.propagating && source !== null) airStage(v, core.air);
+    controls.beforeRender(v);
+    const wasVirtual = v.virtual;
+    const route = controls.routeOf(v);
+    const alive = route < 0 ? v.render(mixL, mixR, 0, n, core.scratch) : v.render(routes.left[route], routes.right[route], 0, n, routes.scratchFor(core.scratch));
+    controls.afterRender(v);
+    if (v.virtual !== wasVirtual) core.events.push(v.virtual ? EVENT_VIRTUAL : EVENT_AUDIBLE, core.pool.handleOf(v));
+    if (!alive) core.pool.free(v);
+  }
+  bus.finish(outputs, offset, n, core.stats);
+  routes.finish(groupOutputs, offset, n, core.routeCeiling);
+  core.frameCount += n;
+}
+
+/** Gathers the counters of every part into the stats after a render call. */
+function collectStats(core: EngineCore): void {
+  const st = core.stats;
+  const readerClamps = core.pool.count(st);
+  const stage = core.stage;
+  st.clamps = core.clamps + core.routes.clamps + core.mapper.clamps + core.flow.clamps + core.snapshots.clamps + core.bus.clamps + readerClamps + core.stretches.clampCount + stage.ratioClamps + stage.tracks.dropped;
+  st.ratioClamps = stage.ratioClamps;
+  st.teleports = stage.tracks.teleports;
+  if (stage.shockwaves !== st.shockwaves) {
+    st.shockwaves = stage.shockwaves;
+    st.lastShockwaveTime = stage.lastShockwaveTime;
+    st.lastShockwaveSource = stage.lastShockwaveSource;
+  }
+  st.refused += core.snapshots.refused;
+  core.snapshots.refused = 0;
+  st.limiterDb = core.bus.limiter.reductionDb;
+  st.timeScale = core.timeScaleNow;
+  st.time = core.time;
+}

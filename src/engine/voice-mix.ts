@@ -1,0 +1,34 @@
+// The mix stage of a voice: adds its block into a stereo bus with the gain stage's per-sample linear ramps, in
+// TypeScript or in the WebAssembly module's `mix` (f64 lanes, the same operations) when the buffers live in its memory.
+import type { WasmKernel } from '../dsp';
+import type { VoiceGain } from './voice-gain';
+
+/**
+ * Adds `frames` of `x0`/`x1` (left/right; the same array for a mono sound) into mixL/mixR from `offset`, ramped by
+ * `gain`'s left0/leftStep and right0/rightStep; through `wasm` when non-null (every array then a view of its memory).
+ * Returns false when the input was not finite (the caller then clears its filter state).
+ */
+export function mixBlock(x0: Float32Array, x1: Float32Array, mixL: Float32Array, mixR: Float32Array, offset: number, frames: number, gain: VoiceGain, wasm: WasmKernel | null): boolean {
+  const gl0 = gain.left0;
+  const dgl = gain.leftStep;
+  const gr0 = gain.right0;
+  const dgr = gain.rightStep;
+  if (wasm !== null) {
+    // The gains go into the module's parameter block; only small integers cross the call (no boxed doubles).
+    const g = wasm.mixGains;
+    g[0] = gl0;
+    g[1] = dgl;
+    g[2] = gr0;
+    g[3] = dgr;
+    return wasm.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames) !== 0;
+  }
+  let check = 0;
+  for (let i = 0; i < frames; i++) {
+    const a = x0[i];
+    const b = x1[i];
+    mixL[offset + i] += a * (gl0 + dgl * (i + 1));
+    mixR[offset + i] += b * (gr0 + dgr * (i + 1));
+    check += a + b;
+  }
+  return check - check === 0;
+}

@@ -1,0 +1,27 @@
+// The resample stage of a voice: band-limited variable-ratio reading (Kaiser-windowed sinc, polyphase table; see
+// src/dsp/stream-reader.ts) at the pitch stage's ratio ramp, per-sample ratios for a propagating voice, or WSOLA
+// time stretch for 'stretch' groups; and the matching position advance without output for a virtual voice.
+import type { VoiceTargets } from '../dilation';
+import type { SourceRead } from './voice-source-read';
+import type { VoicePitch } from './voice-pitch';
+
+/**
+ * Reads one block of `frames` into `bufs` (1 or 2 channels) from `source` at `pitch`'s ratios: the stretch stage when
+ * the voice has one, the per-sample `ratios` of a propagating voice (silent before its arrival sample), else the
+ * linear ratio ramp of the block.
+ */
+export function resampleBlock(source: SourceRead, pitch: VoicePitch, bufs: readonly Float32Array[], frames: number, ratios: Float32Array, silentFrames: number, targets: VoiceTargets): void {
+  if (source.stretch !== null) source.stretch.read(bufs, frames, pitch.blockStart, pitch.current, targets, pitch.dopplerCents.value);
+  else if (source.propagating) {
+    source.reader.readRatios(bufs, 0, frames, ratios, 0);
+    // Before the arrival sample nothing has reached the listener yet.
+    for (let c = 0; c < bufs.length; c++) bufs[c].fill(0, 0, silentFrames);
+  } else source.reader.read(bufs, 0, frames, pitch.blockStart, pitch.current);
+}
+
+/** Advances `source` as `resampleBlock` would, without output (a virtual voice); `advance`: a propagating voice's frames read. */
+export function skipBlock(source: SourceRead, pitch: VoicePitch, frames: number, advance: number, targets: VoiceTargets): void {
+  if (source.stretch !== null) source.stretch.skip(frames, pitch.blockStart, pitch.current, targets, pitch.dopplerCents.value);
+  else if (source.propagating) source.reader.position = source.reader.position + advance;
+  else source.reader.skip(frames, pitch.blockStart, pitch.current);
+}

@@ -1,0 +1,114 @@
+// The tone stage of a voice: the dilation tone (and air absorption) as an RBJ cookbook low-pass (biquad, Q 1/√2),
+// cutoff smoothed in log frequency and set per 32-frame sub-block; bypassed when open, crossfaded over one block on a change.
+import { BiquadLowpass, OnePoleSmoother } from '../dsp';
+import { OPEN_CUTOFF_HZ } from '../tuning';
+import type { Hz, Seconds } from '../units';
+
+/** Frames per dilation-tone coefficient update. */
+export const TONE_SUB_BLOCK = 32;
+/** Q of the dilation-tone low-pass (Butterworth, 1/√2). */
+export const TONE_Q = Math.SQRT1_2;
+
+const OPEN_LOG2 = Math.log2(OPEN_CUTOFF_HZ);
+
+/** A voice's low-pass, its smoothed cutoff and its bypass state; allocation-free per block. */
+export class VoiceTone {
+  /** The two-channel low-pass. */
+  readonly filter = new BiquadLowpass({ channels: 2 });
+  /** Smoothed cutoff, log2 Hz. */
+  readonly cutoffLog2: OnePoleSmoother;
+  /** Whether the low-pass is in the path (false: bypassed, the target is open and the cutoff has arrived). */
+  wet = false;
+  /** The air-absorption low-pass has engaged for this voice (it then stays engaged for the voice's life). */
+  airEngaged = false;
+  private target = 0.5;
+  private memoHz = NaN;
+  private readonly sampleRate: Hz;
+
+  /** An open, bypassed tone with cutoff smoothing `cutoffSeconds` (s) at `sampleRate` (Hz). */
+  constructor(sampleRate: Hz, cutoffSeconds: Seconds) {
+    this.sampleRate = sampleRate;
+    this.cutoffLog2 = new OnePoleSmoother({ timeConstantSeconds: cutoffSeconds, sampleRate, initial: OPEN_LOG2 });
+  }
+
+  /** Sets the smoothing time constant, s. */
+  setSmoothing(cutoffSeconds: Seconds): void {
+    this.cutoffLog2.setTimeConstant(cutoffSeconds);
+  }
+
+  /** Smoothed cutoff now, Hz (OPEN_CUTOFF_HZ when bypassed). */
+  get currentCutoff(): Hz {
+    return this.wet ? Math.pow(2, this.cutoffLog2.value) : OPEN_CUTOFF_HZ;
+  }
+
+  /** Reads the block's target cutoff, Hz (the logarithm is kept while it repeats). */
+  aim(cutoffHz: Hz): void {
+    if (cutoffHz !== this.memoHz) {
+      this.memoHz = cutoffHz;
+      this.target = Math.log2(cutoffHz);
+    }
+  }
+
+  /** Jumps to the target last aimed at, with a cleared filter (a voice's first block). */
+  jump(): void {
+    this.cutoffLog2.reset(this.target);
+    this.wet = this.target < OPEN_LOG2;
+    this.filter.reset();
+  }
+
+  /** Clears the filter's state (after a non-finite input, or when a voice becomes audible again). */
+  clear(): void {
+    this.filter.reset();
+  }
+
+  /** Advances the cutoff over `frames` without filtering (held, silent or virtual voices). */
+  idle(frames: number): void {
+    const v = this.cutoffLog2.advance(this.target, frames);
+    if (Math.abs(v - this.target) < 1e-4) this.cutoffLog2.reset(this.target);
+  }
+
+  /** Filters `frames` of `bufs` in place; `dry` (as many channels, ≥ frames) holds the unfiltered copy for a crossfade. */
+  process(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number): void {
+    const target = this.target;
+    const wasWet = this.wet;
+    const before = this.cutoffLog2.value;
+    const nowWet = !(target >= OPEN_LOG2 && (before >= OPEN_LOG2 || target - before < 1e-3));
+    this.wet = nowWet;
+    if (!wasWet && !nowWet) {
+      this.idle(frames);
+      return;
+    }
+    const chans = bufs.length;
+    const changing = wasWet !== nowWet;
+    if (changing) for (let ch = 0; ch < chans; ch++) copy(bufs[ch], dry[ch], frames);
+    if (!wasWet) this.filter.reset();
+    const sr = this.sampleRate;
+    for (let off = 0; off < frames; off += TONE_SUB_BLOCK) {
+      const n = frames - off < TONE_SUB_BLOCK ? frames - off : TONE_SUB_BLOCK;
+      let c = this.cutoffLog2.advance(target, n);
+      if (Math.abs(c - target) < 1e-4) {
+        this.cutoffLog2.reset(target);
+        c = target;
+      }
+      this.filter.setLowpass(Math.pow(2, c), TONE_Q, sr);
+      this.filter.process(bufs, off, n);
+    }
+    if (changing) crossfade(bufs, dry, frames, nowWet);
+  }
+}
+
+/** Crossfades over the block from dry to filtered (`toWet`) or from filtered to dry, in place in `bufs`. */
+function crossfade(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number, toWet: boolean): void {
+  for (let ch = 0; ch < bufs.length; ch++) {
+    const x = bufs[ch];
+    const d = dry[ch];
+    for (let i = 0; i < frames; i++) {
+      const w = (i + 1) / frames;
+      x[i] = toWet ? d[i] + (x[i] - d[i]) * w : x[i] + (d[i] - x[i]) * w;
+    }
+  }
+}
+
+function copy(from: Float32Array, to: Float32Array, frames: number): void {
+  for (let i = 0; i < frames; i++) to[i] = from[i];
+}

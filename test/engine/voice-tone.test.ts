@@ -1,0 +1,62 @@
+// The tone stage: bypassed (bit-exact) when open; engaged, the RBJ cookbook low-pass at Q = 1/√2, which is the
+// prewarped bilinear Butterworth: |H|² = 1 / (1 + (tan(πf/fs) / tan(πfc/fs))⁴) (docs/references.md §4).
+import { describe, expect, it } from 'vitest';
+import { VoiceTone } from '../../src/engine/voice-tone';
+import { OPEN_CUTOFF_HZ } from '../../src/tuning';
+
+const SR = 48000;
+const N = 128;
+
+function sineBlocks(tone: VoiceTone, hz: number, blocks: number): number {
+  const x = [new Float32Array(N), new Float32Array(N)];
+  const dry = [new Float32Array(N), new Float32Array(N)];
+  let peak = 0;
+  for (let b = 0; b < blocks; b++) {
+    for (let i = 0; i < N; i++) x[0][i] = x[1][i] = Math.sin((2 * Math.PI * hz * (b * N + i)) / SR);
+    tone.process(x, dry, N);
+    if (b >= blocks / 2) for (let i = 0; i < N; i++) peak = Math.max(peak, Math.abs(x[0][i]));
+  }
+  return peak;
+}
+
+describe('VoiceTone', () => {
+  it('leaves the signal untouched while the cutoff is open', () => {
+    const tone = new VoiceTone(SR, 0.02);
+    tone.aim(OPEN_CUTOFF_HZ);
+    tone.jump();
+    const x = [Float32Array.from({ length: N }, (_, i) => Math.sin(i))];
+    const copy = Float32Array.from(x[0]);
+    tone.process(x, [new Float32Array(N)], N);
+    expect(tone.wet).toBe(false);
+    expect(x[0]).toEqual(copy);
+  });
+
+  it.each([
+    { fc: 1000, f: 4000 },
+    { fc: 2000, f: 500 },
+    { fc: 4000, f: 4000 },
+  ])('at cutoff $fc Hz passes $f Hz at the Butterworth magnitude', ({ fc, f }) => {
+    const tone = new VoiceTone(SR, 0);
+    tone.aim(fc);
+    tone.jump();
+    const want = 1 / Math.sqrt(1 + Math.pow(Math.tan((Math.PI * f) / SR) / Math.tan((Math.PI * fc) / SR), 4));
+    expect(tone.wet).toBe(true);
+    expect(sineBlocks(tone, f, 40)).toBeCloseTo(want, 2);
+  });
+
+  it('once an opened cutoff has arrived, crossfades from filtered to dry over one block', () => {
+    const tone = new VoiceTone(SR, 0);
+    tone.aim(1000);
+    tone.jump();
+    sineBlocks(tone, 200, 4);
+    tone.aim(OPEN_CUTOFF_HZ);
+    const x = [new Float32Array(N).fill(1)];
+    tone.process(x, [new Float32Array(N)], N); // the cutoff glides open, still filtered
+    expect(tone.wet).toBe(true);
+    x[0].fill(1);
+    tone.process(x, [new Float32Array(N)], N);
+    expect(tone.wet).toBe(false);
+    expect(x[0][N - 1]).toBeCloseTo(1, 6); // the last sample is all dry
+    expect(tone.currentCutoff).toBe(OPEN_CUTOFF_HZ);
+  });
+});
