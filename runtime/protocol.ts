@@ -105,8 +105,14 @@ export interface SyncCommand {
   id: number;
 }
 
+/** The node is being closed (Ralenti.dispose): the host disposes its engine and the processor ends. */
+export interface CloseCommand {
+  type: 'close';
+}
+
 /** Everything the main thread sends. */
 export type Command =
+  | CloseCommand
   | AddSoundCommand
   | RemoveSoundCommand
   | PlayCommand
@@ -225,6 +231,7 @@ const commandChecks: { readonly [K in CommandType]: ShapeCheck } = {
   tuning: (d) => (isObject(d.tuning) ? null : 'tuning.tuning: expected an object'),
   tables: (d) => (Array.isArray(d.tables) && d.tables.every(isPackedKernelTable) ? null : 'tables.tables: expected packed kernel tables'),
   sync: (d) => (isHandle(d.id) ? null : 'sync.id: expected a handle'),
+  close: () => null,
   teleport: (d) => (typeof d.source === 'number' && Number.isFinite(d.source) ? null : 'teleport.source: expected a source id'),
   ...controlCommandChecks,
 };

@@ -270,6 +270,7 @@ export class Ralenti {
 
   /** Disconnects and closes the port; the runtime is unusable afterwards. */
   dispose(): void {
+    if (!this.life.disposed) this.send({ type: 'close' }); // the worklet disposes its engine (module memory back at once) and ends
     if (!this.life.dispose()) return;
     try {
       this.node.disconnect();

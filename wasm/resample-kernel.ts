@@ -37,7 +37,15 @@ export function diffFloats(halfDense: i32, s: i32): i32 {
  * Lays out the stretched kernel of stride `s`: residue row ρ holds dense[K − m·s] for m = 0… (K = largest k ≤ total + 1
  * with k ≡ ρ mod s), so the taps of one output sample are contiguous and ascend with the source frame.
  */
-export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc: usize, rows: usize, diffs: usize): void {
+export function buildStride(params: usize): void {
+  // Parameter block (i32 each, bytes): 0 table · 4 dense · 8 total · 12 s · 16 desc · 20 rows · 24 diffs.
+  const table = <usize>load<i32>(params, 0);
+  const dense = <usize>load<i32>(params, 4);
+  const total = load<i32>(params, 8);
+  const s = load<i32>(params, 12);
+  const desc = <usize>load<i32>(params, 16);
+  const rows = <usize>load<i32>(params, 20);
+  let diffs = <usize>load<i32>(params, 24);
   const halfDense = load<i32>(table, 4);
   const count = total + 2;
   for (let rho = 0; rho < s; rho++) {
@@ -84,13 +92,32 @@ export function buildStride(table: usize, dense: usize, total: i32, s: i32, desc
   return f32x4.add(t, v128.shuffle<f32>(t, t, 1, 0, 3, 2));
 }
 
+// Parameter block of `render` at `params` (bytes), written by the JavaScript side (src/dsp/wasm/kernel-params.ts):
+// 0 i32 table · 4 i32 x0 · 8 i32 x1 · 12 i32 spanBase · 16 i32 out0 · 20 i32 out1 · 24 i32 iStart · 28 i32 iEnd ·
+// 32 i32 ratios · 36 i32 last stride (out) · 40 f64 pos (in: start, out: end) · 48 f64 frames · 56 f64 rs · 64 f64 dr ·
+// 72 f64 loopEnd.
+
 /**
  * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i − iStart], f64, when `ratios` ≠ 0),
  * position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose float 0 is source frame
  * `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance reaches `loopEnd`.
- * Returns the samples written; the position after them (f64) and the last stride (i32) go to state and state + 8.
+ * Returns the samples written; the position after them replaces `pos` and the last stride goes to its slot (offset 36).
  */
-export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: usize, out1: usize, pos: f64, iStart: i32, iEnd: i32, frames: f64, rs: f64, dr: f64, ratios: usize, loopEnd: f64, state: usize): i32 {
+export function render(params: usize): i32 {
+  const table = <usize>load<i32>(params, 0);
+  const x0 = <usize>load<i32>(params, 4);
+  const x1 = <usize>load<i32>(params, 8);
+  const spanBase = load<i32>(params, 12);
+  const out0 = <usize>load<i32>(params, 16);
+  const out1 = <usize>load<i32>(params, 20);
+  const iStart = load<i32>(params, 24);
+  const iEnd = load<i32>(params, 28);
+  const ratios = <usize>load<i32>(params, 32);
+  const pos = load<f64>(params, 40);
+  const frames = load<f64>(params, 48);
+  const rs = load<f64>(params, 56);
+  const dr = load<f64>(params, 64);
+  const loopEnd = load<f64>(params, 72);
   const phases = load<i32>(table, 0);
   const spr = load<f64>(table, 8);
   const grid = <usize>load<i32>(table, 16);
@@ -197,17 +224,29 @@ export function render(table: usize, x0: usize, x1: usize, spanBase: i32, out0: 
     i++;
     if (p >= loopEnd) break;
   }
-  store<f64>(state, p);
-  store<i32>(state, st, 8);
+  store<f64>(params, p, 40);
+  store<i32>(params, st, 36);
   return i - iStart;
 }
+
+// Parameter block of `mix` at `params` (bytes): 0 i32 x0 · 4 i32 x1 · 8 i32 mixL · 12 i32 mixR · 16 i32 frames ·
+// 24 f64 gl0 · 32 f64 dgl · 40 f64 gr0 · 48 f64 dgr.
 
 /**
  * Gain-ramp mix of one voice: mixL[i] += x0[i]·(gl0 + dgl·(i + 1)), mixR[i] += x1[i]·(gr0 + dgr·(i + 1)), i < frames,
  * in f64 lanes (f64x2) rounded once to f32, the same operations as the TypeScript mix. Returns 1 when every input
  * sample is finite, 0 otherwise.
  */
-export function mix(x0: usize, x1: usize, mixL: usize, mixR: usize, frames: i32, gl0: f64, dgl: f64, gr0: f64, dgr: f64): i32 {
+export function mix(params: usize): i32 {
+  const x0 = <usize>load<i32>(params, 0);
+  const x1 = <usize>load<i32>(params, 4);
+  const mixL = <usize>load<i32>(params, 8);
+  const mixR = <usize>load<i32>(params, 12);
+  const frames = load<i32>(params, 16);
+  const gl0 = load<f64>(params, 24);
+  const dgl = load<f64>(params, 32);
+  const gr0 = load<f64>(params, 40);
+  const dgr = load<f64>(params, 48);
   let check = f64x2.splat(0);
   let i = 0;
   const quad = frames & ~3;

@@ -89,6 +89,7 @@ async function renderPass(loaded: LoadedScene, options: SceneRenderOptions, io: 
       if (k % 256 === 255) await yieldToEvents();
     }
   } finally {
+    run.dispose(); // also on a failed write: the engine's memory goes back at once
     bar?.done();
   }
   return run;

@@ -130,7 +130,10 @@ export class SceneRun {
     let block = 0;
     this.step0 = () => {
       const o = this.rendered;
-      if (o >= total) return 0;
+      if (o >= total) {
+        engine.dispose(); // the render is complete: its module memory goes back at once
+        return 0;
+      }
       const n = Math.min(SCENE_BLOCK_FRAMES, total - o);
       const t0 = o / sr;
       const t1 = (o + n) / sr;
@@ -172,9 +175,15 @@ export class SceneRun {
     };
   }
 
-  /** Renders the next block into `left`/`right`; returns its frame count, 0 when the render is complete. */
+  /** Renders the next block into `left`/`right`; returns its frame count, 0 when the render is complete (the engine is then disposed). */
   step(): number {
     return this.step0();
+  }
+
+  /** Ends the render early (the engine's memory is released; later steps return 0); idempotent, implied by the last step. */
+  dispose(): void {
+    this.rendered = this.totalFrames;
+    this.engine.dispose();
   }
 }
 

@@ -7,6 +7,7 @@ import { WasmKernel } from '../../src/dsp/index';
 import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type RenderLoad, type Report } from '../protocol';
 import { VoiceEventRelay } from './voice-event-relay';
 import { TableInstaller } from './table-installer';
+import { HandleBook } from './handle-book';
 
 /** A millisecond clock for timing process(), and its name (reported with the load). */
 export interface RenderClock {
@@ -40,6 +41,8 @@ const LOAD_AVERAGE_SECONDS = 1;
 export class EngineHost {
   /** The hosted engine. */
   readonly engine: Engine;
+  /** Main-thread ↔ engine sound and voice handles. */
+  readonly handles = new HandleBook();
   /** Errors caught on the audio thread so far. */
   errors = 0;
   /** True after render threw; output stays silent until the next valid command. */
@@ -47,12 +50,8 @@ export class EngineHost {
   private readonly post: (report: Report) => void;
   private readonly sampleRate: number;
   private readonly timeOffset: Seconds;
-  private readonly sounds = new Map<number, number>();
-  private readonly voices = new Map<number, number>();
-  private readonly voiceOwners = new Map<number, number>();
   private readonly scratch: Float32Array[];
   private readonly monitors: VoiceMonitor[] = [];
-  private readonly live = new Set<number>();
   private readonly statsIntervalFrames: number;
   private framesSinceStats = 0;
   private reportedErrors = 0;
@@ -89,7 +88,7 @@ export class EngineHost {
       maxSources: p.maxSources, groupOutputs: p.groupOutputs,
     });
     this.routed = (p.groupOutputs ?? []).map(() => []);
-    this.relay = new VoiceEventRelay(this.engine, { voices: this.voices, owners: this.voiceOwners }, this.post);
+    this.relay = new VoiceEventRelay(this.engine, this.handles, this.post);
     this.scratch = [new Float32Array(128), new Float32Array(128)];
     for (let i = 0; i < p.capacity; i++) this.monitors.push(emptyMonitor());
     const interval = Math.min(10, Math.max(0.05, Number(p.statsIntervalSeconds) || 0.25));
@@ -99,7 +98,23 @@ export class EngineHost {
 
   /** Main-thread voice handles currently mapped to engine voices. */
   get mappedVoices(): number {
-    return this.voices.size;
+    return this.handles.voiceCount;
+  }
+
+  /** True after `dispose()` (the node was closed): process() outputs silence and returns false. */
+  get disposed(): boolean {
+    return this.engine.disposed;
+  }
+
+  /**
+   * Ends the host (its node was closed): disposes the engine (its module memory goes back at once), drops the kernel
+   * tables installed for it and forgets every handle; idempotent. Later messages are ignored.
+   */
+  dispose(): void {
+    if (this.engine.disposed) return;
+    this.engine.dispose();
+    this.tables.dispose();
+    this.handles.clear();
   }
 
   /** Context time → engine time: the engine clock started at the host's creation. */
@@ -109,6 +124,7 @@ export class EngineHost {
 
   /** Handles one message from the port; malformed or failing commands are reported, never thrown. */
   handle(data: unknown): void {
+    if (this.engine.disposed) return;
     const started = this.clock ? this.clock.now() : 0;
     this.handleTimed(data);
     if (this.clock) this.addBusy(this.clock.now() - started); // message time is audio-thread time too
@@ -133,38 +149,35 @@ export class EngineHost {
     const e = this.engine;
     switch (c.type) {
       case 'add-sound': {
-        const old = this.sounds.get(c.sound);
+        const old = this.handles.unbindSound(c.sound);
         if (old !== undefined) e.removeSound(old);
         const id = e.addSound(c.channels, c.sampleRate);
         if (id < 0) throw new Error('no free sound slot');
-        this.sounds.set(c.sound, id);
+        this.handles.bindSound(c.sound, id);
         return;
       }
       case 'remove-sound': {
-        const id = this.sounds.get(c.sound);
+        const id = this.handles.unbindSound(c.sound);
         if (id !== undefined) e.removeSound(id);
-        this.sounds.delete(c.sound);
         return;
       }
       case 'play': {
-        const id = this.sounds.get(c.sound);
+        const id = this.handles.soundOf(c.sound);
         if (id === undefined) throw new Error(`unknown sound ${c.sound}`);
         const v = e.play(id, c.options);
-        if (v >= 0) {
-          this.voices.set(c.voice, v);
-          this.voiceOwners.set(v, c.voice);
-        } else this.relay.refuse(c.voice);
+        if (v >= 0) this.handles.bindVoice(c.voice, v);
+        else this.relay.refuse(c.voice);
         return;
       }
       case 'stop': {
-        const v = this.voices.get(c.voice);
+        const v = this.handles.voiceOf(c.voice);
         if (v === undefined) return;
         // The handle stays mapped until the engine reports the voice ended (after its fade).
         e.stop(v, c.fadeSeconds);
         return;
       }
       case 'set-voice': {
-        const v = this.voices.get(c.voice);
+        const v = this.handles.voiceOf(c.voice);
         if (v !== undefined) e.setVoice(v, { gain: c.gain, ratio: c.ratio });
         return;
       }
@@ -195,6 +208,9 @@ export class EngineHost {
       case 'teleport':
         e.teleport(c.source);
         return;
+      case 'close':
+        this.dispose();
+        return;
       default:
         this.relay.apply(c);
         return;
@@ -203,9 +219,14 @@ export class EngineHost {
 
   /**
    * Renders one block into `output` (the node's first output, one Float32Array per channel).
-   * Never throws: on failure the block is silent, the error counted and reported. Returns true (keep alive).
+   * Never throws: on failure the block is silent, the error counted and reported. Returns true (keep alive), false once disposed.
    */
   process(output: Float32Array[] | undefined, all?: Float32Array[][]): boolean {
+    if (this.engine.disposed) {
+      if (output) silence(output);
+      if (all) for (let k = 1; k < all.length; k++) silence(all[k]);
+      return false; // the node was closed: let the processor go
+    }
     if (!output || output.length === 0) return true;
     for (let k = 0; k < this.routed.length; k++) this.routed[k] = all?.[k + 1] ?? EMPTY;
     const started = this.clock ? this.clock.now() : 0;
@@ -292,22 +313,15 @@ export class EngineHost {
     }
   }
 
-  /** Posts the current stats and voice monitors now. */
+  /** Posts the current stats and voice monitors now (nothing once disposed). */
   sendStats(): void {
+    if (this.engine.disposed) return;
     try {
       const count = this.engine.monitor(this.monitors);
       const voices: VoiceMonitor[] = [];
-      this.live.clear();
-      for (let i = 0; i < count; i++) {
+      for (let i = 0; i < count && voices.length < MAX_MONITORS; i++) {
         const m = this.monitors[i];
-        this.live.add(m.voice);
-        if (voices.length < MAX_MONITORS) voices.push({ ...m, voice: this.voiceOwners.get(m.voice) ?? -1 });
-      }
-      // Voices that ended on their own (one-shots, steals) leave the handle maps here, so they never grow.
-      for (const [engineVoice, mainVoice] of this.voiceOwners) {
-        if (this.live.has(engineVoice)) continue;
-        this.voiceOwners.delete(engineVoice);
-        this.voices.delete(mainVoice);
+        voices.push({ ...m, voice: this.handles.ownerOf(m.voice) ?? -1 });
       }
       this.relay.flush(this.timeOffset + this.engine.time, true);
       // Peaks over the whole report interval (true peak of every sample since the last report), not the last block's;

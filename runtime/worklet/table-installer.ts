@@ -16,6 +16,8 @@ export interface TableCounters {
 export class TableInstaller {
   private readonly kernel: WasmKernel | null;
   private readonly pending: { table: KernelTable; image: KernelImage }[] = [];
+  /** Tables whose layouts this installer placed in the kernel's memory (dropped again by `dispose`). */
+  private readonly placed: KernelTable[] = [];
 
   /** `kernel`: the engine's WebAssembly kernel, or null when it runs the TypeScript kernel (tables are then ready at once). */
   constructor(kernel: WasmKernel | null) {
@@ -40,9 +42,11 @@ export class TableInstaller {
         continue;
       } else if (installNow) {
         this.kernel.installStep(table, image, Infinity);
+        this.placed.push(table);
         ready.push(table);
       } else {
         this.pending.push({ table, image });
+        this.placed.push(table);
       }
     }
     return ready;
@@ -55,6 +59,13 @@ export class TableInstaller {
     if (!this.kernel.installStep(job.table, job.image, INSTALL_BYTES_PER_QUANTUM)) return null;
     this.pending.shift();
     return job.table;
+  }
+
+  /** Hands every layout this installer placed (or was placing) back to the kernel; the engine using them must be disposed. */
+  dispose(): void {
+    if (this.kernel !== null) for (const t of this.placed) this.kernel.dropTable(t);
+    this.placed.length = 0;
+    this.pending.length = 0;
   }
 
   /** Layouts still pending. */

@@ -3,24 +3,22 @@
 import { EVENT_ENDED, type Engine } from '../../src/engine/index';
 import type { Seconds } from '../../src/index';
 import type { ControlCommand, VoiceEventsReport } from '../control-commands';
+import type { HandleBook } from './handle-book';
 
 /** Events drained per post at most (the ring holds more; the rest go with the next block). */
 const EVENTS_PER_POST = 256;
-
-/** The handle maps the relay shares with the host: main → engine voice, engine → main voice. */
-export interface VoiceMaps {
-  voices: Map<number, number>;
-  owners: Map<number, number>;
-}
 
 /** Drains voice events after each render and posts them with the voices' positions. */
 export class VoiceEventRelay {
   private readonly scratch = new Float64Array(3 * EVENTS_PER_POST);
   private readonly refused: number[] = [];
+  /** engine.events.dropped already seen: when it moves, 'ended' events may have been lost and the book is swept. */
+  private dropped = 0;
+  private readonly hasEnded = (engineVoice: number): boolean => this.engine.voiceState(engineVoice) === 'ended';
 
   constructor(
     private readonly engine: Engine,
-    private readonly maps: VoiceMaps,
+    private readonly book: HandleBook,
     private readonly post: (r: VoiceEventsReport) => void,
   ) {}
 
@@ -29,7 +27,7 @@ export class VoiceEventRelay {
     this.refused.push(mainVoice);
   }
 
-  /** Applies a control command to the engine (main-thread voice handles mapped through `maps`). */
+  /** Applies a control command to the engine (main-thread voice handles mapped through the book). */
   apply(c: ControlCommand): void {
     const e = this.engine;
     switch (c.type) {
@@ -46,7 +44,7 @@ export class VoiceEventRelay {
         if (c.pausable !== undefined) e.setGroupPausable(c.group, c.pausable);
         return;
       case 'seek': {
-        const v = this.maps.voices.get(c.voice);
+        const v = this.book.voiceOf(c.voice);
         if (v !== undefined) e.seek(v, c.seconds);
         return;
       }
@@ -68,19 +66,22 @@ export class VoiceEventRelay {
       for (let k = 0; k < n; k++) {
         const code = this.scratch[3 * k];
         const handle = this.scratch[3 * k + 1];
-        const main = this.maps.owners.get(handle);
+        // A voice's handles end with its 'ended' event: the book forgets them here.
+        const main = code === EVENT_ENDED ? this.book.endVoice(handle) : this.book.ownerOf(handle);
         if (main === undefined) continue;
         list.push(main, code, this.scratch[3 * k + 2] + offset);
-        if (code === EVENT_ENDED) {
-          this.maps.owners.delete(handle);
-          this.maps.voices.delete(main);
-        }
       }
       if (n < EVENTS_PER_POST) break;
     }
-    const positions = new Float64Array(3 * this.maps.voices.size);
+    if (this.engine.events.dropped !== this.dropped) {
+      // The ring overflowed: some 'ended' events never came; ask the engine which mapped voices are gone.
+      this.dropped = this.engine.events.dropped;
+      this.book.sweep(this.hasEnded, (main) => list.push(main, EVENT_ENDED, contextTime));
+    }
+    const voices = this.book.mappedVoices;
+    const positions = new Float64Array(3 * voices.size);
     let i = 0;
-    for (const [main, v] of this.maps.voices) {
+    for (const [main, v] of voices) {
       positions[i++] = main;
       positions[i++] = this.engine.voicePosition(v);
       positions[i++] = this.engine.voiceSpeed(v);

@@ -7,7 +7,7 @@ export type { KernelTableOptions, KernelTableData } from './kernel-table';
 export { StreamReader } from './stream-reader';
 export type { StreamReaderOptions, StreamSourceOptions } from './stream-reader';
 export { wasmSimdSupported, activeKernel, WasmKernel } from './wasm/wasm-kernel';
-export type { KernelName, KernelPreference, KernelImage } from './wasm/wasm-kernel';
+export type { KernelName, KernelPreference, KernelImage, MemoryWatcher } from './wasm/wasm-kernel';
 export { packKernelTable, packAllTiers, packedTransfer, isPackedKernelTable, INSTALL_BYTES_PER_QUANTUM } from './table-transfer';
 export type { PackedKernelTable } from './table-transfer';
 export { resample, resampleChunks } from './resample';

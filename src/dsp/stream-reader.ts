@@ -51,7 +51,7 @@ export class StreamReader {
     this.weights = new Float64Array(0);
     const kernel = options.kernel ?? 'auto';
     const shared = kernel === 'typescript' ? null : WasmKernel.shared();
-    this.wasm = shared === null ? null : new WasmReadPath(shared, channels);
+    this.wasm = shared === null ? null : new WasmReadPath(shared, this.cur);
     if (kernel === 'wasm-simd' && this.wasm === null) throw new DspArgumentError('kernel', 'WebAssembly SIMD is not available here');
     this.setTable(options.table);
     for (let c = 0; c < channels; c++) this.scratch.push(new Float32Array(this.weights.length));
@@ -186,7 +186,15 @@ export class StreamReader {
     // With no source set there is nothing to hand the module: the reference path reads its defined silence.
     const cur = this.cur;
     if (this.wasm !== null && cur.channelsInUse > 0) {
-      this.wasm.render(cur, this.table, out, o, frames, rs, dr, ratios, ro);
+      const b = this.wasm.block;
+      b.out = out;
+      b.offset = o;
+      b.frames = frames;
+      b.ratioStart = rs;
+      b.ratioDelta = dr;
+      b.ratios = ratios;
+      b.ratiosOffset = ro;
+      this.wasm.render();
       return;
     }
     const t = this.table;

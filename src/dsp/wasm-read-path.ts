@@ -3,25 +3,52 @@
 import type { KernelTable } from './kernel-table';
 import type { ReadCursor } from './read-cursor';
 import { RUN_FRAMES, WasmKernel, halfWindowFor } from './wasm/wasm-kernel';
+import { RP_DR, RP_FRAMES, RP_I_END, RP_I_START, RP_LOOP_END, RP_OUT0, RP_OUT1, RP_POS, RP_RATIOS, RP_RS, RP_SPAN_BASE, RP_STRIDE, RP_TABLE, RP_X0, RP_X1 } from './wasm/kernel-params';
+
+const NO_OUTPUTS: readonly Float32Array[] = [];
+
+/** One block's read request, filled in place by the reader before `WasmReadPath.render` (no object per block). */
+export class ReadBlock {
+  /** Output channels (one per source channel in use). */
+  out: readonly Float32Array[] = NO_OUTPUTS;
+  /** First output sample written, frames. */
+  offset = 0;
+  /** Output samples, frames (≥ 0). */
+  frames = 0;
+  /** Ratio of sample 0 when `ratios` is null (sanitised, MIN_RATIO…MAX_RATIO). */
+  ratioStart = 1;
+  /** Ratio change across the block when `ratios` is null (sample i reads ratioStart + ratioDelta·i/frames). */
+  ratioDelta = 0;
+  /** One playback ratio per output sample (sanitised here), or null for the linear ramp. */
+  ratios: Float32Array | null = null;
+  /** Index of sample 0's ratio in `ratios`. */
+  ratiosOffset = 0;
+}
 
 /** Renders a cursor's source through the WebAssembly kernel; never allocates after construction. */
 export class WasmReadPath {
   /** The shared kernel module. */
   readonly kernel: WasmKernel;
+  /** The request `render` carries out: the reader fills it in place. */
+  readonly block = new ReadBlock();
+  private readonly cur: ReadCursor;
+  private table: KernelTable | null = null;
   private tablePtr = 0;
   /** Byte offsets of the sources' resident copies in module memory (0 = none; spans are copied), as of `residentEpoch`. */
   private readonly resident: Int32Array;
   private residentEpoch = -1;
 
-  /** Room for `channels` (1…32) resident source offsets. */
-  constructor(kernel: WasmKernel, channels: number) {
+  /** Reads `cursor` (its source, loop and position); room for its channels' resident source offsets. */
+  constructor(kernel: WasmKernel, cursor: ReadCursor) {
     this.kernel = kernel;
-    this.resident = new Int32Array(channels);
+    this.cur = cursor;
+    this.resident = new Int32Array(cursor.sources.length);
   }
 
   /** Places `table` in module memory (once per table) for later renders. */
   setTable(table: KernelTable): void {
     this.tablePtr = this.kernel.tablePointer(table);
+    this.table = table;
   }
 
   /** Forgets which sources are resident (call when the source changes). */
@@ -30,14 +57,25 @@ export class WasmReadPath {
   }
 
   /**
-   * The block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once; the
+   * Carries out `block` (filled by the reader) on the cursor given at construction. The block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once; the
    * kernel reads a source in place when it is resident (WasmKernel.upload) and the span the run can touch lies inside
    * the readable region, else that span is copied (wrapped or silent as `mapIndex` says) into module memory; outputs
    * that are views of module memory are written in place. The kernel runs until the run ends or a loop wraps (the wrap
    * and the next span are handled here, as the reference does).
    */
-  render(cur: ReadCursor, t: KernelTable, out: readonly Float32Array[], o: number, frames: number, rs: number, dr: number, ratios: Float32Array | null, ro: number): void {
+  render(): void {
+    const t = this.table;
+    if (t === null) return;
     const k = this.kernel;
+    const cur = this.cur;
+    const req = this.block;
+    const out = req.out;
+    const o = req.offset;
+    const frames = req.frames;
+    const rs = req.ratioStart;
+    const dr = req.ratioDelta;
+    const ratios = req.ratios;
+    const ro = req.ratiosOffset;
     const chans = cur.channelsInUse;
     const halfDense = t.halfTaps * t.phases;
     const loopEnd = cur.loop ? cur.loopEnd : Infinity;
@@ -46,6 +84,13 @@ export class WasmReadPath {
       for (let c = 0; c < chans; c++) this.resident[c] = k.residentOf(cur.sources[c]);
       this.residentEpoch = k.residentEpoch;
     }
+    // The fields that stay the same for the whole block are written once.
+    const pb = k.renderParams;
+    k.i32[(pb + RP_TABLE) >> 2] = this.tablePtr;
+    k.f64[(pb + RP_FRAMES) >> 3] = frames;
+    k.f64[(pb + RP_RS) >> 3] = rs;
+    k.f64[(pb + RP_DR) >> 3] = dr;
+    k.f64[(pb + RP_LOOP_END) >> 3] = loopEnd;
     for (let run = 0; run < frames; ) {
       const runEnd = frames - run < RUN_FRAMES ? frames : run + RUN_FRAMES;
       let rmax = reMax;
@@ -88,12 +133,23 @@ export class WasmReadPath {
           const direct1 = y1.buffer === mem;
           const o0 = direct0 ? y0.byteOffset + 4 * (o + i) : k.out0;
           const o1 = direct1 ? y1.byteOffset + 4 * (o + i) : k.out1;
-          done = k.exports.render(this.tablePtr, x0, x1, base, o0, o1, cur.pos, i, runEnd, frames, rs, dr, dp, loopEnd, k.state);
+          const i32 = k.i32;
+          i32[(pb + RP_X0) >> 2] = x0;
+          i32[(pb + RP_X1) >> 2] = x1;
+          i32[(pb + RP_SPAN_BASE) >> 2] = base;
+          i32[(pb + RP_OUT0) >> 2] = o0;
+          i32[(pb + RP_OUT1) >> 2] = o1;
+          i32[(pb + RP_I_START) >> 2] = i;
+          i32[(pb + RP_I_END) >> 2] = runEnd;
+          i32[(pb + RP_RATIOS) >> 2] = dp;
+          // Every channel pair starts from the same position (the kernel overwrites it with the end position).
+          k.f64[(pb + RP_POS) >> 3] = cur.pos;
+          done = k.exports.render(pb);
           if (!direct0) y0.set(k.outViews0[done], o + i);
           if (pair && !direct1) y1.set(k.outViews1[done], o + i);
         }
-        cur.moveTo(k.f64[k.state >> 3]);
-        cur.lastStretch = t.phases / k.i32[(k.state >> 2) + 2];
+        cur.moveTo(k.f64[(pb + RP_POS) >> 3]);
+        cur.lastStretch = t.phases / k.i32[(pb + RP_STRIDE) >> 2];
         if (done <= 0) {
           // The module made no progress (it never should): output silence for the rest of the run rather than spin.
           for (let c = 0; c < chans; c++) out[c].fill(0, o + i, o + runEnd);

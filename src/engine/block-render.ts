@@ -10,7 +10,6 @@ import type { EngineCore } from './engine-core';
 export function renderFrames(core: EngineCore, outputs: readonly Float32Array[], frames: number, groupOutputs: readonly (readonly Float32Array[])[] | undefined): void {
   const st = core.stats;
   try {
-    if (core.resident !== null && core.resident.stale(core.bus)) core.resident.bind(core.scratch, core.bus); // memory grew elsewhere
     st.peakIn = 0;
     st.peakOut = 0;
     for (let done = 0; done < frames; ) {

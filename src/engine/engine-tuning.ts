@@ -60,5 +60,4 @@ function switchTable(core: EngineCore, table: KernelTable | null): void {
   for (const v of core.voices) v.setTable(table);
   core.stretches.configure(table, core.tuning.smoothing.ratioSeconds);
   core.stats.tier = table.name as Tuning['resampler']['tier'];
-  core.resident?.bind(core.scratch, core.bus); // a new tier's tables may have grown module memory
 }

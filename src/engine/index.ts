@@ -1,5 +1,6 @@
 // Public entry of src/engine: the voice engine and its contract types.
 export { Engine, engineDefaults, ENGINE_FREEZE_FADE_SECONDS } from './engine';
+export { EngineClosedError } from './engine-closed-error';
 export { PeakLimiter, peakLimiterDefaults } from './peak-limiter';
 export type { PeakLimiterOptions } from './peak-limiter';
 export { BlastGuard, blastGuardDefaults } from './blast-guard';

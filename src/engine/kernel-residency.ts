@@ -1,6 +1,6 @@
-// Engine bookkeeping of the shared WebAssembly kernel's memory: the voice scratch and mix bus placed in module memory,
-// decoded sounds kept resident there, and both given back when the owning engine is collected.
-import type { WasmKernel } from '../dsp';
+// An engine's share of the WebAssembly kernel's memory: the voice scratch and mix bus placed in module memory and the
+// decoded sounds kept resident there, all handed back by `release` (Engine.dispose) for the next engine to reuse.
+import type { MemoryWatcher, WasmKernel } from '../dsp';
 import type { SoundBank } from './sound-bank';
 import type { VoiceScratch } from './voice';
 
@@ -20,82 +20,101 @@ export interface KernelResidencyOptions {
   maxBlockFrames: number;
   /** The engine's sound bank (its slots are mirrored here). */
   bank: SoundBank;
-  /** The object whose collection gives the memory back (the engine). */
+  /** The engine's voice scratch: its `stereo`/`mono` buffers become views of module memory. */
+  scratch: VoiceScratch;
+  /** The engine's mix bus: its channels become views of module memory. */
+  bus: MixBus;
+  /** The object whose collection gives the memory back if `release` was never called (the engine). */
   owner: object;
 }
 
-/** What an engine holds in the shared kernel's memory, given back when the engine is collected. */
-interface KernelHold {
-  kernel: WasmKernel;
-  scratchAt: number;
-  scratchBytes: number;
-  kept: Float32Array[][];
-}
-const kernelHolds =
-  typeof FinalizationRegistry === 'function'
-    ? new FinalizationRegistry<KernelHold>((h) => {
-        for (const list of h.kept) for (const x of list) h.kernel.discard(x);
-        h.kernel.release(h.scratchAt, h.scratchBytes);
-      })
-    : null;
+// Safety net only: an engine dropped without dispose() still gives its regions back once it is collected.
+const forgotten = typeof FinalizationRegistry === 'function' ? new FinalizationRegistry<KernelResidency>((r) => r.release()) : null;
 
-/** Places an engine's scratch and mix bus in module memory and keeps its sounds resident there; allocates only off the audio path (and on memory growth). */
-export class KernelResidency {
+/** Places an engine's scratch and mix bus in module memory and keeps its sounds resident there; allocates only off the audio path. */
+export class KernelResidency implements MemoryWatcher {
   /** The shared kernel. */
   readonly kernel: WasmKernel;
   private readonly bank: SoundBank;
   private readonly maxBlock: number;
-  /** Byte offset of the voice scratch and mix bus in module memory (4 × maxBlockFrames floats). */
-  private readonly scratchAt: number;
+  private readonly scratch: VoiceScratch;
+  private readonly bus: MixBus;
+  /** Byte offset of the voice scratch and mix bus in module memory (4 × maxBlockFrames floats); −1 once released. */
+  private scratchAt: number;
   /** Per sound slot: the bank's channel list whose arrays were uploaded (residentKept) to module memory, until the slot is freed or reused. */
   private readonly residentSounds: (readonly Float32Array[] | null)[];
   private readonly residentKept: Float32Array[][];
 
-  /** Reserves 4 × maxBlockFrames floats of module memory and registers their release with the owner's collection. */
+  /** Reserves 4 × maxBlockFrames floats of module memory, binds the scratch and bus there and watches for growth. */
   constructor(options: KernelResidencyOptions) {
     const slots = options.bank.channels.length;
     this.kernel = options.kernel;
     this.bank = options.bank;
     this.maxBlock = options.maxBlockFrames;
+    this.scratch = options.scratch;
+    this.bus = options.bus;
     this.residentSounds = new Array(slots).fill(null);
     this.residentKept = Array.from({ length: slots }, () => []);
     this.scratchAt = this.kernel.allocFloats(4 * this.maxBlock);
-    kernelHolds?.register(options.owner, { kernel: this.kernel, scratchAt: this.scratchAt, scratchBytes: 16 * this.maxBlock, kept: this.residentKept });
+    this.bind();
+    this.kernel.watch(this);
+    forgotten?.register(options.owner, this, this);
   }
 
-  /** True when the bus is not (or no longer, after memory grew) a view of module memory. */
-  stale(bus: MixBus): boolean {
-    return bus.left.buffer !== this.kernel.f32.buffer;
+  /** True once `release` ran: nothing of the engine is left in module memory. */
+  get released(): boolean {
+    return this.scratchAt < 0;
   }
 
-  /** Uploads slot `s`'s channels to module memory (read in place by the kernel), dropping those of freed slots first; rebinds. */
-  makeResident(s: number, scratch: VoiceScratch, bus: MixBus): void {
+  /** Uploads slot `s`'s channels to module memory (read in place by the kernel), dropping those of freed slots first. */
+  makeResident(s: number): void {
     const k = this.kernel;
     for (let i = 0; i < this.residentSounds.length; i++) {
       const held = this.residentSounds[i];
       if (held === null || this.bank.channels[i] === held) continue;
-      for (const x of this.residentKept[i]) k.discard(x);
-      this.residentKept[i].length = 0;
-      this.residentSounds[i] = null;
+      this.drop(i);
     }
     const chans = this.bank.channels[s]!;
     for (const x of chans) if (k.upload(x)) this.residentKept[s].push(x);
     this.residentSounds[s] = chans;
-    this.bind(scratch, bus);
   }
 
-  /** (Re)creates the views of the scratch and mix bus in module memory (after construction and after memory grew). */
-  bind(scratch: VoiceScratch, bus: MixBus): void {
+  /** The kernel grew its memory (views detached): rebinds the scratch and bus. */
+  memoryGrew(): void {
+    if (this.scratchAt >= 0) this.bind();
+  }
+
+  /**
+   * Hands every region back to the kernel (resident sounds, scratch and bus) and stops watching it; idempotent. The
+   * scratch and bus then point at memory another engine may reuse: the engine must not render into them again.
+   */
+  release(): void {
+    if (this.scratchAt < 0) return;
+    for (let i = 0; i < this.residentSounds.length; i++) this.drop(i);
+    this.kernel.release(this.scratchAt, 16 * this.maxBlock);
+    this.scratchAt = -1;
+    this.kernel.unwatch(this);
+    forgotten?.unregister(this);
+  }
+
+  private drop(slot: number): void {
+    for (const x of this.residentKept[slot]) this.kernel.discard(x);
+    this.residentKept[slot].length = 0;
+    this.residentSounds[slot] = null;
+  }
+
+  /** (Re)creates the views of the scratch and mix bus in module memory (at construction and after memory grew). */
+  private bind(): void {
     const k = this.kernel;
-    if (scratch.wasm !== null && bus.left.buffer === k.f32.buffer) return;
     const buf = k.f32.buffer;
     const n = this.maxBlock;
     const at = this.scratchAt;
+    const scratch = this.scratch;
     scratch.stereo[0] = new Float32Array(buf, at, n);
     scratch.stereo[1] = new Float32Array(buf, at + 4 * n, n);
     scratch.mono[0] = scratch.stereo[0];
-    bus.left = new Float32Array(buf, at + 8 * n, n);
-    bus.right = new Float32Array(buf, at + 12 * n, n);
+    this.bus.left = new Float32Array(buf, at + 8 * n, n);
+    this.bus.right = new Float32Array(buf, at + 12 * n, n);
     scratch.wasm = k;
   }
 }

@@ -13,7 +13,15 @@ export function mixBlock(x0: Float32Array, x1: Float32Array, mixL: Float32Array,
   const dgl = gain.leftStep;
   const gr0 = gain.right0;
   const dgr = gain.rightStep;
-  if (wasm !== null) return wasm.exports.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames, gl0, dgl, gr0, dgr) !== 0;
+  if (wasm !== null) {
+    // The gains go into the module's parameter block; only small integers cross the call (no boxed doubles).
+    const g = wasm.mixGains;
+    g[0] = gl0;
+    g[1] = dgl;
+    g[2] = gr0;
+    g[3] = dgr;
+    return wasm.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames) !== 0;
+  }
   let check = 0;
   for (let i = 0; i < frames; i++) {
     const a = x0[i];

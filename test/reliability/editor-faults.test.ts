@@ -110,7 +110,7 @@ describe('editor under malformed tuning files', () => {
     node.onprocessorerror?.();
     panel.update();
     expect(line()).toBe('last audio error (processorerror): the processor failed and stopped');
-    const listeners = (ralenti as unknown as { errorListeners: Set<unknown> }).errorListeners;
+    const listeners = (ralenti as unknown as { life: { errorListeners: Set<unknown> } }).life.errorListeners;
     expect(listeners.size).toBe(1);
     panel.dispose();
     expect(listeners.size).toBe(0);

@@ -76,7 +76,7 @@ describe('worklet host faults', () => {
     ralenti.play(sound, { group: 'interface', loop: true });
     expect(render(20).peak).toBeGreaterThan(0.1);
     // A fault deep inside the engine (the mapper), not a replaced render: the engine catches it itself.
-    const mapper = (host!.engine as unknown as { mapper: { map: (...a: unknown[]) => unknown } }).mapper;
+    const mapper = (host!.engine as unknown as { core: { mapper: { map: (...a: unknown[]) => unknown } } }).core.mapper;
     const real = mapper.map.bind(mapper);
     mapper.map = () => {
       throw new Error('injected mapper fault');

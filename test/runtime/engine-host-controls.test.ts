@@ -73,7 +73,7 @@ describe('EngineHost controls', () => {
     h.handle({ type: 'seek', voice: 3, seconds: 0.05 });
     h.process(out());
     // Held by the pause at level 0, the seek applies at once.
-    const engineVoice = (h as unknown as { voices: Map<number, number> }).voices.get(3)!;
+    const engineVoice = h.handles.voiceOf(3)!;
     expect(h.engine.voicePosition(engineVoice)).toBeCloseTo(0.05, 9);
     expect(h.errors).toBe(0);
   });

@@ -1,9 +1,11 @@
 // Host side of the WebAssembly SIMD resample kernel (wasm/resample-kernel.ts): feature detection, instantiation,
-// a bump allocator over the module's memory, and the per-stride contiguous tables of each KernelTable.
+// a first-fit allocator with coalescing over the module's memory, and the per-stride contiguous tables of each KernelTable.
 import type { KernelTable } from '../kernel-table';
 import { MAX_RATIO } from '../quality-tiers';
 import { decodeBase64 } from './base64';
 import { kernelModuleBase64 } from './kernel-bytes.generated';
+import { ModuleHeap, align } from './module-heap';
+import { BP_DENSE, BP_DESC, BP_DIFFS, BP_ROWS, BP_STRIDE, BP_TABLE, BP_TOTAL, BUILD_PARAM_BYTES, MIX_PARAM_BYTES, MP_FRAMES, MP_GL0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
 
 /** Which inner loop a reader runs: the WebAssembly SIMD kernel or the TypeScript reference. */
 export type KernelName = 'wasm-simd' | 'typescript';
@@ -29,9 +31,18 @@ export interface KernelExports {
   heapBase(): number;
   rowFloats(total: number, stride: number): number;
   diffFloats(halfDense: number, stride: number): number;
-  buildStride(table: number, dense: number, total: number, stride: number, desc: number, rows: number, diffs: number): void;
-  mix(x0: number, x1: number, mixL: number, mixR: number, frames: number, gl0: number, dgl: number, gr0: number, dgr: number): number;
-  render(table: number, x0: number, x1: number, spanBase: number, out0: number, out1: number, pos: number, iStart: number, iEnd: number, frames: number, rs: number, dr: number, ratios: number, loopEnd: number, state: number): number;
+  /** Lays out one stride of a table as described by the block at `params` (kernel-params.ts, BP_*). */
+  buildStride(params: number): void;
+  /** Mixes one voice as described by the block at `params` (kernel-params.ts, MP_*); 1 when every input sample was finite. */
+  mix(params: number): number;
+  /** Renders a run as described by the block at `params` (kernel-params.ts, RP_*); returns the samples written. */
+  render(params: number): number;
+}
+
+/** Something holding views of module memory: told once after each growth (not polled per render). */
+export interface MemoryWatcher {
+  /** Rebuilds the holder's views of `kernel`'s memory (called right after it grew). */
+  memoryGrew(): void;
 }
 
 /** A placed table's bytes copied out of one module instance (`WasmKernel.imageOf`), transferable to another. */
@@ -84,8 +95,14 @@ export class WasmKernel {
   out0 = 0;
   out1 = 0;
   ratios = 0;
-  /** Byte offset of the render state written by the kernel: end position (f64), then the last stride (i32). */
-  state = 0;
+  /** Byte offset of the `render` parameter block (kernel-params.ts RP_*), written once per kernel call. */
+  renderParams = 0;
+  /** Byte offset of the `mix` parameter block (kernel-params.ts MP_*). */
+  mixParams = 0;
+  /** The gains of the next `mix`, a view of its parameter block: [gl0, dgl, gr0, dgr] (linear; renewed after growth). */
+  mixGains: Float64Array = new Float64Array(4);
+  /** Byte offset of the `buildStride` parameter block (kernel-params.ts BP_*). */
+  private buildParams = 0;
   /** outViews0[n] / outViews1[n]: the first n floats of out0 / out1 (n = 0…RUN_FRAMES), for allocation-free block copies. */
   readonly outViews0: Float32Array[] = [];
   readonly outViews1: Float32Array[] = [];
@@ -95,24 +112,26 @@ export class WasmKernel {
   residentEpoch = 0;
   /** Stride layouts built by this instance (`buildStride` calls); an installed image builds none. */
   stridesBuilt = 0;
-  private top: number;
+  private readonly heap: ModuleHeap;
+  private readonly watchers: MemoryWatcher[] = [];
   private readonly tables = new Map<KernelTable, number>();
   /** Byte end of each table's region (header … last stride), for `imageOf`. */
   private readonly tableEnds = new Map<KernelTable, number>();
   private readonly installs = new Map<KernelTable, { at: number; copied: number; image: KernelImage }>();
   private readonly resident = new Map<Float32Array, { at: number; bytes: number; users: number }>();
-  private readonly freeAt: number[] = [];
-  private readonly freeBytes: number[] = [];
 
   private constructor(exports: KernelExports) {
     this.exports = exports;
-    this.top = align(exports.heapBase());
+    this.heap = new ModuleHeap(exports.memory, exports.heapBase());
     this.refresh();
-    this.out0 = this.alloc(RUN_FRAMES * 4);
-    this.out1 = this.alloc(RUN_FRAMES * 4);
-    this.ratios = this.alloc(RUN_FRAMES * 8);
-    this.state = this.alloc(16);
+    this.out0 = this.take(RUN_FRAMES * 4);
+    this.out1 = this.take(RUN_FRAMES * 4);
+    this.ratios = this.take(RUN_FRAMES * 8);
+    this.renderParams = this.take(RENDER_PARAM_BYTES);
+    this.mixParams = this.take(MIX_PARAM_BYTES);
+    this.buildParams = this.take(BUILD_PARAM_BYTES);
     this.refreshViews();
+    this.mixGains = new Float64Array(this.exports.memory.buffer, this.mixParams + MP_GL0, 4);
   }
 
   /** The kernel of this realm (created on first call), or null when WebAssembly SIMD is not available or fails to load. */
@@ -140,12 +159,15 @@ export class WasmKernel {
     if (known !== undefined) return known;
     const p = table.phases;
     const total = table.taps * p;
-    const header = this.alloc(32 + 8 * (p + 1));
-    const dense = this.alloc(4 * table.dense.length);
+    const headerBytes = align(32 + 8 * (p + 1));
+    const denseBytes = align(4 * table.dense.length);
     let bytes = 0;
     const halfDense = table.halfTaps * p;
     for (const s of table.strideGrid) bytes += align(32 * s) + align(4 * this.exports.rowFloats(total, s)) + align(4 * this.exports.diffFloats(halfDense, s));
-    const block = this.alloc(bytes);
+    // One region (header, dense, stride layouts), so that imageOf copies it whole and dropTable hands it back whole.
+    const header = this.take(headerBytes + denseBytes + bytes);
+    const dense = header + headerBytes;
+    const block = dense + denseBytes;
     const h = header >> 2;
     this.i32[h] = p;
     this.i32[h + 1] = table.halfTaps * p;
@@ -160,7 +182,16 @@ export class WasmKernel {
       const rows = desc + align(32 * s);
       const diffs = rows + align(4 * this.exports.rowFloats(total, s));
       at = diffs + align(4 * this.exports.diffFloats(halfDense, s));
-      this.exports.buildStride(header, dense, total, s, desc, rows, diffs);
+      const bp = this.buildParams >> 2;
+      const i32 = this.i32;
+      i32[bp + (BP_TABLE >> 2)] = header;
+      i32[bp + (BP_DENSE >> 2)] = dense;
+      i32[bp + (BP_TOTAL >> 2)] = total;
+      i32[bp + (BP_STRIDE >> 2)] = s;
+      i32[bp + (BP_DESC >> 2)] = desc;
+      i32[bp + (BP_ROWS >> 2)] = rows;
+      i32[bp + (BP_DIFFS >> 2)] = diffs;
+      this.exports.buildStride(this.buildParams);
       this.stridesBuilt++;
     }
     this.tableEnds.set(table, at);
@@ -190,16 +221,18 @@ export class WasmKernel {
     if (this.tables.has(table)) return true;
     let job = this.installs.get(table);
     if (job === undefined || job.image !== image) {
-      job = { at: this.top, copied: 0, image };
-      this.top = align(this.top + image.bytes.length);
+      // A released region that fits (e.g. a closed engine's table) is reused; else the copy grows memory slice by slice.
+      const bytes = align(image.bytes.length);
+      let at = this.heap.takeFree(bytes);
+      if (at < 0) at = this.heap.reserve(bytes);
+      job = { at, copied: 0, image };
       this.installs.set(table, job);
     }
     const n = Math.min(image.bytes.length - job.copied, Math.max(16, maxBytes));
     const end = job.at + job.copied + n;
     const have = this.exports.memory.buffer.byteLength;
     // Grow a few slices ahead (at most to the image's end), so that views are renewed once per 1 MB rather than per slice.
-    const ahead = Math.min(job.at + image.bytes.length, Math.max(end, have + (1 << 20)));
-    if (end > have) this.exports.memory.grow(Math.ceil((ahead - have) / 65536));
+    this.heap.growTo(end, Math.min(job.at + image.bytes.length, Math.max(end, have + (1 << 20))));
     this.refresh();
     new Uint8Array(this.exports.memory.buffer, job.at + job.copied, n).set(image.bytes.subarray(job.copied, job.copied + n));
     job.copied += n;
@@ -235,10 +268,63 @@ export class WasmKernel {
     const smallest = table.strideGrid[table.strideGrid.length - 1];
     const need = spanFloatsFor(table.halfTaps * table.phases, smallest);
     if (need > this.spanFloats) {
-      this.span0 = this.alloc(4 * need);
-      this.span1 = this.alloc(4 * need);
+      if (this.spanFloats > 0) {
+        this.release(this.span0, 4 * this.spanFloats);
+        this.release(this.span1, 4 * this.spanFloats);
+      }
+      this.span0 = this.take(4 * need);
+      this.span1 = this.take(4 * need);
       this.spanFloats = need;
     }
+  }
+
+  /**
+   * Hands `table`'s region back (built or installed here) for reuse; the caller guarantees no reader still uses it
+   * (e.g. the worklet host drops the tables it installed when its engine is disposed). Unknown tables are ignored.
+   */
+  dropTable(table: KernelTable): void {
+    const job = this.installs.get(table);
+    if (job !== undefined) {
+      this.installs.delete(table);
+      this.release(job.at, job.image.bytes.length);
+    }
+    const header = this.tables.get(table);
+    if (header === undefined) return;
+    this.release(header, (this.tableEnds.get(table) ?? header) - header);
+    this.tables.delete(table);
+    this.tableEnds.delete(table);
+  }
+
+  /**
+   * Mixes one voice in module memory (byte offsets) with the gains written into `mixGains` first; 0 when an input
+   * sample was not finite. Only small integers pass through the call: doubles passed to a call that is not inlined
+   * would be boxed, one allocation per voice and block.
+   */
+  mix(x0: number, x1: number, mixL: number, mixR: number, frames: number): number {
+    const p = this.mixParams;
+    const i32 = this.i32;
+    i32[(p + MP_X0) >> 2] = x0;
+    i32[(p + MP_X1) >> 2] = x1;
+    i32[(p + MP_MIX_L) >> 2] = mixL;
+    i32[(p + MP_MIX_R) >> 2] = mixR;
+    i32[(p + MP_FRAMES) >> 2] = frames;
+    return this.exports.mix(p);
+  }
+
+  /** Tells `w` after every growth of module memory, until `unwatch(w)`. */
+  watch(w: MemoryWatcher): void {
+    if (!this.watchers.includes(w)) this.watchers.push(w);
+  }
+
+  /** Stops telling `w` about growth. */
+  unwatch(w: MemoryWatcher): void {
+    const i = this.watchers.indexOf(w);
+    if (i >= 0) this.watchers.splice(i, 1);
+  }
+
+  /** Bytes of module memory handed out and not given back (tables, scratch, resident sources, parameter blocks). */
+  get bytesInUse(): number {
+    return this.heap.bytesInUse;
   }
 
   /**
@@ -275,26 +361,16 @@ export class WasmKernel {
     this.residentEpoch++;
   }
 
-  /** Returns `bytes` at byte offset `at` (from `allocFloats`) for reuse. */
+  /** Returns `bytes` at byte offset `at` (from `allocFloats`) for reuse; merged with free neighbours. */
   release(at: number, bytes: number): void {
-    this.freeAt.push(at);
-    this.freeBytes.push(align(bytes));
+    this.heap.release(at, bytes);
   }
 
-  /** First fit among released blocks, else new memory at the top (may grow memory; throws RangeError when it cannot). */
+  /** First fit among released blocks, else new memory at the top (may grow memory, renewing the views; throws RangeError when it cannot). */
   private take(bytes: number): number {
-    for (let k = 0; k < this.freeAt.length; k++) {
-      if (this.freeBytes[k] < bytes) continue;
-      const at = this.freeAt[k];
-      this.freeAt[k] += bytes;
-      this.freeBytes[k] -= bytes;
-      if (this.freeBytes[k] === 0) {
-        this.freeAt.splice(k, 1);
-        this.freeBytes.splice(k, 1);
-      }
-      return at;
-    }
-    return this.alloc(bytes);
+    const at = this.heap.take(bytes);
+    this.refresh();
+    return at;
   }
 
   /** Byte offset of `x`'s resident copy, or 0 when it has none. */
@@ -310,25 +386,7 @@ export class WasmKernel {
     return at;
   }
 
-  private alloc(bytes: number): number {
-    const at = this.top;
-    const top = align(at + bytes);
-    const mem = this.exports.memory;
-    const have = mem.buffer.byteLength;
-    // Grow with 25 % headroom so that a run of uploads does not grow (and detach views) every time.
-    if (top > have) {
-      const need = Math.ceil((top - have) / 65536);
-      try {
-        mem.grow(Math.max(need, Math.ceil(have / 4 / 65536)));
-      } catch {
-        mem.grow(need);
-      }
-    }
-    this.top = top;
-    this.refresh();
-    return at;
-  }
-
+  /** Renews the views after a growth (called by the allocator, which is where memory grows) and tells the watchers. */
   private refresh(): void {
     const buf = this.exports.memory.buffer;
     if (this.f32 !== undefined && this.f32.buffer === buf) return;
@@ -336,6 +394,8 @@ export class WasmKernel {
     this.f64 = new Float64Array(buf);
     this.i32 = new Int32Array(buf);
     if (this.out1 !== 0) this.refreshViews();
+    if (this.mixParams !== 0) this.mixGains = new Float64Array(buf, this.mixParams + MP_GL0, 4);
+    for (let k = 0; k < this.watchers.length; k++) this.watchers[k].memoryGrew();
   }
 
   private refreshViews(): void {
@@ -356,6 +416,3 @@ function spanFloatsFor(halfDense: number, smallestStride: number): number {
   return RUN_FRAMES * MAX_RATIO + 2 * halfWindowFor(halfDense, smallestStride) + 16;
 }
 
-function align(n: number): number {
-  return (n + 15) & ~15;
-}
