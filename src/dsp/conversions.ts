@@ -46,3 +46,22 @@ export function dbToGainAt(a: Float64Array, i: number): void {
 export function centsToRatioAt(a: Float64Array, i: number): void {
   a[i] = Math.pow(2, a[i] / 1200);
 }
+
+/** a[to] = gainToDbFloor(a[from]) (DB_FLOOR = −120 at or below 10⁻⁶, for 0 and NaN). */
+export function gainToDbFloorAt(a: Float64Array, from: number, to: number): void {
+  const gain = a[from];
+  if (gain > 1e-6) a[to] = 20 * Math.log10(gain);
+  else a[to] = -120;
+}
+
+/** a[to] = dbToGainFloor(a[from]) (exactly 0 within 0.01 dB of DB_FLOOR or below). */
+export function dbToGainFloorAt(a: Float64Array, from: number, to: number): void {
+  const db = a[from];
+  if (db <= -119.99) a[to] = 0;
+  else a[to] = Math.pow(10, db / 20);
+}
+
+/** a[to] = ratioToCents(a[from]). */
+export function ratioToCentsAt(a: Float64Array, from: number, to: number): void {
+  a[to] = 1200 * Math.log2(a[from]);
+}

@@ -17,4 +17,4 @@ export { BiquadLowpass, BIQUAD_MIN_CUTOFF_HZ, BIQUAD_MAX_CUTOFF_FRACTION, BIQUAD
 export type { BiquadLowpassOptions } from './biquad-lowpass';
 export { OnePoleSmoother } from './one-pole-smoother';
 export type { OnePoleSmootherOptions } from './one-pole-smoother';
-export { dbToGain, gainToDb, centsToRatio, ratioToCents, gainToDbFloor, dbToGainFloor, dbToGainAt, centsToRatioAt, DB_FLOOR } from './conversions';
+export { dbToGain, gainToDb, centsToRatio, ratioToCents, gainToDbFloor, dbToGainFloor, dbToGainAt, centsToRatioAt, gainToDbFloorAt, dbToGainFloorAt, ratioToCentsAt, DB_FLOOR } from './conversions';

@@ -1,6 +1,6 @@
 // The time-stretch stage of a 'stretch' voice: a WSOLA StretchReader (src/stretch) reads in place of the voice's
 // StreamReader; the read speed is the voice's smoothed ratio, the content's pitch ratio is smoothed in cents apart.
-import { OnePoleSmoother, centsToRatio, ratioToCents, type KernelPreference, type KernelTable, type StreamSourceOptions } from '../dsp';
+import { OnePoleSmoother, centsToRatioAt, ratioToCentsAt, type KernelPreference, type KernelTable, type StreamSourceOptions } from '../dsp';
 import { StretchReader } from '../stretch';
 import type { VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
@@ -19,6 +19,8 @@ export class StretchStage {
   private memoPitch = NaN;
   private memoDoppler = NaN;
   private memoCents = 0;
+  /** One slot for the in-place unit conversions. */
+  private readonly u = new Float64Array(1);
 
   /** Allocates the stretcher (2 channels) and the smoother. */
   constructor(table: KernelTable, sampleRate: Hz, ratioSeconds: Seconds, kernel: KernelPreference) {
@@ -94,18 +96,26 @@ export class StretchStage {
     if (p !== this.memoPitch || targets.doppler !== this.memoDoppler) {
       this.memoPitch = p;
       this.memoDoppler = targets.doppler;
-      this.memoCents = ratioToCents(p / targets.doppler);
+      const u = this.u;
+      u[0] = p / targets.doppler;
+      ratioToCentsAt(u, 0, 0);
+      this.memoCents = u[0];
     }
     const target = this.memoCents;
     const dopplerCents = this.dopplerCents;
     if (this.fresh) {
       this.fresh = false;
       this.pitchCents.reset(target);
-      this.startPitch = centsToRatio(target + dopplerCents);
+      this.u[0] = target + dopplerCents;
+      centsToRatioAt(this.u, 0);
+      this.startPitch = this.u[0];
     }
     this.pitchCents.target = target;
     this.pitchCents.step(frames);
-    this.endPitch = centsToRatio(this.pitchCents.value + dopplerCents);
+    // In place in a Float64Array: V8 boxes a double passed to or returned from a call it does not inline.
+    this.u[0] = this.pitchCents.value + dopplerCents;
+    centsToRatioAt(this.u, 0);
+    this.endPitch = this.u[0];
   }
 }
 

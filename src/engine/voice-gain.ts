@@ -1,6 +1,6 @@
 // The gain and pan stage of a voice: left and right gains (mapped gain × pan) smoothed in dB (one-pole, the
 // setTargetAtTime form), ramped linearly across the block together with the envelope; and the virtual/audible choice.
-import { OnePoleSmoother, DB_FLOOR, dbToGain, dbToGainFloor, gainToDbFloor } from '../dsp';
+import { OnePoleSmoother, DB_FLOOR, dbToGain, dbToGainFloorAt, gainToDbFloorAt } from '../dsp';
 import type { VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
 import type { VoiceEnvelope } from './voice-envelope';
@@ -17,7 +17,8 @@ export function targetAudibility(t: VoiceTargets): number {
   return l > r ? l : r;
 }
 
-// Slots of VoiceGain's state (doubles live in a Float64Array: a store into an object field boxes a new number in V8).
+// Slots of VoiceGain's state (doubles live in a Float64Array: a store into an object field boxes a new number in V8);
+// the floored conversions read and write its slots in place (a double returned from a call V8 does not inline is boxed).
 const LEFT0 = 0;
 const LEFT_STEP = 1;
 const RIGHT0 = 2;
@@ -95,11 +96,11 @@ export class VoiceGain {
     const gr = t.gain * t.right;
     if (gl !== f[TARGET_LEFT]) {
       f[TARGET_LEFT] = gl;
-      f[LEFT_TARGET_DB] = gainToDbFloor(gl);
+      gainToDbFloorAt(f, TARGET_LEFT, LEFT_TARGET_DB);
     }
     if (gr !== f[TARGET_RIGHT]) {
       f[TARGET_RIGHT] = gr;
-      f[RIGHT_TARGET_DB] = gainToDbFloor(gr);
+      gainToDbFloorAt(f, TARGET_RIGHT, RIGHT_TARGET_DB);
     }
   }
 
@@ -108,8 +109,8 @@ export class VoiceGain {
     const f = this.f;
     this.leftDb.reset(f[LEFT_TARGET_DB]);
     this.rightDb.reset(f[RIGHT_TARGET_DB]);
-    f[LEFT] = dbToGainFloor(f[LEFT_TARGET_DB]);
-    f[RIGHT] = dbToGainFloor(f[RIGHT_TARGET_DB]);
+    dbToGainFloorAt(f, LEFT_TARGET_DB, LEFT);
+    dbToGainFloorAt(f, RIGHT_TARGET_DB, RIGHT);
   }
 
   /** Smooths `frames` samples towards the targets: the gains go from their values before to `left`/`right`. */
@@ -123,11 +124,11 @@ export class VoiceGain {
     const rightEndDb = this.rightDb.value;
     if (leftEndDb !== f[MEMO_LEFT_DB]) {
       f[MEMO_LEFT_DB] = leftEndDb;
-      f[MEMO_LEFT] = dbToGainFloor(leftEndDb);
+      dbToGainFloorAt(f, MEMO_LEFT_DB, MEMO_LEFT);
     }
     if (rightEndDb !== f[MEMO_RIGHT_DB]) {
       f[MEMO_RIGHT_DB] = rightEndDb;
-      f[MEMO_RIGHT] = dbToGainFloor(rightEndDb);
+      dbToGainFloorAt(f, MEMO_RIGHT_DB, MEMO_RIGHT);
     }
     f[FROM_LEFT] = f[LEFT];
     f[FROM_RIGHT] = f[RIGHT];

@@ -1,6 +1,6 @@
 // The pitch stage of a voice: the playback ratio and its Doppler part smoothed apart in cents (one-pole, the
 // setTargetAtTime form), reached at the block's end; plus a propagating voice's Doppler factors from its emission time.
-import { OnePoleSmoother, MAX_RATIO, MIN_RATIO, centsToRatio, ratioToCents } from '../dsp';
+import { OnePoleSmoother, MAX_RATIO, MIN_RATIO, centsToRatioAt, ratioToCentsAt } from '../dsp';
 import type { VoiceTargets } from '../dilation';
 import type { Hz, Seconds } from '../units';
 import type { PropagationStage } from './propagation-stage';
@@ -25,6 +25,8 @@ export class VoicePitch {
   private ratioTarget = 0.5;
   private dopplerTarget = 0.5;
   private memoRatio = NaN;
+  /** One slot for the in-place unit conversions. */
+  private readonly u = new Float64Array(1);
   private memoDoppler = NaN;
   private readonly minRatio = MIN_RATIO;
   private readonly maxRatio = MAX_RATIO;
@@ -74,8 +76,14 @@ export class VoicePitch {
     if (t.ratio !== this.memoRatio || t.doppler !== this.memoDoppler) {
       this.memoRatio = t.ratio;
       this.memoDoppler = t.doppler;
-      this.ratioTarget = ratioToCents(t.ratio / t.doppler);
-      this.dopplerTarget = ratioToCents(t.doppler);
+      // In place in a Float64Array: V8 boxes a double passed to or returned from a call it does not inline.
+      const u = this.u;
+      u[0] = t.ratio / t.doppler;
+      ratioToCentsAt(u, 0, 0);
+      this.ratioTarget = u[0];
+      u[0] = t.doppler;
+      ratioToCentsAt(u, 0, 0);
+      this.dopplerTarget = u[0];
     }
   }
 
@@ -95,7 +103,13 @@ export class VoicePitch {
     const rc = this.ratioCents.value;
     const dc = this.dopplerCents.value;
     this.blockStart = this.current;
-    const r = rc === this.ratioTarget && dc === this.dopplerTarget ? t.ratio : centsToRatio(rc + dc);
+    const u = this.u;
+    if (rc === this.ratioTarget && dc === this.dopplerTarget) u[0] = t.ratio;
+    else {
+      u[0] = rc + dc;
+      centsToRatioAt(u, 0);
+    }
+    const r = u[0];
     // Clamped against fields, not the module constants: V8 boxes a double merged with a module constant.
     this.current = r >= this.minRatio ? (r <= this.maxRatio ? r : this.maxRatio) : this.minRatio;
   }
