@@ -71,8 +71,11 @@ export class EmissionSolver {
 
   private listenAt(clock: GameClock, p: Vec3Like, v: Vec3Like): void {
     const t = this.t;
-    this.gt = clock.gameAt(t);
-    this.st = clock.slopeAt(t);
+    // Through the clock's fields: V8 boxes a double passed to or returned from a call it does not inline.
+    clock.query = t;
+    clock.lookUp();
+    this.gt = clock.gameFound;
+    this.st = clock.slopeFound;
     copy(this.lp, p);
     copy(this.lv, v);
   }
@@ -189,7 +192,9 @@ export class EmissionSolver {
       // df/dτ at x: −c·s(τ) + û·S'(τ).
       const d = this.dist;
       const us = d > 1e-12 ? ((this.lp.x - this.sp.x) * this.sv.x + (this.lp.y - this.sp.y) * this.sv.y + (this.lp.z - this.sp.z) * this.sv.z) / d : 0;
-      const fp = -this.c * clock.slopeAt(b[2]) + us;
+      clock.query = b[2];
+      clock.lookUp();
+      const fp = -this.c * clock.slopeFound + us;
       // (No NaN literal in a merge here: a global read V8 has no feedback for is a tagged value, and boxes the other.)
       const nx = b[2] - fx / fp;
       b[2] = fp < 0 && nx > b[0] && nx < b[1] ? nx : 0.5 * (b[0] + b[1]);
@@ -203,7 +208,9 @@ export class EmissionSolver {
     b[2] = this.x;
     b[3] = this.fx;
     for (let i = 0; i < 24 && Math.abs(b[3]) > 1e-9; i++) {
-      const s = clock.slopeAt(b[2]);
+      clock.query = b[2];
+      clock.lookUp();
+      const s = clock.slopeFound;
       const nx = b[2] + b[3] / (this.c * (s > 1e-3 ? s : 1e-3));
       if (!(nx < b[2]) && b[3] < 0) break;
       b[2] = nx;
@@ -225,7 +232,9 @@ export class EmissionSolver {
     const d = Math.sqrt(dx * dx + dy * dy + dz * dz);
     this.dist = d;
     this.deriv = d > 1e-12 ? (dx * this.lv.x + dy * this.lv.y + dz * this.lv.z) / d : 0;
-    this.fx = this.c * (this.gt - clock.gameAt(tau)) - d;
+    clock.query = tau;
+    clock.lookUp();
+    this.fx = this.c * (this.gt - clock.gameFound) - d;
   }
 
   /** Fills `out` at emission time τ = `root`: position, distance and the game-clock Doppler factor dG(τ)/dG(t). */
@@ -238,7 +247,9 @@ export class EmissionSolver {
     out.distance = this.dist;
     copy(out.position, this.sp);
     const d = this.dist;
-    const sTau = clock.slopeAt(tau);
+    clock.query = tau;
+    clock.lookUp();
+    const sTau = clock.slopeFound;
     const st = this.st;
     // Straight-line branches, each storing its own value: a double merged from branches (and from a field) was boxed.
     if (d > 1e-9 && st > 1e-4 && sTau > 1e-4) {

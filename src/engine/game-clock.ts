@@ -18,15 +18,16 @@ export class GameClock {
   private first = 0;
   private count = 0;
   private maxSlopeSeen = 1;
-  /** Engine time of the last `gameAt`/`slopeAt` query, s: held in a field so that no double crosses the search call. */
-  private query: Seconds = 0.5;
+  /** Engine time of the last `gameAt`/`slopeAt` query, s: held in a field so that no double crosses the search call (the render path sets it, calls `lookUp` and reads `gameFound`/`slopeFound`). */
+  query: Seconds = 0.5;
   /** Time scale of the block being advanced (a field for the same reason). */
   private scale = 0.5;
   /** Slope being recorded by `push`. */
   private slope = 0.5;
   /** Results of the last `lookUp`: game time, s, and slope. */
-  private gameFound: Seconds = 0.5;
-  private slopeFound = 0.5;
+  gameFound: Seconds = 0.5;
+  /** Slope (time scale) found by the last `lookUp`. */
+  slopeFound = 0.5;
 
   /** Keeps up to `entries` (≥ 2) slope changes. */
   constructor(entries: number = GAME_CLOCK_ENTRIES) {
@@ -65,7 +66,7 @@ export class GameClock {
   }
 
   /** Game time and slope at engine time `query` into `gameFound` and `slopeFound` (fields: no boxed return). */
-  private lookUp(): void {
+  lookUp(): void {
     const i = this.entry();
     this.gameFound = this.g[i] + this.s[i] * (this.query - this.t[i]);
     this.slopeFound = this.s[i];

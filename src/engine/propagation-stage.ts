@@ -193,8 +193,17 @@ export class PropagationStage {
       const epoch = tracks.epoch[slot];
       const same = this.solvedEpoch[slot] === epoch;
       this.solvedEpoch[slot] = epoch;
-      const sNow = this.clock.slopeAt(end);
-      const sLow = same && prev.state !== EMISSION_NONE ? Math.min(sNow, this.clock.slopeAt(prev.tau)) : sNow;
+      // Through the clock's fields: V8 boxes a double passed to or returned from a call it does not inline.
+      const clock = this.clock;
+      clock.query = end;
+      clock.lookUp();
+      const sNow = clock.slopeFound;
+      let sLow = sNow;
+      if (same && prev.state !== EMISSION_NONE) {
+        clock.query = prev.tau;
+        clock.lookUp();
+        sLow = Math.min(sNow, clock.slopeFound);
+      }
       const subsonic = same && prev.state !== EMISSION_NONE && tracks.maxSpeed[slot] < 0.9 * c * sLow;
       // The previous τ is used only when `subsonic` (which implies a valid previous solution).
       solver.solve(tracks, this.clock, slot, prev.tau, subsonic, cur);
@@ -206,7 +215,14 @@ export class PropagationStage {
         continue;
       }
       const gBlock = this.clock.game - gStart;
-      if (prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9) cur.meanDoppler = (this.clock.gameAt(cur.tau) - this.clock.gameAt(prev.tau)) / gBlock;
+      if (prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9) {
+        clock.query = cur.tau;
+        clock.lookUp();
+        const gCur = clock.gameFound;
+        clock.query = prev.tau;
+        clock.lookUp();
+        cur.meanDoppler = (gCur - clock.gameFound) / gBlock;
+      }
       else cur.meanDoppler = NaN;
       if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur)) {
         let te = end - cur.scanResidual / cur.scanRate;
@@ -309,7 +325,10 @@ export class PropagationStage {
     const tau = sol.tau;
     this.tracks.evaluate(slot, tau, this.sp, this.sv);
     const v = this.sv;
-    return Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * this.clock.slopeAt(tau);
+    const clock = this.clock;
+    clock.query = tau;
+    clock.lookUp();
+    return Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * clock.slopeFound;
   }
 
   /** Queues a shockwave of source slot `slot` at its solution's `coneTime`. */
@@ -326,7 +345,9 @@ export class PropagationStage {
     }
     const e = this.events[(this.eventHead + this.eventCount) % SHOCKWAVE_QUEUE];
     e.time = time;
-    e.gameTime = this.clock.gameAt(time);
+    this.clock.query = time;
+    this.clock.lookUp();
+    e.gameTime = this.clock.gameFound;
     e.sourceId = sourceId;
     this.eventCount++;
   }
