@@ -37,6 +37,8 @@ export class WasmReadPath {
   /** Byte offsets of the sources' resident copies in module memory (0 = none; spans are copied), as of `residentEpoch`. */
   private readonly resident: Int32Array;
   private residentEpoch = -1;
+  /** Infinity as a field: a double merged with the global `Infinity` in a branch is boxed by V8 (docs/allocation.md). */
+  private readonly noLoopEnd = Infinity;
 
   /** Reads `cursor` (its source, loop and position); room for its channels' resident source offsets. */
   constructor(kernel: WasmKernel, cursor: ReadCursor) {
@@ -78,7 +80,8 @@ export class WasmReadPath {
     const ro = req.ratiosOffset;
     const chans = cur.channelsInUse;
     const halfDense = t.halfTaps * t.phases;
-    const loopEnd = cur.loop ? cur.loopEnd : Infinity;
+    let loopEnd = this.noLoopEnd;
+    if (cur.loop) loopEnd = cur.loopEnd;
     const reMax = rs + dr > rs ? rs + dr : rs;
     if (this.residentEpoch !== k.residentEpoch) {
       for (let c = 0; c < chans; c++) this.resident[c] = k.residentOf(cur.sources[c]);
