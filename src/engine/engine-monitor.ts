@@ -17,7 +17,7 @@ export function fillMonitors(core: EngineCore, out: VoiceMonitor[]): number {
     m.voice = core.pool.handleOf(v);
     m.sourceId = v.params.sourceId;
     m.group = v.params.group;
-    // The ratio in use: a propagating voice's read includes the Doppler factor, clamped as fillRatios clamps it.
+    // The ratio in use: a propagating voice's read includes the Doppler factor, clamped as the propagation stage's fillRamp clamps it.
     const r = v.propagating ? v.currentRatio * v.dopplerEnd : v.currentRatio;
     m.ratioCents = ratioToCents(r < MIN_RATIO ? MIN_RATIO : r > MAX_RATIO ? MAX_RATIO : r);
     m.dopplerCents = v.propagating ? ratioToCents(v.dopplerEnd) : v.currentDopplerCents;

@@ -18,7 +18,7 @@ export class GameClock {
   private first = 0;
   private count = 0;
   private maxSlopeSeen = 1;
-  /** Engine time of the last `gameAt`/`slopeAt` query, s: held in a field so that no double crosses the search call (the render path sets it, calls `lookUp` and reads `gameFound`/`slopeFound`). */
+  /** Engine time of the next `lookUp`, s: held in a field so that no double crosses the search call (the render path sets it, calls `lookUp` and reads `gameFound`/`slopeFound`). */
   query: Seconds = 0.5;
   /** Time scale of the block being advanced (a field for the same reason). */
   private scale = 0.5;
@@ -51,21 +51,7 @@ export class GameClock {
     return this.maxSlopeSeen;
   }
 
-  /** Game time at engine time `T` (s); extrapolated with the first and last slopes outside the history. */
-  gameAt(T: Seconds): Seconds {
-    this.query = T;
-    this.lookUp();
-    return this.gameFound;
-  }
-
-  /** Time scale (dG/dT) at engine time `T`. */
-  slopeAt(T: Seconds): number {
-    this.query = T;
-    this.lookUp();
-    return this.slopeFound;
-  }
-
-  /** Game time and slope at engine time `query` into `gameFound` and `slopeFound` (fields: no boxed return). */
+  /** Game time (extrapolated with the first and last slopes outside the history) and slope (dG/dT) at engine time `query`, into `gameFound` and `slopeFound` (fields: no boxed return). */
   lookUp(): void {
     const i = this.entry();
     this.gameFound = this.g[i] + this.s[i] * (this.query - this.t[i]);

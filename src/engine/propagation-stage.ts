@@ -60,7 +60,7 @@ export class PropagationStage {
   private readonly sv: Vec3Like = { x: 0, y: 0, z: 0 };
   /** Engine time at the start of the block `solveAll` solves, s (the render loop sets the three, then calls). */
   blockStart: Seconds = 0.5;
-  // Doubles handed to the bodies of push, advance and fillRatios in fields, not as arguments: V8 boxes a double passed
+  // Doubles handed to the bodies of push, advance and fillRamp in fields, not as arguments: V8 boxes a double passed
   // to or returned from a call it does not inline (docs/allocation.md); the public methods are small enough to inline.
   private pushNow: Seconds = 0.5;
   private pushInterval: Seconds = 0.5;
@@ -255,22 +255,8 @@ export class PropagationStage {
   /**
    * Writes one voice's per-sample read ratios for a block of `frames`: the time ratio ramped linearly from r0 to r1
    * times the Doppler factor going from d0 to d1 (values at the block's start and end) with mean `mean`, clamped to
-   * the resampler's range (counted). Returns their sum (source frames advanced).
-   */
-  fillRatios(out: Float32Array, frames: number, r0: number, r1: number, d0: number, d1: number, mean: number): number {
-    const q = this.ramp;
-    q[0] = r0;
-    q[1] = r1;
-    q[2] = d0;
-    q[3] = d1;
-    q[4] = mean;
-    this.fillRamp(out, frames);
-    return this.rampSum;
-  }
-
-  /**
-   * `fillRatios` with its five doubles taken from `ramp` (r0, r1, d0, d1, mean) and its sum left in `rampSum`: the form
-   * for the render path, where a call V8 does not inline would box every double passed or returned.
+   * the resampler's range (counted). The five doubles are taken from `ramp` (r0, r1, d0, d1, mean) and their sum (source
+   * frames advanced) is left in `rampSum`: a call V8 does not inline would box every double passed or returned.
    */
   fillRamp(out: Float32Array, frames: number): void {
     const q = this.ramp;
