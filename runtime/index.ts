@@ -3,7 +3,7 @@ export { createRalenti, createRalentiDefaults } from './create-ralenti';
 export type { CreateRalentiOptions } from './create-ralenti';
 export { Ralenti } from './ralenti';
 export type { Sound, SoundData, RalentiVoice, RalentiPlayOptions, RalentiListener, TimeScaleOptions, RalentiAudioError, RalentiInit } from './ralenti';
-export type { RalentiVoiceEvent, RalentiVoiceState, StopOptions, GroupState } from './ralenti';
+export type { RalentiVoiceEvent, RalentiVoiceState, StopOptions, GroupState, ClosedReport, KernelMemory } from './ralenti';
 export { RalentiSource } from './ralenti-source';
 export { RalentiOptionError, RalentiClosedError } from './runtime-error';
 export { defaultWorkletUrl, workletBlobUrl } from './worklet-url';

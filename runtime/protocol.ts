@@ -1,19 +1,15 @@
 // Messages between the main thread and the worklet processor, over the AudioWorkletNode's MessagePort.
 // Commands go main → worklet, reports come back; snapshots travel as flat Float64Arrays, copied by postMessage's
 // structured clone (not transferred), so each side owns its own array.
-import type {
-  EngineSnapshot,
-  EngineStats,
-  PlayOptions,
-  Seconds,
-  SourceState,
-  TimeScaleRequest,
-  Tuning,
-  VoiceMonitor,
-} from '../src/index';
+import type { EngineStats, PlayOptions, Seconds, TimeScaleRequest, Tuning, VoiceMonitor } from '../src/index';
 import { controlCommandChecks, type ControlCommand, type MessageFields, type ShapeCheck, type VoiceEventsReport } from './control-commands';
 import { isPackedKernelTable, packedTransfer, type PackedKernelTable } from '../src/dsp/index';
 import type { TableCounters } from './worklet/table-installer';
+import { snapshotSourceCount } from './snapshot-codec';
+
+export {
+  SNAPSHOT_HEADER, SNAPSHOT_STRIDE, SNAPSHOT_VERSION, SnapshotDecoder, createSnapshot, decodeSnapshot, encodeSnapshot, snapshotLength, snapshotSourceCount,
+} from './snapshot-codec';
 
 /** Name the processor is registered under. */
 export const PROCESSOR_NAME = 'ralenti-processor';
@@ -105,9 +101,14 @@ export interface SyncCommand {
   id: number;
 }
 
-/** The node is being closed (Ralenti.dispose): the host disposes its engine and the processor ends. */
+/**
+ * The node is being closed (Ralenti.dispose): the host disposes its engine, answers on `reply` with a ClosedReport, and
+ * the processor ends. The reply has its own port because the node's port is closed right after this command is sent.
+ */
 export interface CloseCommand {
   type: 'close';
+  /** Port for the one ClosedReport (transferred; closed by the audio thread once answered); absent: no answer. */
+  reply?: MessagePort;
 }
 
 /** Everything the main thread sends. */
@@ -171,17 +172,38 @@ export interface SyncedReport {
   contextTime: Seconds;
 }
 
+/** Module memory of the WebAssembly kernel in the audio thread's realm (shared by every engine of that realm), bytes. */
+export interface KernelMemory {
+  /** Handed out and not given back, after the close. */
+  bytesInUse: number;
+  /** Given back by this close (the engine's scratch, mix bus and resident sounds, and the tables installed for it). */
+  bytesReleased: number;
+  /** Size of the module memory (it never shrinks; what was released is reused by the next engine). */
+  memoryBytes: number;
+}
+/** The audio thread's last word, on the close command's reply port: its engine is disposed and the processor ends. */
+export interface ClosedReport {
+  type: 'closed';
+  /** Context time when the close was handled. */
+  contextTime: Seconds;
+  /** True when the engine was disposed by this close; false where the processor never built one (its construction failed). */
+  engineDisposed: boolean;
+  /** The kernel's module memory after the close; null where the engine ran the TypeScript kernel (or none was built). */
+  kernel: KernelMemory | null;
+}
+
 /** Everything the worklet sends back. */
 export type Report = ReadyReport | StatsReport | ErrorReport | SyncedReport | VoiceEventsReport;
 
 /**
- * Transferable buffers of a command, for postMessage's transfer list: a sound's channel buffers and packed kernel tables,
- * which the sender can no longer read once posted. A snapshot's array is not listed: it is cloned, so the sender may
+ * Transferables of a command, for postMessage's transfer list: a sound's channel buffers, packed kernel tables and the
+ * close command's reply port, which the sender can no longer use once posted. A snapshot's array is not listed: it is cloned, so the sender may
  * reuse it for the next snapshot (Ralenti.update does).
  */
 export function commandTransfer(command: Command): Transferable[] {
   if (command.type === 'add-sound') return command.channels.map((c) => c.buffer as ArrayBuffer);
   if (command.type === 'tables') return packedTransfer(command.tables);
+  if (command.type === 'close' && command.reply !== undefined) return [command.reply];
   return [];
 }
 
@@ -231,7 +253,7 @@ const commandChecks: { readonly [K in CommandType]: ShapeCheck } = {
   tuning: (d) => (isObject(d.tuning) ? null : 'tuning.tuning: expected an object'),
   tables: (d) => (Array.isArray(d.tables) && d.tables.every(isPackedKernelTable) ? null : 'tables.tables: expected packed kernel tables'),
   sync: (d) => (isHandle(d.id) ? null : 'sync.id: expected a handle'),
-  close: () => null,
+  close: (d) => (d.reply === undefined || (isObject(d.reply) && typeof d.reply.postMessage === 'function') ? null : 'close.reply: expected a MessagePort'),
   teleport: (d) => (typeof d.source === 'number' && Number.isFinite(d.source) ? null : 'teleport.source: expected a source id'),
   ...controlCommandChecks,
 };
@@ -259,79 +281,4 @@ export function decodeCommand(data: unknown): Command | string {
   if (problem !== null) return problem;
   checked(data, problem);
   return data;
-}
-
-/** Encoding version stored in the first slot of a snapshot. */
-export const SNAPSHOT_VERSION = 1;
-/** Slots before the first source: version, time, listener position, forward, up, has-velocity, velocity, count. */
-export const SNAPSHOT_HEADER = 16;
-/** Slots per source: id, position, has-velocity, velocity. */
-export const SNAPSHOT_STRIDE = 8;
-
-/** Number of sources in an encoded snapshot, or −1 if the encoding is malformed. */
-export function snapshotSourceCount(data: Float64Array): number {
-  if (data.length < SNAPSHOT_HEADER || data[0] !== SNAPSHOT_VERSION) return -1;
-  const n = data[15];
-  if (!Number.isInteger(n) || n < 0 || data.length < SNAPSHOT_HEADER + n * SNAPSHOT_STRIDE) return -1;
-  return n;
-}
-
-/** Floats needed to encode a snapshot of `sources` sources. */
-export function snapshotLength(sources: number): number {
-  return SNAPSHOT_HEADER + sources * SNAPSHOT_STRIDE;
-}
-
-/** Encodes a snapshot into `out` (allocated when absent or too short); returns the array written. */
-export function encodeSnapshot(s: EngineSnapshot, out?: Float64Array): Float64Array {
-  const n = s.sources.length;
-  const d = out && out.length >= snapshotLength(n) ? out : new Float64Array(snapshotLength(n));
-  const l = s.listener;
-  d[0] = SNAPSHOT_VERSION;
-  d[1] = s.time;
-  d[2] = l.position.x; d[3] = l.position.y; d[4] = l.position.z;
-  d[5] = l.forward.x; d[6] = l.forward.y; d[7] = l.forward.z;
-  d[8] = l.up.x; d[9] = l.up.y; d[10] = l.up.z;
-  d[11] = l.velocity ? 1 : 0;
-  d[12] = l.velocity ? l.velocity.x : 0; d[13] = l.velocity ? l.velocity.y : 0; d[14] = l.velocity ? l.velocity.z : 0;
-  d[15] = n;
-  for (let i = 0; i < n; i++) {
-    const src = s.sources[i];
-    const o = SNAPSHOT_HEADER + i * SNAPSHOT_STRIDE;
-    d[o] = src.id;
-    d[o + 1] = src.position.x; d[o + 2] = src.position.y; d[o + 3] = src.position.z;
-    d[o + 4] = src.velocity ? 1 : 0;
-    d[o + 5] = src.velocity ? src.velocity.x : 0; d[o + 6] = src.velocity ? src.velocity.y : 0; d[o + 7] = src.velocity ? src.velocity.z : 0;
-  }
-  return d;
-}
-
-const vec = () => ({ x: 0, y: 0, z: 0 });
-
-/** A fresh snapshot object for decodeSnapshot to fill. */
-export function createSnapshot(): EngineSnapshot {
-  return { time: 0, listener: { position: vec(), forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } }, sources: [] };
-}
-
-/**
- * Decodes into a fresh snapshot object (nothing shared with earlier results); null for a malformed encoding.
- * Engine.pushSnapshot copies the values it needs and keeps no reference to the object, so the receiver owns it
- * afterwards. `timeOffset` is subtracted from the time (sender's clock → engine time).
- */
-export function decodeSnapshot(d: Float64Array, timeOffset: Seconds = 0): EngineSnapshot | null {
-  const n = snapshotSourceCount(d);
-  if (n < 0) return null;
-  const s = createSnapshot();
-  s.time = d[1] - timeOffset;
-  const l = s.listener;
-  l.position.x = d[2]; l.position.y = d[3]; l.position.z = d[4];
-  l.forward.x = d[5]; l.forward.y = d[6]; l.forward.z = d[7];
-  l.up.x = d[8]; l.up.y = d[9]; l.up.z = d[10];
-  if (d[11] === 1) l.velocity = { x: d[12], y: d[13], z: d[14] };
-  for (let i = 0; i < n; i++) {
-    const o = SNAPSHOT_HEADER + i * SNAPSHOT_STRIDE;
-    const src: SourceState = { id: d[o], position: { x: d[o + 1], y: d[o + 2], z: d[o + 3] } };
-    if (d[o + 4] === 1) src.velocity = { x: d[o + 5], y: d[o + 6], z: d[o + 7] };
-    s.sources.push(src);
-  }
-  return s;
 }

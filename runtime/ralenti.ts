@@ -5,7 +5,7 @@
 import type { Decibels, EngineStats, PlayOptions, Seconds, Tuning, VoiceMonitor } from '../src/index';
 import { parseTuning } from '../src/tuning/index';
 import { packKernelTable, wasmSimdSupported } from '../src/dsp/index';
-import { commandTransfer, type Command, type RenderLoad, type Report } from './protocol';
+import { commandTransfer, type ClosedReport, type Command, type RenderLoad, type Report } from './protocol';
 import type { TableCounters } from './worklet/table-installer';
 import { RalentiOptionError } from './runtime-error';
 import type { RalentiSource } from './ralenti-source';
@@ -25,6 +25,7 @@ export type { RalentiVoice, RalentiVoiceEvent, RalentiVoiceState, StopOptions } 
 export type { GroupState } from './group-controls';
 export type { RalentiPlayOptions } from './play-options';
 export type { Sound, SoundData, RalentiListener, TimeScaleOptions, RalentiInit, RalentiAudioError } from './ralenti-types';
+export type { ClosedReport, KernelMemory } from './protocol';
 
 /** The runtime: one AudioWorkletNode hosting the engine, and the handles that drive it. */
 export class Ralenti {
@@ -75,7 +76,7 @@ export class Ralenti {
     this.node.port.onmessage = (e: MessageEvent<Report>) => this.receive(e.data);
     this.node.onprocessorerror = () => {
       // A stopped processor answers nothing more: settle the waiting flushes rather than leave them hanging.
-      this.life.settle();
+      this.life.abandon();
       this.life.emitError({ where: 'processorerror', message: 'the processor failed and stopped', count: -1 });
     };
   }
@@ -268,10 +269,16 @@ export class Ralenti {
     return this.life.onError(cb);
   }
 
-  /** Disconnects and closes the port; the runtime is unusable afterwards. */
-  dispose(): void {
-    if (!this.life.disposed) this.send({ type: 'close' }); // the worklet disposes its engine (module memory back at once) and ends
-    if (!this.life.dispose()) return;
+  /**
+   * Disconnects and closes the port; the runtime is unusable afterwards (at once: every call throws RalentiClosedError).
+   * The worklet disposes its engine (its module memory goes back at once) and ends; the promise resolves with its last
+   * report once it has (the same promise on later calls), or with null where it cannot answer (a closed context, a
+   * failed processor). Awaiting it is optional.
+   */
+  dispose(): Promise<ClosedReport | null> {
+    if (this.life.disposed) return this.life.closedAnswer;
+    this.send({ type: 'close', reply: this.life.replyPort() });
+    this.life.dispose();
     try {
       this.node.disconnect();
     } catch {
@@ -279,6 +286,7 @@ export class Ralenti {
     }
     this.node.port.onmessage = null;
     this.node.port.close();
+    return this.life.closedAnswer;
   }
 
   /** Handles one report from the worklet (called by the port; exposed for hosts that relay messages). */

@@ -1,6 +1,6 @@
 // A runtime's life on the main thread: open until dispose() or until its AudioContext closes; the flush() waiters
-// that must settle either way; and the listeners of audio-thread errors.
-import type { Command } from './protocol';
+// that must settle either way; the audio thread's answer to the close command; and the listeners of audio-thread errors.
+import type { ClosedReport, Command } from './protocol';
 import type { RalentiAudioError } from './ralenti-types';
 import { RalentiClosedError } from './runtime-error';
 
@@ -11,12 +11,15 @@ export class RuntimeLifecycle {
   private nextSync = 1;
   private readonly syncWaiters = new Map<number, () => void>();
   private readonly errorListeners = new Set<(e: RalentiAudioError) => void>();
+  /** The close command's answer: null until asked for, and where none can come. */
+  private answer: Promise<ClosedReport | null> = Promise.resolve(null);
+  private endAnswer: (r: ClosedReport | null) => void = () => {};
 
   /** Watches `context`: once it closes, every waiting flush settles (a closed context answers no more messages). */
   constructor(private readonly context: BaseAudioContext) {
     const events: Partial<Pick<EventTarget, 'addEventListener'>> = context;
     events.addEventListener?.('statechange', () => {
-      if (context.state === 'closed') this.settle();
+      if (context.state === 'closed') this.abandon();
     });
   }
 
@@ -54,10 +57,41 @@ export class RuntimeLifecycle {
     w?.();
   }
 
-  /** Settles every waiting flush (the worklet will answer no more). */
+  /** Settles every waiting flush (the worklet will answer no more on the node's port). */
   settle(): void {
     for (const resolve of this.syncWaiters.values()) resolve();
     this.syncWaiters.clear();
+  }
+
+  /** The audio thread is gone (its context closed, or the processor failed): settles the flushes and the close answer (null). */
+  abandon(): void {
+    this.settle();
+    this.endAnswer(null);
+  }
+
+  /**
+   * A port for the close command's answer, which settles `closedAnswer` with the worklet's ClosedReport; undefined where
+   * no answer can come (the context is closed) or MessagePort is missing, and the answer is then null.
+   */
+  replyPort(): MessagePort | undefined {
+    if (this.closed || typeof MessageChannel !== 'function') return undefined;
+    const channel = new MessageChannel();
+    const port = channel.port1;
+    this.answer = new Promise((resolve) => {
+      this.endAnswer = (r) => {
+        this.endAnswer = () => {};
+        port.onmessage = null;
+        port.close();
+        resolve(r);
+      };
+    });
+    port.onmessage = (e: MessageEvent<ClosedReport>) => this.endAnswer(e.data?.type === 'closed' ? e.data : null);
+    return channel.port2;
+  }
+
+  /** The audio thread's answer to the close command (null where none came); resolved at once before a close is sent. */
+  get closedAnswer(): Promise<ClosedReport | null> {
+    return this.answer;
   }
 
   /** Marks the runtime disposed and settles the waiting flushes; false when it already was. */

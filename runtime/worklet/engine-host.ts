@@ -1,21 +1,25 @@
 // Hosts one Engine behind the message protocol: decodes commands, maps handles, renders, reports stats and errors.
-// Used by the AudioWorkletProcessor; free of worklet globals so that Node tests can drive it directly.
+// Used by the AudioWorkletProcessor; free of worklet globals so that Node tests can drive it directly. Its parts live
+// beside it: the render load (render-load.ts), the stats report (host-stats.ts), the close answer (close-report.ts),
+// other channel counts (channel-fit.ts), handles (handle-book.ts), voice events (voice-event-relay.ts) and kernel
+// tables (table-installer.ts); snapshots are decoded by SnapshotDecoder (../snapshot-codec.ts).
 import { Engine } from '../../src/engine/index';
 import { parseTuning } from '../../src/tuning/index';
-import type { EngineStats, Seconds, VoiceMonitor } from '../../src/index';
+import type { Seconds } from '../../src/index';
 import { WasmKernel } from '../../src/dsp/index';
-import { decodeCommand, decodeSnapshot, type Command, type ProcessorOptions, type RenderLoad, type Report } from '../protocol';
+import { SnapshotDecoder } from '../snapshot-codec';
+import { decodeCommand, type Command, type ProcessorOptions, type Report } from '../protocol';
 import { VoiceEventRelay } from './voice-event-relay';
 import { TableInstaller } from './table-installer';
 import { HandleBook } from './handle-book';
+import { HostStats } from './host-stats';
+import { RenderLoadMeter, type RenderClock } from './render-load';
+import { ChannelFit, silence } from './channel-fit';
+import { ErrorReports, errorMessage } from './error-reports';
+import { answerClose, kernelMemory } from './close-report';
 
-/** A millisecond clock for timing process(), and its name (reported with the load). */
-export interface RenderClock {
-  /** 'performance.now' or 'Date.now'. */
-  name: string;
-  /** Current time in milliseconds (any origin). */
-  now: () => number;
-}
+export type { RenderClock } from './render-load';
+export { errorMessage } from './error-reports';
 
 /** What the host needs from its surroundings. */
 export interface EngineHostOptions {
@@ -30,54 +34,39 @@ export interface EngineHostOptions {
   clock?: RenderClock;
 }
 
-/** Error messages posted per stats interval at most. */
-const MAX_ERROR_REPORTS = 4;
-/** Voice monitors sent per stats report at most. */
-const MAX_MONITORS = 64;
-/** Time constant of the render-load average in seconds of audio: long enough to average Date.now's 1 ms steps. */
-const LOAD_AVERAGE_SECONDS = 1;
-
 /** One engine plus the main-thread ↔ engine handle maps; `process` never throws. */
 export class EngineHost {
   /** The hosted engine. */
   readonly engine: Engine;
   /** Main-thread ↔ engine sound and voice handles. */
   readonly handles = new HandleBook();
-  /** Errors caught on the audio thread so far. */
-  errors = 0;
   /** True after render threw; output stays silent until the next valid command. */
   faulted = false;
   private readonly post: (report: Report) => void;
   private readonly sampleRate: number;
   private readonly timeOffset: Seconds;
-  private readonly scratch: Float32Array[];
-  private readonly monitors: VoiceMonitor[] = [];
+  /** Other channel counts than 2 go through its stereo scratch pair. */
+  private readonly fit = new ChannelFit();
   private readonly statsIntervalFrames: number;
   private framesSinceStats = 0;
-  private reportedErrors = 0;
+  private readonly errorReports: ErrorReports;
   /** engine.stats.errors already accounted for (the engine catches its own render exceptions and counts them). */
   private engineErrors = 0;
-  private readonly clock: RenderClock | null;
-  /** Milliseconds in process() and of audio rendered since the last stats report. */
-  private busyMs = 0;
-  private audioMs = 0;
-  /** Exponentially weighted sums of the same (time constant LOAD_AVERAGE_SECONDS); their ratio is the load. */
-  private busyAvgMs = 0;
-  private audioAvgMs = 0;
-  /** Largest peakIn / peakOut of every render since the last stats report (the engine resets its own per call). */
-  private intervalPeakIn = 0;
-  private intervalPeakOut = 0;
+  /** Render load, timed by the host's clock (null without one: not measured). */
+  private readonly load: RenderLoadMeter | null;
+  private readonly hostStats: HostStats;
   private readonly relay: VoiceEventRelay;
   /** The node's routed group outputs of the current block (outputs 1…k; refilled each block, never reallocated). */
   private readonly routed: Float32Array[][];
-  /** Longest single call (process or message) since the last stats report, ms. */
-  private peakMs = 0;
   private readonly tables: TableInstaller;
+  /** Snapshots are decoded into its one object (the engine copies the values and keeps no reference). */
+  private readonly snapshots: SnapshotDecoder;
 
   constructor(options: EngineHostOptions) {
     const p = options.processorOptions;
     this.post = options.post;
-    this.clock = options.clock ?? null;
+    this.errorReports = new ErrorReports(this.post, () => this.engine.stats.errors);
+    this.load = options.clock === undefined ? null : new RenderLoadMeter(options.clock);
     this.sampleRate = options.sampleRate;
     this.timeOffset = options.startContextTime;
     // Tables designed on the main thread: the tuning's tier is installed here, before any audio; others follow in slices.
@@ -89,11 +78,16 @@ export class EngineHost {
     });
     this.routed = (p.groupOutputs ?? []).map(() => []);
     this.relay = new VoiceEventRelay(this.engine, this.handles, this.post);
-    this.scratch = [new Float32Array(128), new Float32Array(128)];
-    for (let i = 0; i < p.capacity; i++) this.monitors.push(emptyMonitor());
+    this.hostStats = new HostStats(this.engine, this.handles, p.capacity);
+    this.snapshots = new SnapshotDecoder(p.maxSources ?? 256);
     const interval = Math.min(10, Math.max(0.05, Number(p.statsIntervalSeconds) || 0.25));
     this.statsIntervalFrames = Math.round(interval * options.sampleRate);
     this.post({ type: 'ready', sampleRate: options.sampleRate, capacity: p.capacity });
+  }
+
+  /** Errors caught by the host on the audio thread so far (the engine's own are in its stats). */
+  get errors(): number {
+    return this.errorReports.count;
   }
 
   /** Main-thread voice handles currently mapped to engine voices. */
@@ -125,15 +119,16 @@ export class EngineHost {
   /** Handles one message from the port; malformed or failing commands are reported, never thrown. */
   handle(data: unknown): void {
     if (this.engine.disposed) return;
-    const started = this.clock ? this.clock.now() : 0;
+    const load = this.load;
+    const started = load === null ? 0 : load.clock.now();
     this.handleTimed(data);
-    if (this.clock) this.addBusy(this.clock.now() - started); // message time is audio-thread time too
+    if (load !== null) load.addBusy(load.clock.now() - started); // message time is audio-thread time too
   }
 
   private handleTimed(data: unknown): void {
     const command = decodeCommand(data);
     if (typeof command === 'string') {
-      this.fail('command', command);
+      this.errorReports.fail('command', command);
       return;
     }
     try {
@@ -141,7 +136,7 @@ export class EngineHost {
       this.faulted = false;
       this.engineErrors = this.engine.stats.errors;
     } catch (err) {
-      this.fail('command', `${command.type}: ${errorMessage(err)}`);
+      this.errorReports.fail('command', `${command.type}: ${errorMessage(err)}`);
     }
   }
 
@@ -177,19 +172,21 @@ export class EngineHost {
         return;
       }
       case 'set-voice': {
+        // The command carries the change's fields itself (gain, ratio): no object is made for it.
         const v = this.handles.voiceOf(c.voice);
-        if (v !== undefined) e.setVoice(v, { gain: c.gain, ratio: c.ratio });
+        if (v !== undefined) e.setVoice(v, c);
         return;
       }
       case 'snapshot': {
-        const s = decodeSnapshot(c.data, this.timeOffset);
+        const s = this.snapshots.decode(c.data, this.timeOffset);
         if (s) e.pushSnapshot(s);
         return;
       }
       case 'time-scale': {
+        // The request is the message's own copy (structured clone): its start time moves to engine time in place.
         const r = c.request;
-        const startTime = r.startTime === undefined ? undefined : this.toEngineTime(r.startTime);
-        e.setTimeScale({ target: r.target, rampSeconds: r.rampSeconds, easing: r.easing, startTime });
+        if (r.startTime !== undefined) r.startTime = this.toEngineTime(r.startTime);
+        e.setTimeScale(r);
         return;
       }
       case 'tuning':
@@ -208,9 +205,14 @@ export class EngineHost {
       case 'teleport':
         e.teleport(c.source);
         return;
-      case 'close':
+      case 'close': {
+        const kernel = WasmKernel.shared();
+        const before = kernel?.bytesInUse ?? 0;
+        const contextTime = this.timeOffset + e.time;
         this.dispose();
+        answerClose(c.reply, { type: 'closed', contextTime, engineDisposed: true, kernel: kernelMemory(kernel, before) });
         return;
+      }
       default:
         this.relay.apply(c);
         return;
@@ -229,7 +231,8 @@ export class EngineHost {
     }
     if (!output || output.length === 0) return true;
     for (let k = 0; k < this.routed.length; k++) this.routed[k] = all?.[k + 1] ?? EMPTY;
-    const started = this.clock ? this.clock.now() : 0;
+    const load = this.load;
+    const started = load === null ? 0 : load.clock.now();
     const frames = output[0].length;
     try {
       if (this.tables.installing > 0) {
@@ -241,129 +244,53 @@ export class EngineHost {
       } else if (output.length === 2) {
         this.engine.render(output, frames, this.routed);
       } else {
-        this.renderVia(output, frames);
+        this.fit.render(this.engine, output, frames);
       }
       if (this.engine.stats.errors !== this.engineErrors) {
         // The engine caught an exception inside render (that block is already silent): report it and stay silent.
         this.engineErrors = this.engine.stats.errors;
         silence(output);
         this.faulted = true;
-        this.report('process', `the engine failed while rendering (${this.engineErrors} so far); silent until the next command`);
+        this.errorReports.report('process', `the engine failed while rendering (${this.engineErrors} so far); silent until the next command`);
       }
     } catch (err) {
       silence(output);
       this.faulted = true;
-      this.fail('process', errorMessage(err));
+      this.errorReports.fail('process', errorMessage(err));
     }
-    const st = this.engine.stats;
-    if (st.peakIn > this.intervalPeakIn) this.intervalPeakIn = st.peakIn;
-    if (st.peakOut > this.intervalPeakOut) this.intervalPeakOut = st.peakOut;
+    this.hostStats.notePeaks();
     try {
       this.relay.flush(this.timeOffset + this.engine.time);
     } catch (err) {
-      this.fail('events', errorMessage(err));
+      this.errorReports.fail('events', errorMessage(err));
     }
     this.framesSinceStats += frames;
     if (this.framesSinceStats >= this.statsIntervalFrames) {
       this.framesSinceStats = 0;
-      this.reportedErrors = 0;
+      this.errorReports.newInterval();
       this.sendStats();
     }
-    if (this.clock) {
+    if (load !== null) {
       // Timed after the stats so that their cost counts too (in the next report).
-      this.addBusy(this.clock.now() - started);
-      this.audioMs += (1000 * frames) / this.sampleRate;
+      load.addBusy(load.clock.now() - started);
+      load.addAudio((1000 * frames) / this.sampleRate);
     }
     return true;
-  }
-
-  private addBusy(elapsed: number): void {
-    if (!(elapsed > 0 && elapsed < 1e4)) return; // a clock step backwards or a huge jump is not render time
-    this.busyMs += elapsed;
-    if (elapsed > this.peakMs) this.peakMs = elapsed;
-  }
-
-  /** Folds the time since the last report into the running average; null without a clock or before any audio. */
-  private renderLoad(): RenderLoad | null {
-    if (!this.clock || this.audioMs <= 0) return null;
-    const keep = Math.exp(-this.audioMs / (1000 * LOAD_AVERAGE_SECONDS));
-    this.busyAvgMs = this.busyAvgMs * keep + this.busyMs;
-    this.audioAvgMs = this.audioAvgMs * keep + this.audioMs;
-    this.busyMs = 0;
-    this.audioMs = 0;
-    const peakMs = this.peakMs;
-    this.peakMs = 0;
-    return { fraction: this.busyAvgMs / this.audioAvgMs, clock: this.clock.name, averageSeconds: LOAD_AVERAGE_SECONDS, peakMs };
-  }
-
-  /** Renders through the stereo scratch pair when the node has a channel count other than 2 (no allocation). */
-  private renderVia(output: Float32Array[], frames: number): void {
-    const s = this.scratch;
-    if (s[0].length < frames) throw new Error(`block of ${frames} frames exceeds 128`);
-    this.engine.render(s, frames);
-    const l = s[0];
-    const r = s[1];
-    if (output.length === 1) for (let i = 0; i < frames; i++) output[0][i] = 0.5 * (l[i] + r[i]);
-    else {
-      for (let i = 0; i < frames; i++) {
-        output[0][i] = l[i];
-        output[1][i] = r[i];
-      }
-      for (let c = 2; c < output.length; c++) output[c].fill(0);
-    }
   }
 
   /** Posts the current stats and voice monitors now (nothing once disposed). */
   sendStats(): void {
     if (this.engine.disposed) return;
     try {
-      const count = this.engine.monitor(this.monitors);
-      const voices: VoiceMonitor[] = [];
-      for (let i = 0; i < count && voices.length < MAX_MONITORS; i++) {
-        const m = this.monitors[i];
-        voices.push({ ...m, voice: this.handles.ownerOf(m.voice) ?? -1 });
-      }
+      const voices = this.hostStats.voices();
       this.relay.flush(this.timeOffset + this.engine.time, true);
-      // Peaks over the whole report interval (true peak of every sample since the last report), not the last block's;
-      // the last shockwave's time goes out in context time, as every time the main thread sees.
-      const st = this.engine.stats;
-      const stats: EngineStats = {
-        ...st, errors: st.errors + this.errors, lastShockwaveTime: this.timeOffset + st.lastShockwaveTime, peakIn: this.intervalPeakIn, peakOut: this.intervalPeakOut,
-      };
-      this.intervalPeakIn = 0;
-      this.intervalPeakOut = 0;
-      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load: this.renderLoad(), tables: this.tables.counters() });
+      const stats = this.hostStats.take(this.errors, this.timeOffset);
+      const load = this.load === null ? null : this.load.take();
+      this.post({ type: 'stats', contextTime: this.timeOffset + this.engine.time, stats, voices, load, tables: this.tables.counters() });
     } catch (err) {
-      this.fail('stats', errorMessage(err));
-    }
-  }
-
-  private fail(where: string, message: string): void {
-    this.errors += 1;
-    this.report(where, message);
-  }
-
-  /** Posts an error already counted (in `errors` or the engine's stats). */
-  private report(where: string, message: string): void {
-    // At most a few messages per stats interval; the count in the stats carries the rest.
-    if (this.reportedErrors < MAX_ERROR_REPORTS) {
-      this.reportedErrors += 1;
-      this.post({ type: 'error', where, message, count: this.errors + this.engine.stats.errors });
+      this.errorReports.fail('stats', errorMessage(err));
     }
   }
 }
 
 const EMPTY: Float32Array[] = [];
-
-function silence(output: Float32Array[]): void {
-  for (const ch of output) ch.fill(0);
-}
-
-/** The message of a thrown value (an Error's message, else its string form). */
-export function errorMessage(err: unknown): string {
-  return err instanceof Error ? err.message : String(err);
-}
-
-function emptyMonitor(): VoiceMonitor {
-  return { voice: -1, sourceId: -1, group: '', ratioCents: 0, dopplerCents: 0, radialSpeed: 0, distance: 0, cutoffHz: 0, gainDb: 0, virtual: false };
-}

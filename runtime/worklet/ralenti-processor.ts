@@ -1,6 +1,7 @@
 // The AudioWorkletProcessor: registration, message hand-off and one call into the engine host per render quantum.
 import { EngineHost, errorMessage, type RenderClock } from './engine-host';
-import { PROCESSOR_NAME, type ProcessorOptions, type Report } from '../protocol';
+import { PROCESSOR_NAME, decodeCommand, type ProcessorOptions, type Report } from '../protocol';
+import { answerClose } from './close-report';
 // Registers the recording capture tap in the same module (runtime/recording/capture-processor.ts).
 import '../recording/capture-processor';
 
@@ -12,6 +13,12 @@ function renderClock(): RenderClock {
   const perf = (globalThis as { performance?: { now?: () => number } }).performance;
   if (perf && typeof perf.now === 'function') return { name: 'performance.now', now: () => perf.now!() };
   return { name: 'Date.now', now: Date.now };
+}
+
+/** Answers a close command when the engine was never built (its construction failed): nothing to dispose. */
+function answerWithoutEngine(data: unknown, contextTime: number): void {
+  const command = decodeCommand(data);
+  if (typeof command !== 'string' && command.type === 'close') answerClose(command.reply, { type: 'closed', contextTime, engineDisposed: false, kernel: null });
 }
 
 /** Hosts the Ralenti engine on the audio thread; process() never throws. */
@@ -32,7 +39,10 @@ class RalentiProcessor extends AudioWorkletProcessor {
     } catch (err) {
       post({ type: 'error', where: 'construct', message: errorMessage(err), count: 1 });
     }
-    this.port.onmessage = (event: MessageEvent): void => this.host?.handle(event.data);
+    this.port.onmessage = (event: MessageEvent): void => {
+      if (this.host) this.host.handle(event.data);
+      else answerWithoutEngine(event.data, currentTime);
+    };
   }
 
   process(_inputs: Float32Array[][], outputs: Float32Array[][]): boolean {

@@ -1,6 +1,7 @@
 // The voice engine: a fixed pool of voices over decoded sounds, rendered block by block (control rate = block),
 // mixed to a stereo master bus with a safety limiter. One engine, two hosts (AudioWorklet and Node). This class is
-// the public face; the work lives by concept in engine-core, engine-play, engine-tuning, block-render, engine-monitor.
+// the public face; the work lives by concept in engine-core, engine-play, engine-tuning, block-render, engine-monitor, engine-sounds and
+// engine-groups.
 import type { Hz, Seconds } from '../units';
 import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, ShockwaveEvent, VoiceMonitor } from './engine-types';
 import type { TimeScaleRequest } from '../dilation';
@@ -14,6 +15,8 @@ import { renderFrames } from './block-render';
 import { fillMonitors, positionOf, speedOf } from './engine-monitor';
 import { clampNumber } from './engine-values';
 import { VOICE_PLAYING, FREEZE_FADE_SECONDS } from './voice';
+import { addSoundTo, removeSoundFrom } from './engine-sounds';
+import { groupBusState, pauseGroups, resumeGroups } from './engine-groups';
 import { EngineClosedError } from './engine-closed-error';
 import type { VoiceStateName } from './voice-controls';
 import type { VoiceEventRing } from './voice-events';
@@ -32,6 +35,7 @@ export class Engine {
   readonly events: VoiceEventRing;
   private readonly core: EngineCore;
   private closed = false;
+  private readonly timeRequest: TimeScaleRequest = { target: 0.5, rampSeconds: 0.5, easing: 'linear', startTime: 0.5 };
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
   constructor(options: EngineOptions) {
@@ -58,24 +62,13 @@ export class Engine {
    */
   addSound(channels: readonly Float32Array[], sampleRate: Hz): number {
     this.live('addSound');
-    const c = this.core;
-    const id = c.bank.add(channels, sampleRate);
-    if (id < 0) this.stats.refused++;
-    else if (c.resident !== null) c.resident.makeResident(c.bank.slot(id));
-    return id;
+    return addSoundTo(this.core, channels, sampleRate);
   }
 
   /** Removes a sound; its voices fade out (default stop fade) and the slot frees once they are silent. */
   removeSound(id: number): void {
     this.live('removeSound');
-    const c = this.core;
-    const s = c.bank.slot(id);
-    if (s < 0) return;
-    for (let i = 0; i < c.voices.length; i++) {
-      const v = c.voices[i];
-      if (v.state === VOICE_PLAYING && v.params.sound === s) c.pool.release(v, engineDefaults.stopFadeSeconds);
-    }
-    c.bank.remove(id);
+    removeSoundFrom(this.core, id);
   }
 
   /** Starts a voice; returns its handle, or −1 if refused (unknown sound, or a full pool of higher priority). */
@@ -133,8 +126,13 @@ export class Engine {
     const c = this.core;
     const now = c.time;
     // In time-flow time, which stops while the world is paused: a ramp asked for during a pause starts on resume.
-    const startTime = c.controls.clock.requestTime(request.startTime ?? now, now);
-    c.flow.set({ target: request.target, rampSeconds: request.rampSeconds, easing: request.easing, startTime }, c.controls.flowTime(now));
+    // Copied into one request object of the engine's own (the flow keeps no reference): a ramp allocates nothing.
+    const r = this.timeRequest;
+    r.target = request.target;
+    r.rampSeconds = request.rampSeconds;
+    r.easing = request.easing;
+    r.startTime = c.controls.clock.requestTime(request.startTime ?? now, now);
+    c.flow.set(r, c.controls.flowTime(now));
   }
 
   /**
@@ -194,23 +192,13 @@ export class Engine {
   /** Pauses the whole world (no group: every pausable group, and the time scale's transitions) or one group; click-free. */
   pause(group?: string): void {
     this.live('pause');
-    const controls = this.core.controls;
-    if (group !== undefined) controls.buses.setPaused(group, true);
-    else if (!controls.buses.worldPaused) {
-      controls.buses.worldPaused = true;
-      controls.clock.pause(this.core.time);
-    }
+    pauseGroups(this.core, group);
   }
 
   /** Resumes the whole world (no group) or one group paused on its own; held voices fade back in where they were. */
   resume(group?: string): void {
     this.live('resume');
-    const controls = this.core.controls;
-    if (group !== undefined) controls.buses.setPaused(group, false);
-    else if (controls.buses.worldPaused) {
-      controls.buses.worldPaused = false;
-      controls.clock.resume(this.core.time);
-    }
+    resumeGroups(this.core, group);
   }
 
   /** Whether a world pause holds `group` (default: every group whose policy is not 'exempt'). */
@@ -240,8 +228,7 @@ export class Engine {
   /** A group bus's state: volume in dB, mute, solo and its own pause. */
   getGroupState(group: string): { volumeDb: number; muted: boolean; solo: boolean; paused: boolean } {
     this.live('getGroupState');
-    const b = this.core.controls.buses.bus(group);
-    return { volumeDb: b.volumeDb, muted: b.muted, solo: b.solo, paused: b.paused };
+    return groupBusState(this.core, group);
   }
 
   /** Moves a voice's read head to `seconds` of source time (clamped to the sound) after a short fade; stale handles are ignored. */
