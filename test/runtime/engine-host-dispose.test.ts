@@ -1,5 +1,6 @@
 // The worklet host when its node is closed: the 'close' command disposes the engine, hands its module memory and the
-// tables installed for it back to the kernel at once, and ends the processor (process() returns false, silent).
+// tables installed for it back to the kernel at once, answers on the command's reply port (Ralenti.dispose() resolves
+// with that report), and ends the processor (process() returns false, silent).
 import { describe, expect, it } from 'vitest';
 import { EngineHost } from '../../runtime/worklet/engine-host';
 import type { Report } from '../../runtime/protocol';
@@ -74,9 +75,46 @@ describe('EngineHost on close', () => {
   it('is told to close by Ralenti.dispose before the port closes', () => {
     const node = new FakeWorkletNode();
     const r = new Ralenti({ context: fakeContext(), node: node as unknown as AudioWorkletNode, tuning: defaultTuning, capacity: 4 });
-    r.dispose();
-    r.dispose();
+    const answer = r.dispose();
+    expect(r.dispose()).toBe(answer);
     expect(node.sent.map((s) => s.command.type)).toEqual(['close']);
+    expect(node.closed).toBe(true);
+  });
+
+  it("answers the close on its reply port once the engine is disposed; Ralenti.dispose() resolves with that report", async () => {
+    const node = new FakeWorkletNode();
+    const r = new Ralenti({ context: fakeContext(), node: node as unknown as AudioWorkletNode, tuning: defaultTuning, capacity: 4 });
+    const { h } = host(true);
+    const sound = new Float32Array(RATE / 2).map((_, j) => 0.3 * Math.sin(j * 0.05));
+    h.handle({ type: 'add-sound', sound: 1, channels: [sound], sampleRate: RATE });
+    h.handle({ type: 'play', voice: 1, sound: 1, options: { loop: true } });
+    for (let b = 0; b < 4; b++) h.process(out());
+    const before = kernel?.bytesInUse ?? 0;
+    const answer = r.dispose();
+    // The node's port is closed at once; the answer comes on the reply port the close command carried (transferred).
+    expect(node.closed).toBe(true);
+    const close = node.commands('close')[0];
+    expect(close.reply).toBeDefined();
+    h.handle(close);
+    const report = await answer;
+    expect(h.engine.disposed).toBe(true);
+    expect(report).toMatchObject({ type: 'closed', engineDisposed: true });
+    if (kernel === null) expect(report!.kernel).toBeNull();
+    else {
+      // Its regions (scratch, bus, the resident sound: 4 bytes a frame) and the installed standard-tier layout went back.
+      expect(report!.kernel!.bytesInUse).toBe(kernel.bytesInUse);
+      expect(report!.kernel!.bytesReleased).toBe(before - kernel.bytesInUse);
+      expect(report!.kernel!.bytesReleased).toBeGreaterThan(4 * sound.length + 4_000_000);
+    }
+    expect(h.process(out())).toBe(false);
+  });
+
+  it('resolves dispose() with null at once on a closed context (no answer can come)', async () => {
+    const node = new FakeWorkletNode();
+    const context = Object.assign(fakeContext(), { state: 'closed' });
+    const r = new Ralenti({ context, node: node as unknown as AudioWorkletNode, tuning: defaultTuning, capacity: 4 });
+    await expect(r.dispose()).resolves.toBeNull();
+    expect(node.commands('close')[0].reply).toBeUndefined();
   });
 
   it("forgets a voice whose 'ended' event was lost to a full event ring, and still tells the main thread it ended", () => {

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import {
   commandTransfer,
   decodeCommand,
+  SnapshotDecoder,
   decodeSnapshot,
   encodeSnapshot,
   snapshotLength,
@@ -51,6 +52,39 @@ describe('snapshot encoding', () => {
     expect(a.listener.position).not.toBe(b.listener.position);
     expect(a.sources[0]).not.toBe(b.sources[0]);
   });
+
+  it('decodes into one reused object: the same snapshot, listener, source states and list for every count of a band', () => {
+    const decoder = new SnapshotDecoder(8);
+    const first = decoder.decode(encodeSnapshot(snapshot))!;
+    expect(first).toEqual({ ...snapshot, sources: [{ ...snapshot.sources[0], velocity: undefined }, snapshot.sources[1]] });
+    const source0 = first.sources[0];
+    const list = first.sources;
+    const next = decoder.decode(encodeSnapshot({ ...snapshot, time: 2, sources: [snapshot.sources[1]] }), 0.5)!;
+    expect(next).toBe(first);
+    expect(next.listener).toBe(first.listener);
+    expect(next.sources).toBe(list);
+    expect(next.sources[0]).toBe(source0);
+    expect(next).toEqual({ ...snapshot, time: 1.5, sources: [snapshot.sources[1]] });
+    // No velocity sent: undefined, so the engine estimates it (as for an absent one).
+    const still = decoder.decode(encodeSnapshot({ ...snapshot, listener: { ...snapshot.listener, velocity: undefined }, sources: [snapshot.sources[0]] }))!;
+    expect(still.listener.velocity).toBeUndefined();
+    expect(still.sources[0].velocity).toBeUndefined();
+  });
+
+  it.each([[0], [1], [16], [17], [48], [49], [100], [112], [113], [200], [240], [241], [300]])(
+    'decodes %i sources exactly after other counts (every band of a 240-source decoder, and beyond it)',
+    (n) => {
+      const decoder = new SnapshotDecoder(240);
+      const make = (count: number, shift: number) => ({
+        ...snapshot,
+        sources: Array.from({ length: count }, (_, i) => (i % 2 === 0 ? { id: i + shift, position: { x: i, y: -i, z: 0.5 } } : { id: i, position: { x: 1, y: 2, z: 3 }, velocity: { x: i, y: 0, z: -1 } })),
+      });
+      for (const before of [300, 0, 17, 240, 5]) decoder.decode(encodeSnapshot(make(before, 1000)));
+      const got = decoder.decode(encodeSnapshot(make(n, 0)))!;
+      expect(got.sources).toHaveLength(n);
+      expect(got).toEqual(make(n, 0));
+    },
+  );
 
   it.each([
     ['too short', new Float64Array(3)],
