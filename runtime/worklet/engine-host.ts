@@ -210,7 +210,7 @@ export class EngineHost {
         const before = kernel?.bytesInUse ?? 0;
         const contextTime = this.timeOffset + e.time;
         this.dispose();
-        answerClose(c.reply, { type: 'closed', contextTime, engineDisposed: true, kernel: kernelMemory(kernel, before) });
+        answerClose(c.reply, { type: 'closed', contextTime, engineDisposed: e.disposed, kernel: kernelMemory(kernel, before) });
         return;
       }
       default:
