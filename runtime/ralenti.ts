@@ -1,10 +1,11 @@
 // The main-thread runtime: validates requests, keeps handles, and talks to the worklet over its port. Its parts live
 // beside it: lifecycle (runtime-lifecycle.ts), the snapshot path (snapshot-sender.ts), the time scale
 // (time-scale-control.ts), voice calls (voice-commands.ts), group buses (group-controls.ts), sound upload
-// (sound-upload.ts) and the stats before the first report (initial-stats.ts).
+// (sound-upload.ts), the kernel tables a tier switch needs (table-tiers.ts) and the stats before the first report
+// (initial-stats.ts).
 import type { Decibels, EngineStats, PlayOptions, Seconds, Tuning, VoiceMonitor } from '../src/index';
 import { parseTuning } from '../src/tuning/index';
-import { packKernelTable, wasmSimdSupported } from '../src/dsp/index';
+import { wasmSimdSupported } from '../src/dsp/index';
 import { commandTransfer, type ClosedReport, type Command, type RenderLoad, type Report } from './protocol';
 import type { TableCounters } from './worklet/table-installer';
 import { RalentiOptionError } from './runtime-error';
@@ -20,6 +21,7 @@ import { TimeScaleControl } from './time-scale-control';
 import { voiceCommands } from './voice-commands';
 import { soundUpload } from './sound-upload';
 import { initialStats } from './initial-stats';
+import { TableTiers } from './table-tiers';
 
 export type { RalentiVoice, RalentiVoiceEvent, RalentiVoiceState, StopOptions } from './ralenti-voice';
 export type { GroupState } from './group-controls';
@@ -56,8 +58,7 @@ export class Ralenti {
   private readonly snapshots: SnapshotSender;
   private nextSound = 1;
   private nextVoice = 1;
-  /** Tiers the processor has tables for, or null when it designs its own. */
-  private readonly tableTiers: Set<string> | null;
+  private readonly tableTiers: TableTiers;
 
   /** Wraps an existing node; use createRalenti() instead unless you built the node yourself. */
   constructor(init: RalentiInit) {
@@ -71,7 +72,7 @@ export class Ralenti {
     this.life = new RuntimeLifecycle(this.context);
     this.snapshots = new SnapshotSender(this.maxSources, send);
     this.registry = new VoiceRegistry(voiceCommands({ now: () => this.context.currentTime, alive: (what) => this.life.alive(what), send }));
-    this.tableTiers = init.tableTiers === undefined ? null : new Set(init.tableTiers);
+    this.tableTiers = new TableTiers(init.tableTiers, this.context.sampleRate);
     this.groupControls = new GroupControls({ send, tuning: () => this.current, context: this.context, node: this.node, routed: init.groupOutputs ?? [] });
     this.node.port.onmessage = (e: MessageEvent<Report>) => this.receive(e.data);
     this.node.onprocessorerror = () => {
@@ -104,11 +105,8 @@ export class Ralenti {
   /** Uploads a sound to the worklet (channel data is copied, then transferred). */
   load(data: SoundData): Sound {
     this.life.alive('load');
-    const { channels, sampleRate } = soundUpload(data);
-    const sound: Sound = Object.freeze({
-      id: this.nextSound++, channels: channels.length, sampleRate, frames: channels[0].length,
-      duration: channels[0].length / sampleRate,
-    });
+    const { channels, sampleRate, sound } = soundUpload(data, this.nextSound);
+    this.nextSound++;
     this.send({ type: 'add-sound', sound: sound.id, channels, sampleRate });
     this.loaded.set(sound.id, sound);
     return sound;
@@ -129,10 +127,7 @@ export class Ralenti {
     if (!known || known.frames !== sound.frames || known.sampleRate !== sound.sampleRate) throw new RalentiOptionError('play.sound', 'not a loaded sound of this runtime (load() it first; unload() ends it)');
     const o: PlayOptions = checkPlayOptions(options, sound, this.current);
     const source = options.source ?? null;
-    if (source) {
-      if (!source.alive || !this.snapshots.sources.has(source)) throw new RalentiOptionError('play.source', 'not a live source of this runtime');
-      o.sourceId = source.id;
-    }
+    if (source) o.sourceId = this.snapshots.liveId('play.source', source);
     const id = this.nextVoice++;
     this.send({ type: 'play', voice: id, sound: sound.id, options: o });
     const rate = sound.sampleRate;
@@ -227,12 +222,8 @@ export class Ralenti {
     this.life.alive('setTuning');
     const t = parseTuning(json);
     this.current = t;
-    const tier = t.resampler.tier;
-    if (this.tableTiers !== null && !this.tableTiers.has(tier)) {
-      // Designed here, off the audio thread; the worklet copies the layout in slices and switches when it is in.
-      this.send({ type: 'tables', tables: [packKernelTable(tier, this.context.sampleRate, wasmSimdSupported())] });
-      this.tableTiers.add(tier);
-    }
+    const tables = this.tableTiers.tablesFor(t.resampler.tier);
+    if (tables !== null) this.send(tables);
     this.send({ type: 'tuning', tuning: t });
     return t;
   }
@@ -276,17 +267,7 @@ export class Ralenti {
    * failed processor). Awaiting it is optional.
    */
   dispose(): Promise<ClosedReport | null> {
-    if (this.life.disposed) return this.life.closedAnswer;
-    this.send({ type: 'close', reply: this.life.replyPort() });
-    this.life.dispose();
-    try {
-      this.node.disconnect();
-    } catch {
-      // Already disconnected or its context closed: nothing left to release.
-    }
-    this.node.port.onmessage = null;
-    this.node.port.close();
-    return this.life.closedAnswer;
+    return this.life.close(this.node, (c) => this.send(c));
   }
 
   /** Handles one report from the worklet (called by the port; exposed for hosts that relay messages). */

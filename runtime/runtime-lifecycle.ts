@@ -73,7 +73,7 @@ export class RuntimeLifecycle {
    * A port for the close command's answer, which settles `closedAnswer` with the worklet's ClosedReport; undefined where
    * no answer can come (the context is closed) or MessagePort is missing, and the answer is then null.
    */
-  replyPort(): MessagePort | undefined {
+  private replyPort(): MessagePort | undefined {
     if (this.closed || typeof MessageChannel !== 'function') return undefined;
     const channel = new MessageChannel();
     const port = channel.port1;
@@ -87,6 +87,24 @@ export class RuntimeLifecycle {
     });
     port.onmessage = (e: MessageEvent<ClosedReport>) => this.endAnswer(e.data?.type === 'closed' ? e.data : null);
     return channel.port2;
+  }
+
+  /**
+   * Ends the runtime on `node`: sends the close command (with a reply port) through `send`, marks it disposed, then
+   * disconnects the node and closes its port; returns the close answer (the same promise on later calls).
+   */
+  close(node: AudioWorkletNode, send: (c: Command) => void): Promise<ClosedReport | null> {
+    if (this.disposedFlag) return this.answer;
+    send({ type: 'close', reply: this.replyPort() });
+    this.dispose();
+    try {
+      node.disconnect();
+    } catch {
+      // Already disconnected or its context closed: nothing left to release.
+    }
+    node.port.onmessage = null;
+    node.port.close();
+    return this.answer;
   }
 
   /** The audio thread's answer to the close command (null where none came); resolved at once before a close is sent. */

@@ -3,6 +3,7 @@ import type { EngineSnapshot, Seconds, Vec3Like } from '../src/index';
 import { encodeSnapshot, type Command } from './protocol';
 import { RalentiSource } from './ralenti-source';
 import type { RalentiListener } from './ralenti-types';
+import { RalentiOptionError } from './runtime-error';
 
 /** Live sources and the listener of one runtime, sent as one snapshot per update(). */
 export class SnapshotSender {
@@ -30,6 +31,12 @@ export class SnapshotSender {
       voiced.delete(s);
     };
     return s;
+  }
+
+  /** `source`'s id when it is a live source of this runtime; else throws RalentiOptionError naming `field`. */
+  liveId(field: string, source: RalentiSource): number {
+    if (!source.alive || !this.sources.has(source)) throw new RalentiOptionError(field, 'not a live source of this runtime');
+    return source.id;
   }
 
   /** Copies the listener into the next snapshot. */

@@ -1,15 +1,20 @@
 // What load() uploads: the channels of a sound, validated and copied so the worklet can take them over.
 import { RalentiOptionError, checkRange } from './runtime-error';
-import type { SoundData } from './ralenti-types';
+import type { Sound, SoundData } from './ralenti-types';
 
-/** A sound's channels (copies the caller no longer sees, ready to be transferred) and their sample rate in Hz. */
+/** A sound's channels (copies the caller no longer sees, ready to be transferred), their sample rate in Hz, and its handle. */
 export interface SoundUpload {
   channels: Float32Array[];
   sampleRate: number;
+  /** The game's handle of the sound (frozen). */
+  sound: Sound;
 }
 
-/** Copies 1–2 equal, non-empty channels at 1000…768000 Hz out of `data`; throws RalentiOptionError naming the bad field. */
-export function soundUpload(data: SoundData): SoundUpload {
+/**
+ * Copies 1–2 equal, non-empty channels at 1000…768000 Hz out of `data` for the sound with handle `id`; throws
+ * RalentiOptionError naming the bad field.
+ */
+export function soundUpload(data: SoundData, id: number): SoundUpload {
   let channels: Float32Array[];
   let sampleRate: number;
   if (isAudioBuffer(data)) {
@@ -28,7 +33,9 @@ export function soundUpload(data: SoundData): SoundUpload {
     sampleRate = data.sampleRate;
   }
   checkRange('load.sampleRate', sampleRate, 1000, 768000);
-  return { channels, sampleRate };
+  const frames = channels[0].length;
+  const sound: Sound = Object.freeze({ id, channels: channels.length, sampleRate, frames, duration: frames / sampleRate });
+  return { channels, sampleRate, sound };
 }
 
 function isAudioBuffer(d: SoundData): d is AudioBuffer {
