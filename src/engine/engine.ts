@@ -1,7 +1,7 @@
 // The voice engine: a fixed pool of voices over decoded sounds, rendered block by block (control rate = block),
 // mixed to a stereo master bus with a safety limiter. One engine, two hosts (AudioWorklet and Node). This class is
-// the public face; the work lives by concept in engine-core, engine-play, engine-tuning, block-render, engine-monitor, engine-sounds and
-// engine-groups.
+// the public face; the work lives by concept in engine-core, engine-play, engine-tuning, block-render, engine-monitor,
+// engine-sounds and engine-groups.
 import type { Hz, Seconds } from '../units';
 import type { EngineOptions, EngineSnapshot, EngineStats, PlayOptions, ShockwaveEvent, VoiceMonitor } from './engine-types';
 import type { TimeScaleRequest } from '../dilation';
@@ -35,7 +35,6 @@ export class Engine {
   readonly events: VoiceEventRing;
   private readonly core: EngineCore;
   private closed = false;
-  private readonly timeRequest: TimeScaleRequest = { target: 0.5, rampSeconds: 0.5, easing: 'linear', startTime: 0.5 };
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
   constructor(options: EngineOptions) {
@@ -126,13 +125,8 @@ export class Engine {
     const c = this.core;
     const now = c.time;
     // In time-flow time, which stops while the world is paused: a ramp asked for during a pause starts on resume.
-    // Copied into one request object of the engine's own (the flow keeps no reference): a ramp allocates nothing.
-    const r = this.timeRequest;
-    r.target = request.target;
-    r.rampSeconds = request.rampSeconds;
-    r.easing = request.easing;
-    r.startTime = c.controls.clock.requestTime(request.startTime ?? now, now);
-    c.flow.set(r, c.controls.flowTime(now));
+    const startTime = c.controls.clock.requestTime(request.startTime ?? now, now);
+    c.flow.set({ target: request.target, rampSeconds: request.rampSeconds, easing: request.easing, startTime }, c.controls.flowTime(now));
   }
 
   /**
