@@ -19,6 +19,10 @@ export class TypeScriptTaps {
   private readonly channels: number;
   private readonly scratch: Float32Array[] = [];
   private weights: Float64Array = EMPTY;
+  /** The stretched window's span per table offset ci at stride `spanStride` (see spans; 0: not filled). */
+  private before = new Int32Array(0);
+  private count = new Int32Array(0);
+  private spanStride = 0;
   /** The phase fraction in [0] and a dot product in [1] handed to and from kernel-dot (no boxed doubles). */
   private readonly dotIo = new Float64Array(2);
 
@@ -32,6 +36,11 @@ export class TypeScriptTaps {
   /** Switches the table; allocates only when it needs a wider window. */
   setTable(table: KernelTable): void {
     this.table = table;
+    this.spanStride = 0;
+    if (this.before.length <= table.phases) {
+      this.before = new Int32Array(table.phases + 1);
+      this.count = new Int32Array(table.phases + 1);
+    }
     const need = table.maxWindow(MAX_RATIO);
     if (this.weights.length < need) {
       this.weights = new Float64Array(need);
@@ -115,11 +124,12 @@ export class TypeScriptTaps {
           cur.lastStretch = 1;
         } else this.renderOne(out, o + i, stride);
       } else {
+        if (stride !== this.spanStride) this.spans(stride);
         const c = frac * stride;
         const ci = c | 0;
-        const a1n = ((halfDense - 1 - ci) / stride) | 0;
+        const a1n = this.before[ci];
         const mLo = (n - a1n) | 0;
-        const count = (a1n + ((halfDense + ci) / stride) + 1) | 0;
+        const count = this.count[ci];
         if (mono && mLo >= lo && mLo + count <= hi) {
           const k0 = (a1n * stride + halfDense + ci) | 0;
           const stride2 = stride * 2;
@@ -170,6 +180,18 @@ export class TypeScriptTaps {
       cur.moveTo(pos + r);
       if (cur.wrapped) lo = cur.loopStart;
     }
+  }
+
+  /** Fills before[ci] and count[ci] (window frames before the position, and in all) for `stride`, ci = 0…stride (c = frac·stride rounds below stride, but the
+   * product's rounding is not worth a proof here). */
+  private spans(stride: number): void {
+    const halfDense = this.table.halfTaps * this.table.phases;
+    for (let ci = 0; ci <= stride; ci++) {
+      const a1n = ((halfDense - 1 - ci) / stride) | 0;
+      this.before[ci] = a1n;
+      this.count[ci] = (a1n + (halfDense + ci) / stride + 1) | 0;
+    }
+    this.spanStride = stride;
   }
 
   /** One output sample at the cursor by the general path (window gathered across edges and loop seams, any channels). */
