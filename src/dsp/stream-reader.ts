@@ -31,7 +31,7 @@ export interface StreamSourceOptions {
 
 /** Reads a (multichannel) source at a fractional position that advances by a playback ratio per output sample; never allocates after construction. */
 export class StreamReader {
-  private table: KernelTable;
+  private table!: KernelTable;
   private readonly capacity: number;
   private readonly cur: ReadCursor;
   /** The WebAssembly path, or null (TypeScript reference). */
@@ -48,7 +48,6 @@ export class StreamReader {
     const shared = kernel === 'typescript' ? null : WasmKernel.shared();
     this.wasm = shared === null ? null : new WasmReadPath(shared, this.cur);
     if (kernel === 'wasm-simd' && this.wasm === null) throw new DspArgumentError('kernel', 'WebAssembly SIMD is not available here');
-    this.table = options.table;
     this.taps = new TypeScriptTaps(this.cur, channels, options.table);
     this.setTable(options.table);
   }

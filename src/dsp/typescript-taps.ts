@@ -182,8 +182,7 @@ export class TypeScriptTaps {
     }
   }
 
-  /** Fills before[ci] and count[ci] (window frames before the position, and in all) for `stride`, ci = 0…stride (c = frac·stride rounds below stride, but the
-   * product's rounding is not worth a proof here). */
+  /** Fills before[ci] and count[ci] (window frames before the position, and in all) at `stride` for ci = 0…stride (stride too: frac·stride may round up to it). */
   private spans(stride: number): void {
     const halfDense = this.table.halfTaps * this.table.phases;
     for (let ci = 0; ci <= stride; ci++) {
