@@ -1,0 +1,262 @@
+// The TypeScript reference kernel of StreamReader (J. O. Smith, "Digital Audio Resampling", CCRMA): per output
+// sample a windowed-sinc dot product over the source, two adjacent table phases linearly interpolated; a kernel
+// stretched by the ratio above 1.
+import { KernelTable } from './kernel-table';
+import { MAX_RATIO } from './quality-tiers';
+import { ReadCursor } from './read-cursor';
+import { dotRows, dotStride, fillRows, fillStride } from './kernel-dot';
+
+const EMPTY = new Float64Array(0);
+
+/** The block loop of the TypeScript kernel: a mono in-range fast path, and a general path (edges, loop seams, several channels). */
+export class TypeScriptTaps {
+  /** Ratio at the block's first sample and its change over the block (handed in fields: V8 boxes a double passed to a call it does not inline). */
+  rs = 0.5;
+  /** See rs. */
+  dr = 0.5;
+  private table!: KernelTable;
+  private readonly cur: ReadCursor;
+  private readonly channels: number;
+  private readonly scratch: Float32Array[] = [];
+  private weights: Float64Array = EMPTY;
+  /** The stretched window's span per table offset ci at stride `spanStride` (see spans; 0: not filled). */
+  private before = new Int32Array(0);
+  private count = new Int32Array(0);
+  private spanStride = 0;
+  /** The phase fraction in [0] and a dot product in [1] handed to and from kernel-dot (no boxed doubles). */
+  private readonly dotIo = new Float64Array(2);
+
+  /** Scratch for `channels` channels and the table's widest (ratio 4) window. */
+  constructor(cur: ReadCursor, channels: number, table: KernelTable) {
+    this.cur = cur;
+    this.channels = channels;
+    this.setTable(table);
+  }
+
+  /** Switches the table; allocates only when it needs a wider window. */
+  setTable(table: KernelTable): void {
+    this.table = table;
+    this.spanStride = 0;
+    if (this.before.length <= table.phases) {
+      this.before = new Int32Array(table.phases + 1);
+      this.count = new Int32Array(table.phases + 1);
+    }
+    const need = table.maxWindow(MAX_RATIO);
+    if (this.weights.length < need) {
+      this.weights = new Float64Array(need);
+      for (let c = 0; c < this.channels; c++) this.scratch[c] = new Float32Array(need);
+    }
+  }
+
+  /** Renders `frames` samples to out[c][o…], ratio per sample from (rs, dr) or from ratios[ro…], advancing the cursor. */
+  render(out: readonly Float32Array[], o: number, frames: number, ratios: Float32Array | null, ro: number): void {
+    const rs = this.rs;
+    const dr = this.dr;
+    const cur = this.cur;
+    const t = this.table;
+    const taps = t.taps | 0;
+    const phases = t.phases | 0;
+    const halfTaps = t.halfTaps | 0;
+    const halfDense = (halfTaps * phases) | 0;
+    const pm = t.phaseMajor;
+    const dense = t.dense;
+    const mono = cur.channelsInUse === 1;
+    const x = cur.sources[0];
+    const y = out[0];
+    const hi = cur.loop ? cur.loopEnd : cur.length;
+    let lo = cur.loop && cur.wrapped ? cur.loopStart : 0;
+    // The stride is looked up once per ratio: once per block for a constant ratio, and for a ramp whose ends fall on
+    // the same stride (rs + (dr·i)/frames is monotonic in i step by step, and strideFor is monotonic in the ratio).
+    let lastR = -1;
+    let stride = 0;
+    if (ratios === null && frames > 0) {
+      const s0 = t.strideFor(rs) | 0;
+      if (s0 === (t.strideFor(rs + (dr * (frames - 1)) / frames) | 0)) {
+        stride = s0;
+        lastR = Infinity;
+      }
+    }
+    for (let i = 0; i < frames; i++) {
+      const r = ratios === null ? (dr === 0 ? rs : rs + (dr * i) / frames) : cur.sanitize(ratios[ro + i]);
+      if (r !== lastR && lastR !== Infinity) {
+        stride = t.strideFor(r) | 0;
+        lastR = r;
+      }
+      const pos = cur.pos;
+      const n = Math.floor(pos) | 0;
+      const frac = pos - n;
+      if (stride === phases) {
+        const mLo = (n - halfTaps + 1) | 0;
+        if (mono && mLo >= lo && mLo + taps <= hi) {
+          const ph = frac * phases;
+          const phi = ph | 0;
+          const k0 = (phi * taps) | 0;
+          let a0 = 0;
+          let b0 = 0;
+          // On a table phase (ph = phi) the second row's weight is 0, and a0 + 0·(…) is a0 whenever a0 is finite
+          // (then so is every tap, and the second row's sum): one row gives the same sample. A non-finite a0 (a
+          // non-finite source sample in the window) takes the full form.
+          if (ph === phi) {
+            for (let j = 0; j < taps; j += 2) {
+              a0 += pm[k0 + j] * x[mLo + j];
+              b0 += pm[k0 + j + 1] * x[mLo + j + 1];
+            }
+            a0 += b0;
+          }
+          if (ph === phi && a0 - a0 === 0) y[o + i] = a0;
+          else {
+            const k1 = (k0 + taps) | 0;
+            a0 = 0;
+            b0 = 0;
+            let a1 = 0;
+            let b1 = 0;
+            for (let j = 0; j < taps; j += 2) {
+              const s0 = x[mLo + j];
+              const s1 = x[mLo + j + 1];
+              a0 += pm[k0 + j] * s0;
+              a1 += pm[k1 + j] * s0;
+              b0 += pm[k0 + j + 1] * s1;
+              b1 += pm[k1 + j + 1] * s1;
+            }
+            a0 += b0;
+            y[o + i] = a0 + (ph - phi) * (a1 + b1 - a0);
+          }
+          cur.lastStretch = 1;
+        } else this.renderOne(out, o + i, stride);
+      } else {
+        if (stride !== this.spanStride) this.spans(stride);
+        const c = frac * stride;
+        const ci = c | 0;
+        const a1n = this.before[ci];
+        const mLo = (n - a1n) | 0;
+        const count = this.count[ci];
+        if (mono && mLo >= lo && mLo + count <= hi) {
+          const k0 = (a1n * stride + halfDense + ci) | 0;
+          const stride2 = stride * 2;
+          const even = count & ~1;
+          let k = k0;
+          let j = 0;
+          let a0 = 0;
+          let b0 = 0;
+          // On a table point (c = ci): one column, as on a table phase above.
+          if (c === ci) {
+            for (; j < even; j += 2) {
+              a0 += dense[k] * x[mLo + j];
+              b0 += dense[k - stride] * x[mLo + j + 1];
+              k -= stride2;
+            }
+            if (j < count) a0 += dense[k] * x[mLo + j];
+            a0 += b0;
+          }
+          if (c === ci && a0 - a0 === 0) y[o + i] = (stride / phases) * a0;
+          else {
+            k = k0;
+            j = 0;
+            a0 = 0;
+            b0 = 0;
+            let a1 = 0;
+            let b1 = 0;
+            for (; j < even; j += 2) {
+              const s0 = x[mLo + j];
+              const s1 = x[mLo + j + 1];
+              const k2 = k - stride;
+              a0 += dense[k] * s0;
+              a1 += dense[k + 1] * s0;
+              b0 += dense[k2] * s1;
+              b1 += dense[k2 + 1] * s1;
+              k -= stride2;
+            }
+            if (j < count) {
+              const s0 = x[mLo + j];
+              a0 += dense[k] * s0;
+              a1 += dense[k + 1] * s0;
+            }
+            a0 += b0;
+            y[o + i] = (stride / phases) * (a0 + (c - ci) * (a1 + b1 - a0));
+          }
+          cur.lastStretch = phases / stride;
+        } else this.renderOne(out, o + i, stride);
+      }
+      cur.moveTo(pos + r);
+      if (cur.wrapped) lo = cur.loopStart;
+    }
+  }
+
+  /** Fills before[ci] and count[ci] (window frames before the position, and in all) at `stride` for ci = 0…stride (stride too: frac·stride may round up to it). */
+  private spans(stride: number): void {
+    const halfDense = this.table.halfTaps * this.table.phases;
+    for (let ci = 0; ci <= stride; ci++) {
+      const a1n = ((halfDense - 1 - ci) / stride) | 0;
+      this.before[ci] = a1n;
+      this.count[ci] = (a1n + (halfDense + ci) / stride + 1) | 0;
+    }
+    this.spanStride = stride;
+  }
+
+  /** One output sample at the cursor by the general path (window gathered across edges and loop seams, any channels). */
+  private renderOne(out: readonly Float32Array[], o: number, strideIn: number): void {
+    const t = this.table;
+    const chans = this.cur.channelsInUse;
+    const n = Math.floor(this.cur.pos);
+    const frac = this.cur.pos - n;
+    let mLo: number;
+    let count: number;
+    let stride: number;
+    let k0: number;
+    let f: number;
+    let scale: number;
+    if (strideIn === t.phases) {
+      const ph = frac * t.phases;
+      const phi = Math.floor(ph);
+      f = ph - phi;
+      mLo = n - t.halfTaps + 1;
+      count = t.taps;
+      stride = 0;
+      k0 = phi * t.taps;
+      scale = 1;
+      this.cur.lastStretch = 1;
+    } else {
+      stride = strideIn;
+      const half = t.halfTaps * t.phases;
+      const c = frac * stride;
+      const i = Math.floor(c);
+      f = c - i;
+      const a1 = Math.floor((half - 1 - i) / stride);
+      const a0 = Math.floor((half + i) / stride);
+      mLo = n - a1;
+      count = a1 + a0 + 1;
+      k0 = a1 * stride + half + i;
+      scale = stride / t.phases;
+      this.cur.lastStretch = t.phases / stride;
+    }
+    const lo = this.cur.loop ? (this.cur.wrapped ? this.cur.loopStart : 0) : 0;
+    const hi = this.cur.loop ? this.cur.loopEnd : this.cur.length;
+    let useScratch = false;
+    if (mLo < lo || mLo + count > hi) {
+      if (!this.cur.gather(this.scratch, mLo, count)) {
+        for (let c = 0; c < chans; c++) out[c][o] = 0;
+        return;
+      }
+      useScratch = true;
+    }
+    const base = useScratch ? 0 : mLo;
+    const io = this.dotIo;
+    io[0] = f;
+    if (chans === 1) {
+      const x = useScratch ? this.scratch[0] : this.cur.sources[0];
+      if (stride === 0) dotRows(t.phaseMajor, k0, t.taps, x, base, io);
+      else dotStride(t.dense, k0, stride, x, base, count, io);
+      out[0][o] = scale * io[1];
+      return;
+    }
+    const w = this.weights;
+    if (stride === 0) fillRows(w, t.phaseMajor, k0, t.taps, io);
+    else fillStride(w, t.dense, k0, stride, count, io);
+    for (let c = 0; c < chans; c++) {
+      const x = useScratch ? this.scratch[c] : this.cur.sources[c];
+      let acc = 0;
+      for (let j = 0; j < count; j++) acc += w[j] * x[base + j];
+      out[c][o] = scale * acc;
+    }
+  }
+}
