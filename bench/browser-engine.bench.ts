@@ -1,7 +1,9 @@
 // Chromium timing of the engine bench scene: the bundled worklet in an OfflineAudioContext, against the same
 // scene rendered by the engine in Node in the same run, as fractions of real time (one core).
+import { readFileSync, readdirSync } from 'node:fs';
 import { Engine } from '../src/engine/index';
 import { workletSourceText } from '../scripts/build-worklet.mjs';
+import type { Timing } from './browser-engine-page';
 import { browserSuiteMode, bundleForBrowser, openPage } from '../test/browser/browser-harness';
 import { BENCH_RAMP, BENCH_RATE, MOVING_STEP_FRAMES, MOVING_VOICES, benchPlays, benchSounds, movingPlays, movingPosition } from './browser-engine-scene';
 
@@ -27,6 +29,44 @@ function nodeMs(voices: number, seconds: number, warmSeconds: number): number {
   const t0 = performance.now();
   for (let b = 0; b < blocks; b++) engine.render([l, r], 128);
   return performance.now() - t0;
+}
+
+/** Thread name (as the kernel truncates it to 15 characters) of the thread an OfflineAudioContext renders its worklet on. */
+const OFFLINE_WORKLET_THREAD = 'Offline AudioWo';
+
+/**
+ * Processor time (ms) the Chromium processes' offline worklet threads have run, as a counter that only grows: each
+ * read adds what every such thread ran since the last read (a thread that ended adds nothing more). Read from Linux's
+ * /proc/<pid>/task/<tid>/schedstat (nanoseconds on a core); NaN where /proc has no such threads.
+ */
+function workletCpuCounter(): () => number {
+  const last = new Map<string, number>();
+  let total = 0;
+  return () => {
+    let found = false;
+    let pids: string[] = [];
+    try {
+      pids = readdirSync('/proc').filter((d) => /^\d+$/.test(d));
+    } catch {
+      return NaN;
+    }
+    for (const pid of pids) {
+      try {
+        if (!readFileSync(`/proc/${pid}/cmdline`, 'latin1').includes('chromium')) continue;
+        for (const tid of readdirSync(`/proc/${pid}/task`)) {
+          if (readFileSync(`/proc/${pid}/task/${tid}/comm`, 'latin1').trim() !== OFFLINE_WORKLET_THREAD) continue;
+          const ns = Number(readFileSync(`/proc/${pid}/task/${tid}/schedstat`, 'latin1').split(' ')[0]);
+          const key = `${pid}/${tid}`;
+          total += ns - (last.get(key) ?? 0);
+          last.set(key, ns);
+          found = true;
+        }
+      } catch {
+        // The process or thread ended while it was read.
+      }
+    }
+    return found || last.size > 0 ? total / 1e6 : NaN;
+  };
 }
 
 function cpuMs(): number {
@@ -80,61 +120,67 @@ export async function run(options: { json: boolean }): Promise<object> {
     '/page.js': page,
     '/ralenti-processor.js': worklet,
   });
-  const rows: { voices: number; chromiumRealTime: number; nodeRealTime: number; chromiumOverNode: number; active: number }[] = [];
-  const moving = { voices: MOVING_VOICES, active: 0, chromiumRealTime: [] as number[], nodeRealTime: [] as number[], nodeProcessorTime: [] as number[] };
+  const rows: { voices: number; chromiumRealTime: number; chromiumProcessorTime: number; nodeRealTime: number; chromiumOverNode: number; active: number }[] = [];
+  const moving = { voices: MOVING_VOICES, active: 0, chromiumRealTime: [] as number[], chromiumProcessorTime: [] as number[], nodeRealTime: [] as number[], nodeProcessorTime: [] as number[] };
   try {
+    // The page reads the worklet thread's processor time through this at its suspensions (see workletCpuMs there).
+    await session.page.exposeFunction('benchWorkletCpuMs', workletCpuCounter());
     await session.page.waitForFunction(() => 'renderBench' in globalThis);
     const render = (voices: number) =>
       session.page.evaluate(
-        ([v, s, w]) => (globalThis as unknown as { renderBench(v: number, s: number, w: number): Promise<{ ms: number; active: number }> }).renderBench(v, s, w),
+        ([v, s, w]) => (globalThis as unknown as { renderBench(v: number, s: number, w: number): Promise<Timing> }).renderBench(v, s, w),
         [voices, SECONDS, WARM_SECONDS] as const,
       );
     await render(8); // warm-up: JIT of the worklet scope
     nodeMs(8, 0.25, 0); // warm-up
     for (const voices of VOICES) {
-      let c = { ms: Infinity, active: 0 };
+      let c = { ms: Infinity, cpuMs: NaN, active: 0 };
+      let cpu = Infinity;
       let n = Infinity;
       // Interleaved, so that both hosts see the same background load.
       for (let k = 0; k < REPEATS; k++) {
         const ck = await render(voices);
         if (ck.ms < c.ms) c = ck;
+        cpu = Math.min(cpu, ck.cpuMs);
         n = Math.min(n, nodeMs(voices, SECONDS, WARM_SECONDS));
       }
-      rows.push({ voices, chromiumRealTime: c.ms / 1000 / SECONDS, nodeRealTime: n / 1000 / SECONDS, chromiumOverNode: c.ms / n, active: c.active });
+      rows.push({ voices, chromiumRealTime: c.ms / 1000 / SECONDS, chromiumProcessorTime: cpu / 1000 / SECONDS, nodeRealTime: n / 1000 / SECONDS, chromiumOverNode: c.ms / n, active: c.active });
     }
     // The moving scene: 512 voices, propagation on (default tuning), sources circling, time scale gliding.
     const renderMoving = () =>
       session.page.evaluate(
-        ([v, s, w]) => (globalThis as unknown as { renderMoving(v: number, s: number, w: number): Promise<{ ms: number; active: number }> }).renderMoving(v, s, w),
+        ([v, s, w]) => (globalThis as unknown as { renderMoving(v: number, s: number, w: number): Promise<Timing> }).renderMoving(v, s, w),
         [MOVING_VOICES, SECONDS, MOVING_WARM_SECONDS] as const,
       );
     const chromium: number[] = [];
+    const chromiumCpu: number[] = [];
     const node: number[] = [];
     const nodeCpu: number[] = [];
     for (let k = 0; k < REPEATS; k++) {
       const c = await renderMoving();
       moving.active = c.active;
       chromium.push(c.ms / 1000 / SECONDS);
+      chromiumCpu.push(c.cpuMs / 1000 / SECONDS);
       const n = nodeMoving(MOVING_VOICES, SECONDS, MOVING_WARM_SECONDS);
       node.push(n.wall / 1000 / SECONDS);
       nodeCpu.push(n.cpu / 1000 / SECONDS);
     }
-    Object.assign(moving, { chromiumRealTime: chromium, nodeRealTime: node, nodeProcessorTime: nodeCpu });
+    Object.assign(moving, { chromiumRealTime: chromium, chromiumProcessorTime: chromiumCpu, nodeRealTime: node, nodeProcessorTime: nodeCpu });
   } finally {
     await session.close();
   }
   if (!options.json) {
     console.log(`${SECONDS} s timed per row after ${WARM_SECONDS} s of warm-up in the same context, best of ${REPEATS}; fractions of one core in real time (OfflineAudioContext wall time ÷ audio duration)`);
-    console.log('voices | Chromium worklet (OfflineAudioContext) | Node engine, same scene | Chromium ÷ Node | active');
+    console.log('voices | Chromium worklet (OfflineAudioContext) | its worklet thread, processor time (best run) | Node engine, same scene | Chromium ÷ Node (wall) | active');
     for (const r of rows) {
-      console.log(`${r.voices} | ${(r.chromiumRealTime * 100).toFixed(1)} % | ${(r.nodeRealTime * 100).toFixed(1)} % | ${r.voices === 0 ? '—' : r.chromiumOverNode.toFixed(2) + '×'} | ${r.active}`);
+      console.log(`${r.voices} | ${(r.chromiumRealTime * 100).toFixed(1)} % | ${(r.chromiumProcessorTime * 100).toFixed(1)} % | ${(r.nodeRealTime * 100).toFixed(1)} % | ${r.voices === 0 ? '—' : r.chromiumOverNode.toFixed(2) + '×'} | ${r.active}`);
     }
   }
   if (!options.json) {
     const pc = (v: number[]) => v.map((x) => `${(100 * x).toFixed(1)} %`).join(', ');
     console.log(
       `${MOVING_VOICES} voices on ${MOVING_VOICES / 2} moving sources, propagation on (default tuning), time scale gliding, ${SECONDS} s timed after ${MOVING_WARM_SECONDS} s, runs in order (goal ≤ 50 % of one core):` +
-        ` Chromium worklet ${pc(moving.chromiumRealTime)} (wall time of the rendering between snapshot suspensions) | Node ${pc(moving.nodeRealTime)} wall, ${pc(moving.nodeProcessorTime)} processor time | active ${moving.active}`,
+        ` Chromium worklet ${pc(moving.chromiumRealTime)} wall time of the rendering between snapshot suspensions, ${pc(moving.chromiumProcessorTime)} processor time of its worklet thread | Node ${pc(moving.nodeRealTime)} wall, ${pc(moving.nodeProcessorTime)} processor time | active ${moving.active}`,
     );
   }
   return { seconds: SECONDS, rows, moving };

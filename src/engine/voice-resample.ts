@@ -20,8 +20,9 @@ export function resampleBlock(source: SourceRead, pitch: VoicePitch, bufs: reado
     stretch.readBlock(bufs, frames, targets);
   } else if (source.propagating) {
     source.reader.readRatios(bufs, 0, frames, ratios, 0);
-    // Before the arrival sample nothing has reached the listener yet.
-    for (let c = 0; c < bufs.length; c++) bufs[c].fill(0, 0, silentFrames);
+    // Before the arrival sample nothing has reached the listener yet (only in the arrival block: `fill` is a builtin
+    // call even for no frames, twice per voice and block otherwise).
+    if (silentFrames > 0) for (let c = 0; c < bufs.length; c++) bufs[c].fill(0, 0, silentFrames);
   } else {
     const reader = source.reader;
     reader.rampStart = pitch.blockStart;

@@ -23,11 +23,13 @@ export class VoiceTone {
   airEngaged = false;
   private target = 0.5;
   private memoHz = NaN;
-  private readonly sampleRate: Hz;
+  /** Smoothed cutoff (log2 Hz) the filter's coefficients were last designed for (NaN: none yet). */
+  private designed = NaN;
 
   /** An open, bypassed tone with cutoff smoothing `cutoffSeconds` (s) at `sampleRate` (Hz). */
   constructor(sampleRate: Hz, cutoffSeconds: Seconds) {
-    this.sampleRate = sampleRate;
+    this.filter.design[1] = TONE_Q;
+    this.filter.design[2] = sampleRate;
     this.cutoffLog2 = new OnePoleSmoother({ timeConstantSeconds: cutoffSeconds, sampleRate, initial: OPEN_LOG2 });
   }
 
@@ -86,15 +88,18 @@ export class VoiceTone {
     if (!wasWet) this.filter.reset();
     const sm = this.cutoffLog2;
     const design = this.filter.design;
-    design[1] = TONE_Q;
-    design[2] = this.sampleRate;
     sm.target = target;
     for (let off = 0; off < frames; off += TONE_SUB_BLOCK) {
       const n = frames - off < TONE_SUB_BLOCK ? frames - off : TONE_SUB_BLOCK;
       sm.step(n);
       if (Math.abs(sm.value - target) < 1e-4) sm.reset(target);
-      design[0] = Math.pow(2, sm.value);
-      this.filter.applyDesign();
+      // The same cutoff gives the same coefficients: design only when it moved (an arrived cutoff stays put).
+      const log2 = sm.value;
+      if (log2 !== this.designed) {
+        this.designed = log2;
+        design[0] = Math.pow(2, log2);
+        this.filter.applyDesign();
+      }
       this.filter.process(bufs, off, n);
     }
     if (changing) crossfade(bufs, dry, frames, nowWet);

@@ -1,7 +1,8 @@
 // The tone stage: bypassed (bit-exact) when open; engaged, the RBJ cookbook low-pass at Q = 1/√2, which is the
 // prewarped bilinear Butterworth: |H|² = 1 / (1 + (tan(πf/fs) / tan(πfc/fs))⁴) (docs/references.md §4).
 import { describe, expect, it } from 'vitest';
-import { VoiceTone } from '../../src/engine/voice-tone';
+import { VoiceTone, TONE_Q, TONE_SUB_BLOCK } from '../../src/engine/voice-tone';
+import { BiquadLowpass } from '../../src/dsp';
 import { OPEN_CUTOFF_HZ } from '../../src/tuning';
 
 const SR = 48000;
@@ -58,5 +59,39 @@ describe('VoiceTone', () => {
     expect(tone.wet).toBe(false);
     expect(x[0][N - 1]).toBeCloseTo(1, 6); // the last sample is all dry
     expect(tone.currentCutoff).toBe(OPEN_CUTOFF_HZ);
+  });
+
+  it('gives the samples of a low-pass redesigned every sub-block, also while the cutoff rests (the design is reused)', () => {
+    // Reference: the cutoff smoothed per sub-block by the setTargetAtTime formula v = T + (v − T)·e^(−n/(τ·fs)) (Web
+    // Audio API, docs/references.md §5), snapped to T within 1e-4 (log2 Hz), and the cookbook low-pass (§4a) designed
+    // afresh for 2^v every sub-block.
+    const tau = 0.002;
+    const tone = new VoiceTone(SR, tau);
+    const ref = new BiquadLowpass({ channels: 2 });
+    const targets = [2000, 500, 500, 500, 500, 500, 500, 500, 3000, 3000];
+    let v = 0;
+    const x = [new Float32Array(N), new Float32Array(N)];
+    for (let b = 0; b < targets.length; b++) {
+      const t = Math.log2(targets[b]);
+      tone.aim(targets[b]);
+      if (b === 0) {
+        tone.jump();
+        v = t;
+      }
+      for (let i = 0; i < N; i++) {
+        x[0][i] = Math.sin((2 * Math.PI * 700 * (b * N + i)) / SR);
+        x[1][i] = Math.sin((2 * Math.PI * 5100 * (b * N + i)) / SR);
+      }
+      const want = [Float32Array.from(x[0]), Float32Array.from(x[1])];
+      for (let off = 0; off < N; off += TONE_SUB_BLOCK) {
+        v = t + (v - t) * Math.exp(-TONE_SUB_BLOCK / (tau * SR));
+        if (Math.abs(v - t) < 1e-4) v = t;
+        ref.setLowpass(Math.pow(2, v), TONE_Q, SR);
+        ref.process(want, off, TONE_SUB_BLOCK);
+      }
+      tone.process(x, [new Float32Array(N), new Float32Array(N)], N);
+      expect(x[0]).toEqual(want[0]);
+      expect(x[1]).toEqual(want[1]);
+    }
   });
 });
