@@ -92,14 +92,50 @@ export function buildStride(params: usize): void {
   return f32x4.add(t, v128.shuffle<f32>(t, t, 1, 0, 3, 2));
 }
 
-// Parameter block of `render` at `params` (bytes), written by the JavaScript side (src/dsp/wasm/kernel-params.ts):
-// 0 i32 table · 4 i32 x0 · 8 i32 x1 · 12 i32 spanBase · 16 i32 out0 · 20 i32 out1 · 24 i32 iStart · 28 i32 iEnd ·
-// 32 i32 ratios · 36 i32 last stride (out) · 40 f64 pos (in: start, out: end) · 48 f64 frames · 56 f64 rs · 64 f64 dr ·
-// 72 f64 loopEnd.
+// Parameter block of `render` and `sanitize` at `params` (bytes), written by the JavaScript side
+// (src/dsp/wasm/kernel-params.ts): 0 i32 table · 4 i32 x0 · 8 i32 x1 · 12 i32 spanBase · 16 i32 out0 · 20 i32 out1 ·
+// 24 i32 iStart · 28 i32 iEnd · 32 i32 ratios · 36 i32 last stride (out) · 40 f64 pos (in: start, out: end) ·
+// 48 f64 frames · 56 f64 rs · 64 f64 dr · 72 f64 loopEnd · 80 i32 raw ratios · 84 i32 count · 88 f64 last ratio
+// (in and out) · 96 f64 smallest and 104 f64 largest sanitised ratio of the run (out).
+
+/** Bounds of a playback ratio (src/dsp/quality-tiers.ts MIN_RATIO, MAX_RATIO). */
+const MIN_RATIO: f64 = 1.0 / 65536.0;
+const MAX_RATIO: f64 = 4.0;
 
 /**
- * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i − iStart], f64, when `ratios` ≠ 0),
- * position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose float 0 is source frame
+ * Sanitises `count` raw ratios (f32 at `raw`) into the f64 ratios `render` reads (at `ratios`), as ReadCursor.sanitize
+ * does one by one: a ratio in MIN_RATIO…MAX_RATIO is kept, a finite one outside becomes the nearest bound, a
+ * non-finite one the last ratio kept; each of the latter two counts as a clamp. Reads and writes the last ratio
+ * (offset 88), writes the run's smallest and largest ratio (96, 104); returns the clamps.
+ */
+export function sanitize(params: usize): i32 {
+  const raw = <usize>load<i32>(params, 80);
+  const count = load<i32>(params, 84);
+  const ratios = <usize>load<i32>(params, 32);
+  let last = load<f64>(params, 88);
+  let lo = MAX_RATIO;
+  let hi = MIN_RATIO;
+  let clamps = 0;
+  for (let q = 0; q < count; q++) {
+    const r = <f64>load<f32>(raw + (<usize>q << 2));
+    if (r >= MIN_RATIO && r <= MAX_RATIO) last = r;
+    else {
+      clamps++;
+      if (r - r == 0) last = r > MAX_RATIO ? MAX_RATIO : MIN_RATIO; // finite (NaN and ±Infinity keep the last)
+    }
+    store<f64>(ratios + (<usize>q << 3), last);
+    lo = last < lo ? last : lo;
+    hi = last > hi ? last : hi;
+  }
+  store<f64>(params, last, 88);
+  store<f64>(params, lo, 96);
+  store<f64>(params, hi, 104);
+  return clamps;
+}
+
+/**
+ * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i − iStart], f64, when `ratios` ≠ 0:
+ * written by `sanitize`, with the extremes of their run at offsets 96 and 104), position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose float 0 is source frame
  * `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance reaches `loopEnd`.
  * Returns the samples written; the position after them replaces `pos` and the last stride goes to its slot (offset 36).
  */
@@ -132,18 +168,13 @@ export function render(params: usize): i32 {
   let fixed = false;
   if (iEnd > iStart) {
     // The stride is monotone in r: equal strides at the smallest and the largest ratio of the run hold throughout
-    // (a linear ramp's extremes are its ends; per-sample ratios are scanned once).
+    // (a linear ramp's extremes are its ends; per-sample ratios were scanned by `sanitize`).
     let rLo = dr == 0 ? rs : rs + (dr * <f64>iStart) / frames;
     let rHi = dr == 0 ? rs : rs + (dr * <f64>(iEnd - 1)) / frames;
     if (ratios != 0) {
-      rLo = load<f64>(ratios);
-      rHi = rLo;
-      const rEnd = ratios + (<usize>(iEnd - iStart) << 3);
-      for (let q = ratios + 8; q < rEnd; q += 8) {
-        const r = load<f64>(q);
-        rLo = r < rLo ? r : rLo;
-        rHi = r > rHi ? r : rHi;
-      }
+      // The extremes of the whole run `sanitize` wrote: those of a later part of it (after a loop wrap) lie inside.
+      rLo = load<f64>(params, 96);
+      rHi = load<f64>(params, 104);
     }
     const s0 = strideOf(rLo, spr, phases, grid);
     if (s0 == strideOf(rHi, spr, phases, grid)) {

@@ -99,6 +99,42 @@ describe('WebAssembly SIMD kernel', () => {
     expect(wa.clampCount).toBe(3);
   });
 
+  it('sanitises per-sample ratios as the reference does, bit for bit, wherever the ratios lie', () => {
+    // Float32 edge values: NaN, ±Infinity, −0, 0, the smallest subnormal, MIN_RATIO (2^−16) and the float below it,
+    // MAX_RATIO (4) and the float above it, huge and negative ratios; the rest a glide with loop wraps.
+    const hostile = [NaN, 0.7, -0, 0, 2 ** -149, 2 ** -16, 2 ** -16 * (1 - 2 ** -24), Infinity, 4, 4 * (1 + 2 ** -22), -Infinity, NaN, 1e30, -3, 1.3];
+    const n = 1500;
+    const glide = Float32Array.from({ length: n }, (_, i) => (i % 37 < hostile.length ? hostile[i % 37] : 0.3 + 2.5 * Math.abs(Math.sin(i * 0.013))));
+    const x = [material(12000, 13), material(12000, 14)];
+    const k = WasmKernel.shared() as WasmKernel;
+    const [ts, wa] = pair('standard', 2);
+    // In module memory (read in place), placed after the readers' table so that no growth detaches the view.
+    const at = k.allocFloats(n + 8);
+    const inModule = new Float32Array(k.f32.buffer, at + 32, n);
+    inModule.set(glide);
+    const block = new Float32Array(128);
+    const outs = [x.map(() => new Float32Array(700)), x.map(() => new Float32Array(700))];
+    for (const rd of [ts, wa]) rd.setSource(x, { loop: true, loopStart: 1000, loopEnd: 9000, startFrame: 2.5 });
+    const rand = seededRandom(9);
+    for (let o = 0, b = 0; o < n; b++) {
+      const m = Math.min(n - o, b % 3 === 0 ? 128 : 1 + Math.floor(rand() * 699));
+      for (const [j, rd] of [ts, wa].entries()) {
+        if (b % 3 === 0) {
+          // A JavaScript array that fits the module's scratch (copied whole), after a ramp whose NaN keeps the last ratio.
+          rd.read(outs[j], 0, 16, NaN, 0.9);
+          block.set(glide.subarray(o, o + m));
+          rd.readRatios(outs[j], 0, m, block, 0);
+        } else rd.readRatios(outs[j], 0, m, b % 3 === 1 ? glide : inModule, o);
+      }
+      expect(wa.position).toBe(ts.position);
+      expect(wa.clampCount).toBe(ts.clampCount);
+      for (let c = 0; c < 2; c++) expect(maxDiff(outs[0][c].subarray(0, m), outs[1][c].subarray(0, m))).toBeLessThanOrEqual(TOLERANCE);
+      o += m;
+    }
+    expect(ts.clampCount).toBeGreaterThan(400);
+    k.release(at, 4 * (n + 8));
+  });
+
   // Engine-like scenes: 128-frame blocks with per-block ramps, loops (one shorter than the kernel window), one-shot ends.
   const scenes: { name: string; channels: number; loop?: { start: number; end: number }; start: number; length: number }[] = [
     { name: 'mono one-shot past its end', channels: 1, start: 0.5, length: 9000 },
