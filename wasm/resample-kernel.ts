@@ -116,17 +116,47 @@ export function sanitize(params: usize): i32 {
   let lo = MAX_RATIO;
   let hi = MIN_RATIO;
   let clamps = 0;
-  for (let q = 0; q < count; q++) {
-    const r = <f64>load<f32>(raw + (<usize>q << 2));
-    if (r >= MIN_RATIO && r <= MAX_RATIO) last = r;
-    else {
-      clamps++;
-      if (r - r == 0) last = r > MAX_RATIO ? MAX_RATIO : MIN_RATIO; // finite (NaN and ±Infinity keep the last)
+  // Four at a time while all four lie in range (float32 compares against the bounds, which are float32 values, agree
+  // with float64 ones; widening is exact): kept as they are, their extremes tracked in float32 lanes.
+  const vMin = f32x4.splat(<f32>MIN_RATIO);
+  const vMax = f32x4.splat(<f32>MAX_RATIO);
+  let vLo = vMax;
+  let vHi = vMin;
+  let q = 0;
+  while (q < count) {
+    if (q + 4 <= count) {
+      const v = v128.load(raw + (<usize>q << 2));
+      if (i32x4.all_true(v128.and(f32x4.ge(v, vMin), f32x4.le(v, vMax)))) {
+        const d = ratios + (<usize>q << 3);
+        v128.store(d, f64x2.promote_low_f32x4(v));
+        v128.store(d, f64x2.promote_low_f32x4(v128.shuffle<f32>(v, v, 2, 3, 2, 3)), 16);
+        vLo = f32x4.min(vLo, v);
+        vHi = f32x4.max(vHi, v);
+        last = <f64>f32x4.extract_lane(v, 3);
+        q += 4;
+        continue;
+      }
     }
-    store<f64>(ratios + (<usize>q << 3), last);
-    lo = last < lo ? last : lo;
-    hi = last > hi ? last : hi;
+    // One by one (a clamp among the next four, or the last three ratios).
+    const end = q + 4 < count ? q + 4 : count;
+    for (; q < end; q++) {
+      const r = <f64>load<f32>(raw + (<usize>q << 2));
+      if (r >= MIN_RATIO && r <= MAX_RATIO) last = r;
+      else {
+        clamps++;
+        if (r - r == 0) last = r > MAX_RATIO ? MAX_RATIO : MIN_RATIO; // finite (NaN and ±Infinity keep the last)
+      }
+      store<f64>(ratios + (<usize>q << 3), last);
+      lo = last < lo ? last : lo;
+      hi = last > hi ? last : hi;
+    }
   }
+  const l4 = f32x4.min(vLo, v128.shuffle<f32>(vLo, vLo, 2, 3, 0, 1));
+  const h4 = f32x4.max(vHi, v128.shuffle<f32>(vHi, vHi, 2, 3, 0, 1));
+  const vl = <f64>f32x4.extract_lane(f32x4.min(l4, v128.shuffle<f32>(l4, l4, 1, 0, 3, 2)), 0);
+  const vh = <f64>f32x4.extract_lane(f32x4.max(h4, v128.shuffle<f32>(h4, h4, 1, 0, 3, 2)), 0);
+  lo = vl < lo ? vl : lo;
+  hi = vh > hi ? vh : hi;
   store<f64>(params, last, 88);
   store<f64>(params, lo, 96);
   store<f64>(params, hi, 104);

@@ -39,12 +39,21 @@ export class WasmReadPath {
   private residentEpoch = -1;
   /** Infinity as a field: a double merged with the global `Infinity` in a branch is boxed by V8 (docs/allocation.md). */
   private readonly noLoopEnd = Infinity;
+  /**
+   * Per slot (output channels, then the ratios): the array last seen there and its byte offset in module memory (−1:
+   * not a view of it), valid while the kernel's f32 view is `seenMemory` (reading `.buffer` calls into the runtime).
+   */
+  private readonly seen: (Float32Array | null)[];
+  private readonly seenAt: Int32Array;
+  private seenMemory: Float32Array | null = null;
 
   /** Reads `cursor` (its source, loop and position); room for its channels' resident source offsets. */
   constructor(kernel: WasmKernel, cursor: ReadCursor) {
     this.kernel = kernel;
     this.cur = cursor;
     this.resident = new Int32Array(cursor.sources.length);
+    this.seen = new Array<Float32Array | null>(cursor.sources.length + 1).fill(null);
+    this.seenAt = new Int32Array(cursor.sources.length + 1);
   }
 
   /** Places `table` in module memory (once per table) for later renders. */
@@ -98,8 +107,8 @@ export class WasmReadPath {
     // the scratch (a block copy; an element loop costs about 1.5 ns per ratio), else −1: copied run by run below.
     let rawAt = -1;
     if (ratios !== null) {
-      if (ratios.buffer === k.f32.buffer) rawAt = ratios.byteOffset;
-      else if (ratios.length <= RUN_FRAMES) {
+      rawAt = this.placed(ratios, this.seen.length - 1);
+      if (rawAt < 0 && ratios.length <= RUN_FRAMES) {
         k.f32.set(ratios, k.rawRatios >> 2);
         rawAt = k.rawRatios;
       }
@@ -132,7 +141,6 @@ export class WasmReadPath {
         const upper = Math.floor(cur.pos + (runEnd - i) * rmax + 1) + halfW + 10;
         const dp = ratios === null ? 0 : k.ratios + 8 * (i - run);
         const inside = lower >= (cur.loop && cur.wrapped ? cur.loopStart : 0) && upper <= (cur.loop ? cur.loopEnd : cur.length);
-        const mem = k.f32.buffer;
         let done = 0;
         for (let c = 0; c < chans; c += 2) {
           const pair = c + 1 < chans;
@@ -151,10 +159,10 @@ export class WasmReadPath {
           }
           const y0 = out[c];
           const y1 = pair ? out[c + 1] : y0;
-          const direct0 = y0.buffer === mem;
-          const direct1 = y1.buffer === mem;
-          const o0 = direct0 ? y0.byteOffset + 4 * (o + i) : k.out0;
-          const o1 = direct1 ? y1.byteOffset + 4 * (o + i) : k.out1;
+          const at0 = this.placed(y0, c);
+          const at1 = pair ? this.placed(y1, c + 1) : at0;
+          const o0 = at0 >= 0 ? at0 + 4 * (o + i) : k.out0;
+          const o1 = at1 >= 0 ? at1 + 4 * (o + i) : k.out1;
           const i32 = k.i32;
           i32[(pb + RP_X0) >> 2] = x0;
           i32[(pb + RP_X1) >> 2] = x1;
@@ -167,8 +175,8 @@ export class WasmReadPath {
           // Every channel pair starts from the same position (the kernel overwrites it with the end position).
           k.f64[(pb + RP_POS) >> 3] = cur.pos;
           done = k.exports.render(pb);
-          if (!direct0) y0.set(k.outViews0[done], o + i);
-          if (pair && !direct1) y1.set(k.outViews1[done], o + i);
+          if (at0 < 0) y0.set(k.outViews0[done], o + i);
+          if (pair && at1 < 0) y1.set(k.outViews1[done], o + i);
         }
         cur.moveTo(k.f64[(pb + RP_POS) >> 3]);
         cur.lastStretch = t.phases / k.i32[(pb + RP_STRIDE) >> 2];
@@ -182,6 +190,21 @@ export class WasmReadPath {
       }
       run = runEnd;
     }
+  }
+
+  /** Byte offset of `x` in module memory, or −1 when it is not a view of it, remembered for `slot`. */
+  private placed(x: Float32Array, slot: number): number {
+    const f32 = this.kernel.f32;
+    if (f32 !== this.seenMemory) {
+      // Memory grew (views of the old memory are detached): ask again.
+      this.seen.fill(null);
+      this.seenMemory = f32;
+    }
+    if (x !== this.seen[slot]) {
+      this.seen[slot] = x;
+      this.seenAt[slot] = x.buffer === f32.buffer ? x.byteOffset : -1;
+    }
+    return this.seenAt[slot];
   }
 }
 

@@ -135,6 +135,35 @@ describe('WebAssembly SIMD kernel', () => {
     k.release(at, 4 * (n + 8));
   });
 
+  it('writes the same samples into views of module memory as into arrays, also after the memory grew', () => {
+    const k = WasmKernel.shared() as WasmKernel;
+    const x = [material(30000, 15), material(30000, 16)];
+    const glide = Float32Array.from({ length: 128 }, (_, i) => 0.5 + 0.3 * Math.sin(i * 0.05));
+    const [, plain] = pair('standard', 2);
+    const [, placed] = pair('standard', 2);
+    for (const rd of [plain, placed]) rd.setSource(x, { startFrame: 1.5 });
+    const want = [new Float32Array(128), new Float32Array(128)];
+    const spare: number[] = [];
+    const first = k.f32;
+    for (let b = 0; b < 12; b++) {
+      // Twice the memory grows first (a request of half its size: the old views detach); outputs alternate between
+      // memory and arrays.
+      if (b === 4 || b === 9) {
+        const n = k.f32.length >> 1;
+        spare.push(k.allocFloats(n), n);
+      }
+      const at = k.allocFloats(256);
+      const got = b % 2 === 0 ? [new Float32Array(k.f32.buffer, at, 128), new Float32Array(k.f32.buffer, at + 512, 128)] : [new Float32Array(128), new Float32Array(128)];
+      plain.readRatios(want, 0, 128, glide, 0);
+      placed.readRatios(got, 0, 128, glide, 0);
+      expect(got[0]).toEqual(want[0]);
+      expect(got[1]).toEqual(want[1]);
+      k.release(at, 1024);
+    }
+    expect(k.f32 === first).toBe(false);
+    for (let j = 0; j < spare.length; j += 2) k.release(spare[j], 4 * spare[j + 1]);
+  });
+
   // Engine-like scenes: 128-frame blocks with per-block ramps, loops (one shorter than the kernel window), one-shot ends.
   const scenes: { name: string; channels: number; loop?: { start: number; end: number }; start: number; length: number }[] = [
     { name: 'mono one-shot past its end', channels: 1, start: 0.5, length: 9000 },
