@@ -215,6 +215,7 @@ export function render(params: usize): i32 {
       fixed = true;
     }
   }
+  if (fixed && x1 != 0 && ratios != 0) return stereoRun(params, x0 + (<usize>(-spanBase) << 2), x1 - x0, out0, out1, iEnd - iStart, ratios, p, loopEnd, st, scale, dbase);
   let i = iStart;
   while (i < iEnd) {
     const r = ratios != 0 ? load<f64>(ratios + (<usize>(i - iStart) << 3)) : dr == 0 ? rs : rs + (dr * <f64>i) / frames;
@@ -288,6 +289,57 @@ export function render(params: usize): i32 {
   store<f64>(params, p, 40);
   store<i32>(params, st, 36);
   return i - iStart;
+}
+
+/**
+ * `render`'s loop for two channels at one stride `st` (descriptors at `dbase`, output scale `scale`) over `count`
+ * per-sample ratios at `ratios`: the same arithmetic with fewer live values (and so fewer spills). `xs` is the address
+ * of source frame 0 of the first channel, `dx` the distance in bytes to the second.
+ */
+function stereoRun(params: usize, xs: usize, dx: usize, out0: usize, out1: usize, count: i32, ratios: usize, pos: f64, loopEnd: f64, st: i32, scale: f64, dbase: usize): i32 {
+  const fst = <f64>st;
+  const vscale = f64x2.splat(scale);
+  let p = pos;
+  let k = 0;
+  while (k < count) {
+    const r = load<f64>(ratios + (<usize>k << 3));
+    const nf = Math.floor(p);
+    const c = (p - nf) * fst;
+    const ci = <i32>c;
+    const fv = f32x4.splat(<f32>(c - <f64>ci));
+    const d = dbase + (<usize>ci << 5);
+    let row = <usize>load<i32>(d);
+    const end = row + (<usize>load<i32>(d, 12) << 2);
+    // Byte distances from the row to the difference row and to the two source windows, which advance with it.
+    const toDiff = <usize>load<i32>(d, 16) - row;
+    const toX = xs + (<usize>(<i32>nf - load<i32>(d, 8)) << 2) - row;
+    const toY = toX + dx;
+    let a0 = f32x4.splat(0);
+    let b0 = f32x4.splat(0);
+    let a1 = f32x4.splat(0);
+    let b1 = f32x4.splat(0);
+    do {
+      const h0 = f32x4.add(v128.load(row), f32x4.mul(fv, v128.load(row + toDiff)));
+      const h1 = f32x4.add(v128.load(row, 16), f32x4.mul(fv, v128.load(row + toDiff, 16)));
+      a0 = f32x4.add(a0, f32x4.mul(h0, v128.load(row + toX)));
+      b0 = f32x4.add(b0, f32x4.mul(h0, v128.load(row + toY)));
+      a1 = f32x4.add(a1, f32x4.mul(h1, v128.load(row + toX, 16)));
+      b1 = f32x4.add(b1, f32x4.mul(h1, v128.load(row + toY, 16)));
+      row += 32;
+    } while (row < end);
+    // Lanes 0 and 1: the sums of both channels, scaled in float64 and rounded to float32 as one pair.
+    const u = pairSums(f32x4.add(a0, a1), f32x4.add(b0, b1));
+    const y = f32x4.demote_f64x2_zero(f64x2.mul(vscale, f64x2.promote_low_f32x4(v128.shuffle<f32>(u, u, 0, 2, 0, 2))));
+    const o = <usize>k << 2;
+    v128.store32_lane(out0 + o, y, 0);
+    v128.store32_lane(out1 + o, y, 1);
+    p += r;
+    k++;
+    if (p >= loopEnd) break;
+  }
+  store<f64>(params, p, 40);
+  store<i32>(params, st, 36);
+  return k;
 }
 
 // Parameter block of `mix` at `params` (bytes): 0 i32 x0 · 4 i32 x1 · 8 i32 mixL · 12 i32 mixR · 16 i32 frames ·
