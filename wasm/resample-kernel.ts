@@ -130,8 +130,8 @@ export function sanitize(params: usize): i32 {
         const d = ratios + (<usize>q << 3);
         v128.store(d, f64x2.promote_low_f32x4(v));
         v128.store(d, f64x2.promote_low_f32x4(v128.shuffle<f32>(v, v, 2, 3, 2, 3)), 16);
-        vLo = f32x4.min(vLo, v);
-        vHi = f32x4.max(vHi, v);
+        vLo = f32x4.pmin(vLo, v);
+        vHi = f32x4.pmax(vHi, v);
         last = <f64>f32x4.extract_lane(v, 3);
         q += 4;
         continue;
