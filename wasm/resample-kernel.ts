@@ -92,11 +92,11 @@ export function buildStride(params: usize): void {
   return f32x4.add(t, v128.shuffle<f32>(t, t, 1, 0, 3, 2));
 }
 
-// Parameter block of `render` and `sanitize` at `params` (bytes), written by the JavaScript side
+// Parameter block of `render`, `sanitize` and `ramp` at `params` (bytes), written by the JavaScript side
 // (src/dsp/wasm/kernel-params.ts): 0 i32 table · 4 i32 x0 · 8 i32 x1 · 12 i32 spanBase · 16 i32 out0 · 20 i32 out1 ·
-// 24 i32 iStart · 28 i32 iEnd · 32 i32 ratios · 36 i32 last stride (out) · 40 f64 pos (in: start, out: end) ·
-// 48 f64 frames · 56 f64 rs · 64 f64 dr · 72 f64 loopEnd · 80 i32 raw ratios · 84 i32 count · 88 f64 last ratio
-// (in and out) · 96 f64 smallest and 104 f64 largest sanitised ratio of the run (out).
+// 24 i32 iStart · 28 i32 iEnd · 32 i32 ratios (f64) · 36 i32 last stride (out) · 40 f64 pos (in: start, out: end) ·
+// 48 f64 frames · 56 f64 rs · 64 f64 dr · 72 f64 loopEnd · 80 i32 raw ratios (f32) · 84 i32 count · 88 f64 last
+// ratio (in and out) · 96 f64 smallest and 104 f64 largest ratio of the run (written by `sanitize` or `ramp`).
 
 /** Bounds of a playback ratio (src/dsp/quality-tiers.ts MIN_RATIO, MAX_RATIO). */
 const MIN_RATIO: f64 = 1.0 / 65536.0;
@@ -164,10 +164,31 @@ export function sanitize(params: usize): i32 {
 }
 
 /**
- * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i − iStart], f64, when `ratios` ≠ 0:
- * written by `sanitize`, with the extremes of their run at offsets 96 and 104), position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose float 0 is source frame
- * `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance reaches `loopEnd`.
- * Returns the samples written; the position after them replaces `pos` and the last stride goes to its slot (offset 36).
+ * Writes the ratios of a linear ramp, rs + dr·i/frames for samples iStart…iEnd−1 (the values `render` computes when
+ * `ratios` is 0), to `ratios` as `sanitize` would, with their extremes at offsets 96 and 104: a ramp then takes the
+ * per-sample path, and the stereo loop at one stride.
+ */
+export function ramp(params: usize): void {
+  const iStart = load<i32>(params, 24);
+  const iEnd = load<i32>(params, 28);
+  const ratios = <usize>load<i32>(params, 32);
+  const frames = load<f64>(params, 48);
+  const rs = load<f64>(params, 56);
+  const dr = load<f64>(params, 64);
+  for (let i = iStart; i < iEnd; i++) store<f64>(ratios + (<usize>(i - iStart) << 3), dr == 0 ? rs : rs + (dr * <f64>i) / frames);
+  // A ramp is monotone: its extremes are its ends.
+  const a = load<f64>(ratios);
+  const b = load<f64>(ratios + (<usize>(iEnd - 1 - iStart) << 3));
+  store<f64>(params, a < b ? a : b, 96);
+  store<f64>(params, a > b ? a : b, 104);
+}
+
+/**
+ * Output samples iStart…iEnd−1 at ratios[i − iStart] (f64, written by `sanitize` or `ramp`, with the extremes of their
+ * run at offsets 96 and 104), the position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose
+ * float 0 is source frame `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance
+ * reaches `loopEnd`. Returns the samples written; the position after them replaces `pos` and the last stride goes to
+ * its slot (offset 36).
  */
 export function render(params: usize): i32 {
   const table = <usize>load<i32>(params, 0);
@@ -180,9 +201,6 @@ export function render(params: usize): i32 {
   const iEnd = load<i32>(params, 28);
   const ratios = <usize>load<i32>(params, 32);
   const pos = load<f64>(params, 40);
-  const frames = load<f64>(params, 48);
-  const rs = load<f64>(params, 56);
-  const dr = load<f64>(params, 64);
   const loopEnd = load<f64>(params, 72);
   const phases = load<i32>(table, 0);
   const spr = load<f64>(table, 8);
@@ -195,30 +213,20 @@ export function render(params: usize): i32 {
   let dbase: usize = 0; // descriptors of stride st
   let lastR: f64 = -1; // the stride depends on r only: reuse it while r repeats
   let dst = -1; // the stride that scale and dbase belong to
-  let fixed = false;
-  if (iEnd > iStart) {
-    // The stride is monotone in r: equal strides at the smallest and the largest ratio of the run hold throughout
-    // (a linear ramp's extremes are its ends; per-sample ratios were scanned by `sanitize`).
-    let rLo = dr == 0 ? rs : rs + (dr * <f64>iStart) / frames;
-    let rHi = dr == 0 ? rs : rs + (dr * <f64>(iEnd - 1)) / frames;
-    if (ratios != 0) {
-      // The extremes of the whole run `sanitize` wrote: those of a later part of it (after a loop wrap) lie inside.
-      rLo = load<f64>(params, 96);
-      rHi = load<f64>(params, 104);
-    }
-    const s0 = strideOf(rLo, spr, phases, grid);
-    if (s0 == strideOf(rHi, spr, phases, grid)) {
-      st = s0;
-      dst = st;
-      scale = <f64>st / fp;
-      dbase = <usize>load<i32>(descs + (<usize>st << 2));
-      fixed = true;
-    }
+  // The stride is monotone in r: equal strides at the smallest and the largest ratio of the run hold throughout (and
+  // so for a later part of it, after a loop wrap).
+  const s0 = strideOf(load<f64>(params, 96), spr, phases, grid);
+  const fixed = s0 == strideOf(load<f64>(params, 104), spr, phases, grid);
+  if (fixed) {
+    st = s0;
+    dst = st;
+    scale = <f64>st / fp;
+    dbase = <usize>load<i32>(descs + (<usize>st << 2));
+    if (x1 != 0) return stereoRun(params, x0 + (<usize>(-spanBase) << 2), x1 - x0, out0, out1, iEnd - iStart, ratios, p, loopEnd, st, scale, dbase);
   }
-  if (fixed && x1 != 0 && ratios != 0) return stereoRun(params, x0 + (<usize>(-spanBase) << 2), x1 - x0, out0, out1, iEnd - iStart, ratios, p, loopEnd, st, scale, dbase);
   let i = iStart;
   while (i < iEnd) {
-    const r = ratios != 0 ? load<f64>(ratios + (<usize>(i - iStart) << 3)) : dr == 0 ? rs : rs + (dr * <f64>i) / frames;
+    const r = load<f64>(ratios + (<usize>(i - iStart) << 3));
     if (!fixed && r != lastR) {
       lastR = r;
       st = strideOf(r, spr, phases, grid);
@@ -291,6 +299,14 @@ export function render(params: usize): i32 {
   return i - iStart;
 }
 
+/** 1.5 · 2^52: added to an integer-valued float64 below 2^51 in magnitude, leaves it in the low mantissa bits. */
+const INT_MAGIC: f64 = 6755399441055744.0;
+
+/** `x` (integer-valued, |x| < 2^31) as i32, without the range checks of a truncating conversion. */
+@inline function intOf(x: f64): i32 {
+  return <i32>reinterpret<i64>(x + INT_MAGIC);
+}
+
 /**
  * `render`'s loop for two channels at one stride `st` (descriptors at `dbase`, output scale `scale`) over `count`
  * per-sample ratios at `ratios`: the same arithmetic with fewer live values (and so fewer spills). `xs` is the address
@@ -305,14 +321,14 @@ function stereoRun(params: usize, xs: usize, dx: usize, out0: usize, out1: usize
     const r = load<f64>(ratios + (<usize>k << 3));
     const nf = Math.floor(p);
     const c = (p - nf) * fst;
-    const ci = <i32>c;
-    const fv = f32x4.splat(<f32>(c - <f64>ci));
-    const d = dbase + (<usize>ci << 5);
+    const cf = Math.floor(c); // c ≥ 0: the truncation render's loop takes
+    const fv = f32x4.splat(<f32>(c - cf));
+    const d = dbase + (<usize>intOf(cf) << 5);
     let row = <usize>load<i32>(d);
     const end = row + (<usize>load<i32>(d, 12) << 2);
     // Byte distances from the row to the difference row and to the two source windows, which advance with it.
     const toDiff = <usize>load<i32>(d, 16) - row;
-    const toX = xs + (<usize>(<i32>nf - load<i32>(d, 8)) << 2) - row;
+    const toX = xs + (<usize>(intOf(nf) - load<i32>(d, 8)) << 2) - row;
     const toY = toX + dx;
     let a0 = f32x4.splat(0);
     let b0 = f32x4.splat(0);

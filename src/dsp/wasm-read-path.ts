@@ -19,7 +19,7 @@ export class ReadBlock {
   ratioStart = 1;
   /** Ratio change across the block when `ratios` is null (sample i reads ratioStart + ratioDelta·i/frames). */
   ratioDelta = 0;
-  /** One playback ratio per output sample (sanitised here), or null for the linear ramp. */
+  /** One playback ratio per output sample (sanitised by the module, as ReadCursor.sanitize does), or null for the linear ramp. */
   ratios: Float32Array | null = null;
   /** Index of sample 0's ratio in `ratios`. */
   ratiosOffset = 0;
@@ -68,8 +68,9 @@ export class WasmReadPath {
   }
 
   /**
-   * Carries out `block` (filled by the reader) on the cursor given at construction. The block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once; the
-   * kernel reads a source in place when it is resident (WasmKernel.upload) and the span the run can touch lies inside
+   * Carries out `block` (filled by the reader) on the cursor given at construction through the WebAssembly kernel: per
+   * run of ≤ RUN_FRAMES samples the module first writes the run's ratios (the per-sample ones sanitised, or the ramp's),
+   * with the run's cursor state (last ratio, clamps) carried over; the kernel reads a source in place when it is resident (WasmKernel.upload) and the span the run can touch lies inside
    * the readable region, else that span is copied (wrapped or silent as `mapIndex` says) into module memory; outputs
    * that are views of module memory are written in place. The kernel runs until the run ends or a loop wraps (the wrap
    * and the next span are handled here, as the reference does).
@@ -134,12 +135,19 @@ export class WasmReadPath {
         cur.clamps += k.exports.sanitize(pb);
         cur.lastRatio = f64[(pb + RP_LAST) >> 3];
         rmax = f64[(pb + RP_HI) >> 3];
+      } else {
+        // The ramp's ratios for the run, computed by the module as its loop would: the same per-sample path follows.
+        const i32 = k.i32;
+        i32[(pb + RP_I_START) >> 2] = run;
+        i32[(pb + RP_I_END) >> 2] = runEnd;
+        i32[(pb + RP_RATIOS) >> 2] = k.ratios;
+        k.exports.ramp(pb);
       }
       const halfW = halfWindowFor(halfDense, t.strideFor(rmax));
       for (let i = run; i < runEnd; ) {
         const lower = Math.floor(cur.pos) - halfW;
         const upper = Math.floor(cur.pos + (runEnd - i) * rmax + 1) + halfW + 10;
-        const dp = ratios === null ? 0 : k.ratios + 8 * (i - run);
+        const dp = k.ratios + 8 * (i - run);
         const inside = lower >= (cur.loop && cur.wrapped ? cur.loopStart : 0) && upper <= (cur.loop ? cur.loopEnd : cur.length);
         let done = 0;
         for (let c = 0; c < chans; c += 2) {

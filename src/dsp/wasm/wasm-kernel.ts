@@ -39,6 +39,8 @@ export interface KernelExports {
   render(params: number): number;
   /** Sanitises a run's raw ratios into the f64 ratios `render` reads (kernel-params.ts, RP_*); returns the clamps. */
   sanitize(params: number): number;
+  /** Writes a run's linear-ramp ratios where `sanitize` writes (kernel-params.ts, RP_*). */
+  ramp(params: number): void;
 }
 
 /** Something holding views of module memory: told once after each growth (not polled per render). */
