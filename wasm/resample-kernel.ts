@@ -9,6 +9,10 @@
 // Descriptor of (stride s, sub-phase ci), 32 bytes: row0 ptr · row1 ptr · a1n (taps left of the centre) · count8 ·
 // diff ptr (count8 floats row1 − row0, so that two-channel sources interpolate the taps once and share them).
 
+// The run's ratios (wasm/ratios.ts) and the voice mix (wasm/mix.ts) are exports of this module too.
+export { sanitize, ramp } from './ratios';
+export { mix } from './mix';
+
 /** First free byte after the module's own data (the JavaScript allocator starts here). */
 export function heapBase(): usize {
   return __heap_base;
@@ -97,91 +101,6 @@ export function buildStride(params: usize): void {
 // 24 i32 iStart · 28 i32 iEnd · 32 i32 ratios (f64) · 36 i32 last stride (out) · 40 f64 pos (in: start, out: end) ·
 // 48 f64 frames · 56 f64 rs · 64 f64 dr · 72 f64 loopEnd · 80 i32 raw ratios (f32) · 84 i32 count · 88 f64 last
 // ratio (in and out) · 96 f64 smallest and 104 f64 largest ratio of the run (written by `sanitize` or `ramp`).
-
-/** Bounds of a playback ratio (src/dsp/quality-tiers.ts MIN_RATIO, MAX_RATIO). */
-const MIN_RATIO: f64 = 1.0 / 65536.0;
-const MAX_RATIO: f64 = 4.0;
-
-/**
- * Sanitises `count` raw ratios (f32 at `raw`) into the f64 ratios `render` reads (at `ratios`), as ReadCursor.sanitize
- * does one by one: a ratio in MIN_RATIO…MAX_RATIO is kept, a finite one outside becomes the nearest bound, a
- * non-finite one the last ratio kept; each of the latter two counts as a clamp. Reads and writes the last ratio
- * (offset 88), writes the run's smallest and largest ratio (96, 104); returns the clamps.
- */
-export function sanitize(params: usize): i32 {
-  const raw = <usize>load<i32>(params, 80);
-  const count = load<i32>(params, 84);
-  const ratios = <usize>load<i32>(params, 32);
-  let last = load<f64>(params, 88);
-  let lo = MAX_RATIO;
-  let hi = MIN_RATIO;
-  let clamps = 0;
-  // Four at a time while all four lie in range (float32 compares against the bounds, which are float32 values, agree
-  // with float64 ones; widening is exact): kept as they are, their extremes tracked in float32 lanes.
-  const vMin = f32x4.splat(<f32>MIN_RATIO);
-  const vMax = f32x4.splat(<f32>MAX_RATIO);
-  let vLo = vMax;
-  let vHi = vMin;
-  let q = 0;
-  while (q < count) {
-    if (q + 4 <= count) {
-      const v = v128.load(raw + (<usize>q << 2));
-      if (i32x4.all_true(v128.and(f32x4.ge(v, vMin), f32x4.le(v, vMax)))) {
-        const d = ratios + (<usize>q << 3);
-        v128.store(d, f64x2.promote_low_f32x4(v));
-        v128.store(d, f64x2.promote_low_f32x4(v128.shuffle<f32>(v, v, 2, 3, 2, 3)), 16);
-        vLo = f32x4.pmin(vLo, v);
-        vHi = f32x4.pmax(vHi, v);
-        last = <f64>f32x4.extract_lane(v, 3);
-        q += 4;
-        continue;
-      }
-    }
-    // One by one (a clamp among the next four, or the last three ratios).
-    const end = q + 4 < count ? q + 4 : count;
-    for (; q < end; q++) {
-      const r = <f64>load<f32>(raw + (<usize>q << 2));
-      if (r >= MIN_RATIO && r <= MAX_RATIO) last = r;
-      else {
-        clamps++;
-        if (r - r == 0) last = r > MAX_RATIO ? MAX_RATIO : MIN_RATIO; // finite (NaN and ±Infinity keep the last)
-      }
-      store<f64>(ratios + (<usize>q << 3), last);
-      lo = last < lo ? last : lo;
-      hi = last > hi ? last : hi;
-    }
-  }
-  const l4 = f32x4.min(vLo, v128.shuffle<f32>(vLo, vLo, 2, 3, 0, 1));
-  const h4 = f32x4.max(vHi, v128.shuffle<f32>(vHi, vHi, 2, 3, 0, 1));
-  const vl = <f64>f32x4.extract_lane(f32x4.min(l4, v128.shuffle<f32>(l4, l4, 1, 0, 3, 2)), 0);
-  const vh = <f64>f32x4.extract_lane(f32x4.max(h4, v128.shuffle<f32>(h4, h4, 1, 0, 3, 2)), 0);
-  lo = vl < lo ? vl : lo;
-  hi = vh > hi ? vh : hi;
-  store<f64>(params, last, 88);
-  store<f64>(params, lo, 96);
-  store<f64>(params, hi, 104);
-  return clamps;
-}
-
-/**
- * Writes the ratios of a linear ramp, rs + dr·i/frames for samples iStart…iEnd−1 (the values `render` computes when
- * `ratios` is 0), to `ratios` as `sanitize` would, with their extremes at offsets 96 and 104: a ramp then takes the
- * per-sample path, and the stereo loop at one stride.
- */
-export function ramp(params: usize): void {
-  const iStart = load<i32>(params, 24);
-  const iEnd = load<i32>(params, 28);
-  const ratios = <usize>load<i32>(params, 32);
-  const frames = load<f64>(params, 48);
-  const rs = load<f64>(params, 56);
-  const dr = load<f64>(params, 64);
-  for (let i = iStart; i < iEnd; i++) store<f64>(ratios + (<usize>(i - iStart) << 3), dr == 0 ? rs : rs + (dr * <f64>i) / frames);
-  // A ramp is monotone: its extremes are its ends.
-  const a = load<f64>(ratios);
-  const b = load<f64>(ratios + (<usize>(iEnd - 1 - iStart) << 3));
-  store<f64>(params, a < b ? a : b, 96);
-  store<f64>(params, a > b ? a : b, 104);
-}
 
 /**
  * Output samples iStart…iEnd−1 at ratios[i − iStart] (f64, written by `sanitize` or `ramp`, with the extremes of their
@@ -356,66 +275,4 @@ function stereoRun(params: usize, xs: usize, dx: usize, out0: usize, out1: usize
   store<f64>(params, p, 40);
   store<i32>(params, st, 36);
   return k;
-}
-
-// Parameter block of `mix` at `params` (bytes): 0 i32 x0 · 4 i32 x1 · 8 i32 mixL · 12 i32 mixR · 16 i32 frames ·
-// 24 f64 gl0 · 32 f64 dgl · 40 f64 gr0 · 48 f64 dgr.
-
-/**
- * Gain-ramp mix of one voice: mixL[i] += x0[i]·(gl0 + dgl·(i + 1)), mixR[i] += x1[i]·(gr0 + dgr·(i + 1)), i < frames,
- * in f64 lanes (f64x2) rounded once to f32, the same operations as the TypeScript mix. Returns 1 when every input
- * sample is finite, 0 otherwise.
- */
-export function mix(params: usize): i32 {
-  const x0 = <usize>load<i32>(params, 0);
-  const x1 = <usize>load<i32>(params, 4);
-  const mixL = <usize>load<i32>(params, 8);
-  const mixR = <usize>load<i32>(params, 12);
-  const frames = load<i32>(params, 16);
-  const gl0 = load<f64>(params, 24);
-  const dgl = load<f64>(params, 32);
-  const gr0 = load<f64>(params, 40);
-  const dgr = load<f64>(params, 48);
-  let check = f64x2.splat(0);
-  let i = 0;
-  const quad = frames & ~3;
-  const two = f64x2.splat(2);
-  const gl0v = f64x2.splat(gl0);
-  const dglv = f64x2.splat(dgl);
-  const gr0v = f64x2.splat(gr0);
-  const dgrv = f64x2.splat(dgr);
-  let k = f64x2(1, 2); // i + 1 for lanes of the low pair
-  for (; i < quad; i += 4) {
-    const io = <usize>i << 2;
-    const k2 = f64x2.add(k, two);
-    const a = v128.load(x0 + io);
-    const b = v128.load(x1 + io);
-    const l = v128.load(mixL + io);
-    const r = v128.load(mixR + io);
-    const aLo = f64x2.promote_low_f32x4(a);
-    const aHi = f64x2.promote_low_f32x4(v128.shuffle<f32>(a, a, 2, 3, 2, 3));
-    const bLo = f64x2.promote_low_f32x4(b);
-    const bHi = f64x2.promote_low_f32x4(v128.shuffle<f32>(b, b, 2, 3, 2, 3));
-    const lLo = f64x2.add(f64x2.promote_low_f32x4(l), f64x2.mul(aLo, f64x2.add(gl0v, f64x2.mul(dglv, k))));
-    const lHi = f64x2.add(f64x2.promote_low_f32x4(v128.shuffle<f32>(l, l, 2, 3, 2, 3)), f64x2.mul(aHi, f64x2.add(gl0v, f64x2.mul(dglv, k2))));
-    const rLo = f64x2.add(f64x2.promote_low_f32x4(r), f64x2.mul(bLo, f64x2.add(gr0v, f64x2.mul(dgrv, k))));
-    const rHi = f64x2.add(f64x2.promote_low_f32x4(v128.shuffle<f32>(r, r, 2, 3, 2, 3)), f64x2.mul(bHi, f64x2.add(gr0v, f64x2.mul(dgrv, k2))));
-    const ld = f32x4.demote_f64x2_zero(lLo);
-    const rd = f32x4.demote_f64x2_zero(rLo);
-    v128.store(mixL + io, v128.shuffle<f32>(ld, f32x4.demote_f64x2_zero(lHi), 0, 1, 4, 5));
-    v128.store(mixR + io, v128.shuffle<f32>(rd, f32x4.demote_f64x2_zero(rHi), 0, 1, 4, 5));
-    check = f64x2.add(check, f64x2.add(f64x2.add(aLo, bLo), f64x2.add(aHi, bHi)));
-    k = f64x2.add(k2, two);
-  }
-  let c = f64x2.extract_lane(check, 0) + f64x2.extract_lane(check, 1);
-  for (; i < frames; i++) {
-    const io = <usize>i << 2;
-    const a = <f64>load<f32>(x0 + io);
-    const b = <f64>load<f32>(x1 + io);
-    const n = <f64>(i + 1);
-    store<f32>(mixL + io, <f32>(<f64>load<f32>(mixL + io) + a * (gl0 + dgl * n)));
-    store<f32>(mixR + io, <f32>(<f64>load<f32>(mixR + io) + b * (gr0 + dgr * n)));
-    c += a + b;
-  }
-  return c - c == 0 ? 1 : 0;
 }
