@@ -1,9 +1,10 @@
-// Compiles the AssemblyScript kernel (wasm/resample-kernel.ts) to WebAssembly with SIMD and writes its bytes as base64
-// into src/dsp/wasm/kernel-bytes.generated.ts (gitignored), so that bundles inline the module and need no fetch.
+// Compiles the AssemblyScript kernel (wasm/resample-kernel.ts and the files it imports) to WebAssembly with SIMD and
+// writes its bytes as base64 into src/dsp/wasm/kernel-bytes.generated.ts (gitignored), so that bundles inline the
+// module and need no fetch.
 // Run directly (`node scripts/build-wasm.mjs [--force]`) or import `buildWasm`; it skips the compile when up to date.
 import { createHash } from 'node:crypto';
 import { createRequire } from 'node:module';
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
@@ -22,7 +23,8 @@ function sourceHash() {
   const ascPackage = createRequire(import.meta.url).resolve('assemblyscript/package.json');
   const ascVersion = JSON.parse(readFileSync(ascPackage, 'utf8')).version;
   const h = createHash('sha256');
-  h.update(readFileSync(wasmSource));
+  // Every AssemblyScript file of the module (the kernel imports its neighbours in wasm/).
+  for (const f of readdirSync(dirname(wasmSource)).filter((n) => n.endsWith('.ts')).sort()) h.update(readFileSync(join(dirname(wasmSource), f)));
   h.update(ascFlags.join(' '));
   h.update(ascVersion);
   return { hash: h.digest('hex').slice(0, 16), ascVersion };

@@ -9,6 +9,10 @@
 // Descriptor of (stride s, sub-phase ci), 32 bytes: row0 ptr · row1 ptr · a1n (taps left of the centre) · count8 ·
 // diff ptr (count8 floats row1 − row0, so that two-channel sources interpolate the taps once and share them).
 
+// The run's ratios (wasm/ratios.ts) and the voice mix (wasm/mix.ts) are exports of this module too.
+export { sanitize, ramp } from './ratios';
+export { mix } from './mix';
+
 /** First free byte after the module's own data (the JavaScript allocator starts here). */
 export function heapBase(): usize {
   return __heap_base;
@@ -92,16 +96,18 @@ export function buildStride(params: usize): void {
   return f32x4.add(t, v128.shuffle<f32>(t, t, 1, 0, 3, 2));
 }
 
-// Parameter block of `render` at `params` (bytes), written by the JavaScript side (src/dsp/wasm/kernel-params.ts):
-// 0 i32 table · 4 i32 x0 · 8 i32 x1 · 12 i32 spanBase · 16 i32 out0 · 20 i32 out1 · 24 i32 iStart · 28 i32 iEnd ·
-// 32 i32 ratios · 36 i32 last stride (out) · 40 f64 pos (in: start, out: end) · 48 f64 frames · 56 f64 rs · 64 f64 dr ·
-// 72 f64 loopEnd.
+// Parameter block of `render`, `sanitize` and `ramp` at `params` (bytes), written by the JavaScript side
+// (src/dsp/wasm/kernel-params.ts): 0 i32 table · 4 i32 x0 · 8 i32 x1 · 12 i32 spanBase · 16 i32 out0 · 20 i32 out1 ·
+// 24 i32 iStart · 28 i32 iEnd · 32 i32 ratios (f64) · 36 i32 last stride (out) · 40 f64 pos (in: start, out: end) ·
+// 48 f64 frames · 56 f64 rs · 64 f64 dr · 72 f64 loopEnd · 80 i32 raw ratios (f32) · 84 i32 count · 88 f64 last
+// ratio (in and out) · 96 f64 smallest and 104 f64 largest ratio of the run (written by `sanitize` or `ramp`).
 
 /**
- * Output samples iStart…iEnd−1 of a block of `frames`: ratio rs + dr·i/frames (or ratios[i − iStart], f64, when `ratios` ≠ 0),
- * position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose float 0 is source frame
- * `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance reaches `loopEnd`.
- * Returns the samples written; the position after them replaces `pos` and the last stride goes to its slot (offset 36).
+ * Output samples iStart…iEnd−1 at ratios[i − iStart] (f64, written by `sanitize` or `ramp`, with the extremes of their
+ * run at offsets 96 and 104), the position advancing from `pos`; source windows come from x0 (and x1 when ≠ 0), whose
+ * float 0 is source frame `spanBase`; outputs go to out0[i − iStart] (and out1). Stops after the sample whose advance
+ * reaches `loopEnd`. Returns the samples written; the position after them replaces `pos` and the last stride goes to
+ * its slot (offset 36).
  */
 export function render(params: usize): i32 {
   const table = <usize>load<i32>(params, 0);
@@ -114,9 +120,6 @@ export function render(params: usize): i32 {
   const iEnd = load<i32>(params, 28);
   const ratios = <usize>load<i32>(params, 32);
   const pos = load<f64>(params, 40);
-  const frames = load<f64>(params, 48);
-  const rs = load<f64>(params, 56);
-  const dr = load<f64>(params, 64);
   const loopEnd = load<f64>(params, 72);
   const phases = load<i32>(table, 0);
   const spr = load<f64>(table, 8);
@@ -129,34 +132,20 @@ export function render(params: usize): i32 {
   let dbase: usize = 0; // descriptors of stride st
   let lastR: f64 = -1; // the stride depends on r only: reuse it while r repeats
   let dst = -1; // the stride that scale and dbase belong to
-  let fixed = false;
-  if (iEnd > iStart) {
-    // The stride is monotone in r: equal strides at the smallest and the largest ratio of the run hold throughout
-    // (a linear ramp's extremes are its ends; per-sample ratios are scanned once).
-    let rLo = dr == 0 ? rs : rs + (dr * <f64>iStart) / frames;
-    let rHi = dr == 0 ? rs : rs + (dr * <f64>(iEnd - 1)) / frames;
-    if (ratios != 0) {
-      rLo = load<f64>(ratios);
-      rHi = rLo;
-      const rEnd = ratios + (<usize>(iEnd - iStart) << 3);
-      for (let q = ratios + 8; q < rEnd; q += 8) {
-        const r = load<f64>(q);
-        rLo = r < rLo ? r : rLo;
-        rHi = r > rHi ? r : rHi;
-      }
-    }
-    const s0 = strideOf(rLo, spr, phases, grid);
-    if (s0 == strideOf(rHi, spr, phases, grid)) {
-      st = s0;
-      dst = st;
-      scale = <f64>st / fp;
-      dbase = <usize>load<i32>(descs + (<usize>st << 2));
-      fixed = true;
-    }
+  // The stride is monotone in r: equal strides at the smallest and the largest ratio of the run hold throughout (and
+  // so for a later part of it, after a loop wrap).
+  const s0 = strideOf(load<f64>(params, 96), spr, phases, grid);
+  const fixed = s0 == strideOf(load<f64>(params, 104), spr, phases, grid);
+  if (fixed) {
+    st = s0;
+    dst = st;
+    scale = <f64>st / fp;
+    dbase = <usize>load<i32>(descs + (<usize>st << 2));
+    if (x1 != 0) return stereoRun(params, x0 + (<usize>(-spanBase) << 2), x1 - x0, out0, out1, iEnd - iStart, ratios, p, loopEnd, st, scale, dbase);
   }
   let i = iStart;
   while (i < iEnd) {
-    const r = ratios != 0 ? load<f64>(ratios + (<usize>(i - iStart) << 3)) : dr == 0 ? rs : rs + (dr * <f64>i) / frames;
+    const r = load<f64>(ratios + (<usize>(i - iStart) << 3));
     if (!fixed && r != lastR) {
       lastR = r;
       st = strideOf(r, spr, phases, grid);
@@ -229,64 +218,61 @@ export function render(params: usize): i32 {
   return i - iStart;
 }
 
-// Parameter block of `mix` at `params` (bytes): 0 i32 x0 · 4 i32 x1 · 8 i32 mixL · 12 i32 mixR · 16 i32 frames ·
-// 24 f64 gl0 · 32 f64 dgl · 40 f64 gr0 · 48 f64 dgr.
+/** 1.5 · 2^52: added to an integer-valued float64 below 2^51 in magnitude, leaves it in the low mantissa bits. */
+const INT_MAGIC: f64 = 6755399441055744.0;
+
+/** `x` (integer-valued, |x| < 2^31) as i32, without the range checks of a truncating conversion. */
+@inline function intOf(x: f64): i32 {
+  return <i32>reinterpret<i64>(x + INT_MAGIC);
+}
 
 /**
- * Gain-ramp mix of one voice: mixL[i] += x0[i]·(gl0 + dgl·(i + 1)), mixR[i] += x1[i]·(gr0 + dgr·(i + 1)), i < frames,
- * in f64 lanes (f64x2) rounded once to f32, the same operations as the TypeScript mix. Returns 1 when every input
- * sample is finite, 0 otherwise.
+ * `render`'s loop for two channels at one stride `st` (descriptors at `dbase`, output scale `scale`) over `count`
+ * per-sample ratios at `ratios`: the same arithmetic with fewer live values (and so fewer spills). `xs` is the address
+ * of source frame 0 of the first channel, `dx` the distance in bytes to the second.
  */
-export function mix(params: usize): i32 {
-  const x0 = <usize>load<i32>(params, 0);
-  const x1 = <usize>load<i32>(params, 4);
-  const mixL = <usize>load<i32>(params, 8);
-  const mixR = <usize>load<i32>(params, 12);
-  const frames = load<i32>(params, 16);
-  const gl0 = load<f64>(params, 24);
-  const dgl = load<f64>(params, 32);
-  const gr0 = load<f64>(params, 40);
-  const dgr = load<f64>(params, 48);
-  let check = f64x2.splat(0);
-  let i = 0;
-  const quad = frames & ~3;
-  const two = f64x2.splat(2);
-  const gl0v = f64x2.splat(gl0);
-  const dglv = f64x2.splat(dgl);
-  const gr0v = f64x2.splat(gr0);
-  const dgrv = f64x2.splat(dgr);
-  let k = f64x2(1, 2); // i + 1 for lanes of the low pair
-  for (; i < quad; i += 4) {
-    const io = <usize>i << 2;
-    const k2 = f64x2.add(k, two);
-    const a = v128.load(x0 + io);
-    const b = v128.load(x1 + io);
-    const l = v128.load(mixL + io);
-    const r = v128.load(mixR + io);
-    const aLo = f64x2.promote_low_f32x4(a);
-    const aHi = f64x2.promote_low_f32x4(v128.shuffle<f32>(a, a, 2, 3, 2, 3));
-    const bLo = f64x2.promote_low_f32x4(b);
-    const bHi = f64x2.promote_low_f32x4(v128.shuffle<f32>(b, b, 2, 3, 2, 3));
-    const lLo = f64x2.add(f64x2.promote_low_f32x4(l), f64x2.mul(aLo, f64x2.add(gl0v, f64x2.mul(dglv, k))));
-    const lHi = f64x2.add(f64x2.promote_low_f32x4(v128.shuffle<f32>(l, l, 2, 3, 2, 3)), f64x2.mul(aHi, f64x2.add(gl0v, f64x2.mul(dglv, k2))));
-    const rLo = f64x2.add(f64x2.promote_low_f32x4(r), f64x2.mul(bLo, f64x2.add(gr0v, f64x2.mul(dgrv, k))));
-    const rHi = f64x2.add(f64x2.promote_low_f32x4(v128.shuffle<f32>(r, r, 2, 3, 2, 3)), f64x2.mul(bHi, f64x2.add(gr0v, f64x2.mul(dgrv, k2))));
-    const ld = f32x4.demote_f64x2_zero(lLo);
-    const rd = f32x4.demote_f64x2_zero(rLo);
-    v128.store(mixL + io, v128.shuffle<f32>(ld, f32x4.demote_f64x2_zero(lHi), 0, 1, 4, 5));
-    v128.store(mixR + io, v128.shuffle<f32>(rd, f32x4.demote_f64x2_zero(rHi), 0, 1, 4, 5));
-    check = f64x2.add(check, f64x2.add(f64x2.add(aLo, bLo), f64x2.add(aHi, bHi)));
-    k = f64x2.add(k2, two);
+function stereoRun(params: usize, xs: usize, dx: usize, out0: usize, out1: usize, count: i32, ratios: usize, pos: f64, loopEnd: f64, st: i32, scale: f64, dbase: usize): i32 {
+  const fst = <f64>st;
+  const vscale = f64x2.splat(scale);
+  let p = pos;
+  let k = 0;
+  while (k < count) {
+    const r = load<f64>(ratios + (<usize>k << 3));
+    const nf = Math.floor(p);
+    const c = (p - nf) * fst;
+    const cf = Math.floor(c); // c ≥ 0: the truncation render's loop takes
+    const fv = f32x4.splat(<f32>(c - cf));
+    const d = dbase + (<usize>intOf(cf) << 5);
+    let row = <usize>load<i32>(d);
+    const end = row + (<usize>load<i32>(d, 12) << 2);
+    // Byte distances from the row to the difference row and to the two source windows, which advance with it.
+    const toDiff = <usize>load<i32>(d, 16) - row;
+    const toX = xs + (<usize>(intOf(nf) - load<i32>(d, 8)) << 2) - row;
+    const toY = toX + dx;
+    let a0 = f32x4.splat(0);
+    let b0 = f32x4.splat(0);
+    let a1 = f32x4.splat(0);
+    let b1 = f32x4.splat(0);
+    do {
+      const h0 = f32x4.add(v128.load(row), f32x4.mul(fv, v128.load(row + toDiff)));
+      const h1 = f32x4.add(v128.load(row, 16), f32x4.mul(fv, v128.load(row + toDiff, 16)));
+      a0 = f32x4.add(a0, f32x4.mul(h0, v128.load(row + toX)));
+      b0 = f32x4.add(b0, f32x4.mul(h0, v128.load(row + toY)));
+      a1 = f32x4.add(a1, f32x4.mul(h1, v128.load(row + toX, 16)));
+      b1 = f32x4.add(b1, f32x4.mul(h1, v128.load(row + toY, 16)));
+      row += 32;
+    } while (row < end);
+    // Lanes 0 and 1: the sums of both channels, scaled in float64 and rounded to float32 as one pair.
+    const u = pairSums(f32x4.add(a0, a1), f32x4.add(b0, b1));
+    const y = f32x4.demote_f64x2_zero(f64x2.mul(vscale, f64x2.promote_low_f32x4(v128.shuffle<f32>(u, u, 0, 2, 0, 2))));
+    const o = <usize>k << 2;
+    v128.store32_lane(out0 + o, y, 0);
+    v128.store32_lane(out1 + o, y, 1);
+    p += r;
+    k++;
+    if (p >= loopEnd) break;
   }
-  let c = f64x2.extract_lane(check, 0) + f64x2.extract_lane(check, 1);
-  for (; i < frames; i++) {
-    const io = <usize>i << 2;
-    const a = <f64>load<f32>(x0 + io);
-    const b = <f64>load<f32>(x1 + io);
-    const n = <f64>(i + 1);
-    store<f32>(mixL + io, <f32>(<f64>load<f32>(mixL + io) + a * (gl0 + dgl * n)));
-    store<f32>(mixR + io, <f32>(<f64>load<f32>(mixR + io) + b * (gr0 + dgr * n)));
-    c += a + b;
-  }
-  return c - c == 0 ? 1 : 0;
+  store<f64>(params, p, 40);
+  store<i32>(params, st, 36);
+  return k;
 }

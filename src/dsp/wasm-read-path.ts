@@ -3,7 +3,7 @@
 import type { KernelTable } from './kernel-table';
 import type { ReadCursor } from './read-cursor';
 import { RUN_FRAMES, WasmKernel, halfWindowFor } from './wasm/wasm-kernel';
-import { RP_DR, RP_FRAMES, RP_I_END, RP_I_START, RP_LOOP_END, RP_OUT0, RP_OUT1, RP_POS, RP_RATIOS, RP_RS, RP_SPAN_BASE, RP_STRIDE, RP_TABLE, RP_X0, RP_X1 } from './wasm/kernel-params';
+import { RP_COUNT, RP_DR, RP_FRAMES, RP_HI, RP_I_END, RP_I_START, RP_LAST, RP_LOOP_END, RP_OUT0, RP_OUT1, RP_POS, RP_RATIOS, RP_RAW, RP_RS, RP_SPAN_BASE, RP_STRIDE, RP_TABLE, RP_X0, RP_X1 } from './wasm/kernel-params';
 
 const NO_OUTPUTS: readonly Float32Array[] = [];
 
@@ -19,7 +19,7 @@ export class ReadBlock {
   ratioStart = 1;
   /** Ratio change across the block when `ratios` is null (sample i reads ratioStart + ratioDelta·i/frames). */
   ratioDelta = 0;
-  /** One playback ratio per output sample (sanitised here), or null for the linear ramp. */
+  /** One playback ratio per output sample (sanitised by the module, as ReadCursor.sanitize does), or null for the linear ramp. */
   ratios: Float32Array | null = null;
   /** Index of sample 0's ratio in `ratios`. */
   ratiosOffset = 0;
@@ -39,12 +39,21 @@ export class WasmReadPath {
   private residentEpoch = -1;
   /** Infinity as a field: a double merged with the global `Infinity` in a branch is boxed by V8 (docs/allocation.md). */
   private readonly noLoopEnd = Infinity;
+  /**
+   * Per slot (output channels, then the ratios): the array last seen there and its byte offset in module memory (−1:
+   * not a view of it), valid while the kernel's f32 view is `seenMemory` (reading `.buffer` calls into the runtime).
+   */
+  private readonly seen: (Float32Array | null)[];
+  private readonly seenAt: Int32Array;
+  private seenMemory: Float32Array | null = null;
 
   /** Reads `cursor` (its source, loop and position); room for its channels' resident source offsets. */
   constructor(kernel: WasmKernel, cursor: ReadCursor) {
     this.kernel = kernel;
     this.cur = cursor;
     this.resident = new Int32Array(cursor.sources.length);
+    this.seen = new Array<Float32Array | null>(cursor.sources.length + 1).fill(null);
+    this.seenAt = new Int32Array(cursor.sources.length + 1);
   }
 
   /** Places `table` in module memory (once per table) for later renders. */
@@ -59,8 +68,9 @@ export class WasmReadPath {
   }
 
   /**
-   * Carries out `block` (filled by the reader) on the cursor given at construction. The block through the WebAssembly kernel: per run of ≤ RUN_FRAMES samples the ratios are sanitised once; the
-   * kernel reads a source in place when it is resident (WasmKernel.upload) and the span the run can touch lies inside
+   * Carries out `block` (filled by the reader) on the cursor given at construction through the WebAssembly kernel: per
+   * run of ≤ RUN_FRAMES samples the module first writes the run's ratios (the per-sample ones sanitised, or the ramp's),
+   * with the run's cursor state (last ratio, clamps) carried over; the kernel reads a source in place when it is resident (WasmKernel.upload) and the span the run can touch lies inside
    * the readable region, else that span is copied (wrapped or silent as `mapIndex` says) into module memory; outputs
    * that are views of module memory are written in place. The kernel runs until the run ends or a loop wraps (the wrap
    * and the next span are handled here, as the reference does).
@@ -94,26 +104,51 @@ export class WasmReadPath {
     k.f64[(pb + RP_RS) >> 3] = rs;
     k.f64[(pb + RP_DR) >> 3] = dr;
     k.f64[(pb + RP_LOOP_END) >> 3] = loopEnd;
+    // Byte address of ratios[0] in module memory: read in place when they are there, else copied whole when they fit
+    // the scratch (a block copy; an element loop costs about 1.5 ns per ratio), else −1: copied run by run below.
+    let rawAt = -1;
+    if (ratios !== null) {
+      rawAt = this.placed(ratios, this.seen.length - 1);
+      if (rawAt < 0 && ratios.length <= RUN_FRAMES) {
+        k.f32.set(ratios, k.rawRatios >> 2);
+        rawAt = k.rawRatios;
+      }
+    }
     for (let run = 0; run < frames; ) {
       const runEnd = frames - run < RUN_FRAMES ? frames : run + RUN_FRAMES;
       let rmax = reMax;
       if (ratios !== null) {
-        const f64 = k.f64;
-        const rb = k.ratios >> 3;
-        rmax = 0;
-        for (let i = run; i < runEnd; i++) {
-          const r = cur.sanitize(ratios[ro + i]);
-          f64[rb + i - run] = r;
-          if (r > rmax) rmax = r;
+        // The module sanitises the run's ratios as ReadCursor.sanitize would, read in place when they are in its memory.
+        let raw = rawAt + 4 * (ro + run);
+        if (rawAt < 0) {
+          raw = k.rawRatios;
+          const f32 = k.f32;
+          const rb = (raw >> 2) - ro - run;
+          for (let q = ro + run; q < ro + runEnd; q++) f32[rb + q] = ratios[q];
         }
+        const i32 = k.i32;
+        const f64 = k.f64;
+        i32[(pb + RP_RAW) >> 2] = raw;
+        i32[(pb + RP_COUNT) >> 2] = runEnd - run;
+        i32[(pb + RP_RATIOS) >> 2] = k.ratios;
+        f64[(pb + RP_LAST) >> 3] = cur.lastRatio;
+        cur.clamps += k.exports.sanitize(pb);
+        cur.lastRatio = f64[(pb + RP_LAST) >> 3];
+        rmax = f64[(pb + RP_HI) >> 3];
+      } else {
+        // The ramp's ratios for the run, computed by the module as its loop would: the same per-sample path follows.
+        const i32 = k.i32;
+        i32[(pb + RP_I_START) >> 2] = run;
+        i32[(pb + RP_I_END) >> 2] = runEnd;
+        i32[(pb + RP_RATIOS) >> 2] = k.ratios;
+        k.exports.ramp(pb);
       }
       const halfW = halfWindowFor(halfDense, t.strideFor(rmax));
       for (let i = run; i < runEnd; ) {
         const lower = Math.floor(cur.pos) - halfW;
         const upper = Math.floor(cur.pos + (runEnd - i) * rmax + 1) + halfW + 10;
-        const dp = ratios === null ? 0 : k.ratios + 8 * (i - run);
+        const dp = k.ratios + 8 * (i - run);
         const inside = lower >= (cur.loop && cur.wrapped ? cur.loopStart : 0) && upper <= (cur.loop ? cur.loopEnd : cur.length);
-        const mem = k.f32.buffer;
         let done = 0;
         for (let c = 0; c < chans; c += 2) {
           const pair = c + 1 < chans;
@@ -132,10 +167,10 @@ export class WasmReadPath {
           }
           const y0 = out[c];
           const y1 = pair ? out[c + 1] : y0;
-          const direct0 = y0.buffer === mem;
-          const direct1 = y1.buffer === mem;
-          const o0 = direct0 ? y0.byteOffset + 4 * (o + i) : k.out0;
-          const o1 = direct1 ? y1.byteOffset + 4 * (o + i) : k.out1;
+          const at0 = this.placed(y0, c);
+          const at1 = pair ? this.placed(y1, c + 1) : at0;
+          const o0 = at0 >= 0 ? at0 + 4 * (o + i) : k.out0;
+          const o1 = at1 >= 0 ? at1 + 4 * (o + i) : k.out1;
           const i32 = k.i32;
           i32[(pb + RP_X0) >> 2] = x0;
           i32[(pb + RP_X1) >> 2] = x1;
@@ -148,8 +183,8 @@ export class WasmReadPath {
           // Every channel pair starts from the same position (the kernel overwrites it with the end position).
           k.f64[(pb + RP_POS) >> 3] = cur.pos;
           done = k.exports.render(pb);
-          if (!direct0) y0.set(k.outViews0[done], o + i);
-          if (pair && !direct1) y1.set(k.outViews1[done], o + i);
+          if (at0 < 0) y0.set(k.outViews0[done], o + i);
+          if (pair && at1 < 0) y1.set(k.outViews1[done], o + i);
         }
         cur.moveTo(k.f64[(pb + RP_POS) >> 3]);
         cur.lastStretch = t.phases / k.i32[(pb + RP_STRIDE) >> 2];
@@ -163,6 +198,21 @@ export class WasmReadPath {
       }
       run = runEnd;
     }
+  }
+
+  /** Byte offset of `x` in module memory, or −1 when it is not a view of it, remembered for `slot`. */
+  private placed(x: Float32Array, slot: number): number {
+    const f32 = this.kernel.f32;
+    if (f32 !== this.seenMemory) {
+      // Memory grew (views of the old memory are detached): ask again.
+      this.seen.fill(null);
+      this.seenMemory = f32;
+    }
+    if (x !== this.seen[slot]) {
+      this.seen[slot] = x;
+      this.seenAt[slot] = x.buffer === f32.buffer ? x.byteOffset : -1;
+    }
+    return this.seenAt[slot];
   }
 }
 

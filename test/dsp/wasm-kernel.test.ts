@@ -99,6 +99,71 @@ describe('WebAssembly SIMD kernel', () => {
     expect(wa.clampCount).toBe(3);
   });
 
+  it('sanitises per-sample ratios as the reference does, bit for bit, wherever the ratios lie', () => {
+    // Float32 edge values: NaN, ±Infinity, −0, 0, the smallest subnormal, MIN_RATIO (2^−16) and the float below it,
+    // MAX_RATIO (4) and the float above it, huge and negative ratios; the rest a glide with loop wraps.
+    const hostile = [NaN, 0.7, -0, 0, 2 ** -149, 2 ** -16, 2 ** -16 * (1 - 2 ** -24), Infinity, 4, 4 * (1 + 2 ** -22), -Infinity, NaN, 1e30, -3, 1.3];
+    const n = 1500;
+    const glide = Float32Array.from({ length: n }, (_, i) => (i % 37 < hostile.length ? hostile[i % 37] : 0.3 + 2.5 * Math.abs(Math.sin(i * 0.013))));
+    const x = [material(12000, 13), material(12000, 14)];
+    const k = WasmKernel.shared() as WasmKernel;
+    const [ts, wa] = pair('standard', 2);
+    // In module memory (read in place), placed after the readers' table so that no growth detaches the view.
+    const at = k.allocFloats(n + 8);
+    const inModule = new Float32Array(k.f32.buffer, at + 32, n);
+    inModule.set(glide);
+    const block = new Float32Array(128);
+    const outs = [x.map(() => new Float32Array(700)), x.map(() => new Float32Array(700))];
+    for (const rd of [ts, wa]) rd.setSource(x, { loop: true, loopStart: 1000, loopEnd: 9000, startFrame: 2.5 });
+    const rand = seededRandom(9);
+    for (let o = 0, b = 0; o < n; b++) {
+      const m = Math.min(n - o, b % 3 === 0 ? 128 : 1 + Math.floor(rand() * 699));
+      for (const [j, rd] of [ts, wa].entries()) {
+        if (b % 3 === 0) {
+          // A JavaScript array that fits the module's scratch (copied whole), after a ramp whose NaN keeps the last ratio.
+          rd.read(outs[j], 0, 16, NaN, 0.9);
+          block.set(glide.subarray(o, o + m));
+          rd.readRatios(outs[j], 0, m, block, 0);
+        } else rd.readRatios(outs[j], 0, m, b % 3 === 1 ? glide : inModule, o);
+      }
+      expect(wa.position).toBe(ts.position);
+      expect(wa.clampCount).toBe(ts.clampCount);
+      for (let c = 0; c < 2; c++) expect(maxDiff(outs[0][c].subarray(0, m), outs[1][c].subarray(0, m))).toBeLessThanOrEqual(TOLERANCE);
+      o += m;
+    }
+    expect(ts.clampCount).toBeGreaterThan(400);
+    k.release(at, 4 * (n + 8));
+  });
+
+  it('writes the same samples into views of module memory as into arrays, also after the memory grew', () => {
+    const k = WasmKernel.shared() as WasmKernel;
+    const x = [material(30000, 15), material(30000, 16)];
+    const glide = Float32Array.from({ length: 128 }, (_, i) => 0.5 + 0.3 * Math.sin(i * 0.05));
+    const [, plain] = pair('standard', 2);
+    const [, placed] = pair('standard', 2);
+    for (const rd of [plain, placed]) rd.setSource(x, { startFrame: 1.5 });
+    const want = [new Float32Array(128), new Float32Array(128)];
+    const spare: number[] = [];
+    const first = k.f32;
+    for (let b = 0; b < 12; b++) {
+      // Twice the memory grows first (a request of half its size: the old views detach); outputs alternate between
+      // memory and arrays.
+      if (b === 4 || b === 9) {
+        const n = k.f32.length >> 1;
+        spare.push(k.allocFloats(n), n);
+      }
+      const at = k.allocFloats(256);
+      const got = b % 2 === 0 ? [new Float32Array(k.f32.buffer, at, 128), new Float32Array(k.f32.buffer, at + 512, 128)] : [new Float32Array(128), new Float32Array(128)];
+      plain.readRatios(want, 0, 128, glide, 0);
+      placed.readRatios(got, 0, 128, glide, 0);
+      expect(got[0]).toEqual(want[0]);
+      expect(got[1]).toEqual(want[1]);
+      k.release(at, 1024);
+    }
+    expect(k.f32 === first).toBe(false);
+    for (let j = 0; j < spare.length; j += 2) k.release(spare[j], 4 * spare[j + 1]);
+  });
+
   // Engine-like scenes: 128-frame blocks with per-block ramps, loops (one shorter than the kernel window), one-shot ends.
   const scenes: { name: string; channels: number; loop?: { start: number; end: number }; start: number; length: number }[] = [
     { name: 'mono one-shot past its end', channels: 1, start: 0.5, length: 9000 },

@@ -1,7 +1,7 @@
 // Byte layout of the parameter blocks the kernel module's block functions read (wasm/resample-kernel.ts): the
 // JavaScript side writes one block per call into module memory and passes its address, instead of 9–15 arguments.
 
-/** `render` block, byte offsets of i32 fields: table header, sources x0/x1, span base frame, outputs, sample range, ratios. */
+/** `render` block (also read by `sanitize` and `ramp`), byte offsets of i32 fields: table header, sources x0/x1, span base frame, outputs, sample range, ratios. */
 export const RP_TABLE = 0;
 /** Source x0 (byte address). */
 export const RP_X0 = 4;
@@ -17,22 +17,32 @@ export const RP_OUT1 = 20;
 export const RP_I_START = 24;
 /** End of the call's output samples, exclusive (i32). */
 export const RP_I_END = 28;
-/** Per-sample ratios (byte address of f64s; 0 = the linear ramp rs + dr·i/frames). */
+/** Per-sample ratios (byte address of f64s), written by `sanitize` or `ramp`. */
 export const RP_RATIOS = 32;
 /** Written by the kernel: the last stride used (i32). */
 export const RP_STRIDE = 36;
 /** Read position, source frames (f64): the start on entry, the end on return. */
 export const RP_POS = 40;
-/** Frames of the whole block (f64). */
+/** Frames of the whole block (f64; read by `ramp`). */
 export const RP_FRAMES = 48;
-/** Ratio at sample 0 (f64). */
+/** Ratio at sample 0 of the linear ramp (f64; read by `ramp`). */
 export const RP_RS = 56;
-/** Ratio change across the block (f64). */
+/** Ratio change across the block (f64; read by `ramp`). */
 export const RP_DR = 64;
 /** Loop end, source frames (f64; Infinity = none): the call stops after the sample that reaches it. */
 export const RP_LOOP_END = 72;
+/** Raw per-sample ratios that `sanitize` reads (byte address of f32s). */
+export const RP_RAW = 80;
+/** Ratios `sanitize` reads (i32). */
+export const RP_COUNT = 84;
+/** The last in-range ratio (f64; ReadCursor.lastRatio): read and written by `sanitize`. */
+export const RP_LAST = 88;
+/** Written by `sanitize` and `ramp`: the smallest ratio of the run (f64; `render` reads it). */
+export const RP_LO = 96;
+/** Written by `sanitize` and `ramp`: the largest ratio of the run (f64). */
+export const RP_HI = 104;
 /** Bytes of a `render` block. */
-export const RENDER_PARAM_BYTES = 80;
+export const RENDER_PARAM_BYTES = 112;
 
 /** `mix` block: source x0 (byte address). */
 export const MP_X0 = 0;

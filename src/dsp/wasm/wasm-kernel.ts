@@ -37,6 +37,10 @@ export interface KernelExports {
   mix(params: number): number;
   /** Renders a run as described by the block at `params` (kernel-params.ts, RP_*); returns the samples written. */
   render(params: number): number;
+  /** Sanitises a run's raw ratios into the f64 ratios `render` reads (kernel-params.ts, RP_*); returns the clamps. */
+  sanitize(params: number): number;
+  /** Writes a run's linear-ramp ratios where `sanitize` writes (kernel-params.ts, RP_*). */
+  ramp(params: number): void;
 }
 
 /** Something holding views of module memory: told once after each growth (not polled per render). */
@@ -89,12 +93,13 @@ export class WasmKernel {
   f32!: Float32Array;
   f64!: Float64Array;
   i32!: Int32Array;
-  /** Byte offsets of the shared scratch: two source spans, two outputs, ratios (f64). */
+  /** Byte offsets of the shared scratch: two source spans, two outputs, sanitised ratios (f64), raw ratios (f32). */
   span0 = 0;
   span1 = 0;
   out0 = 0;
   out1 = 0;
   ratios = 0;
+  rawRatios = 0;
   /** Byte offset of the `render` parameter block (kernel-params.ts RP_*), written once per kernel call. */
   renderParams = 0;
   /** Byte offset of the `mix` parameter block (kernel-params.ts MP_*). */
@@ -127,6 +132,7 @@ export class WasmKernel {
     this.out0 = this.take(RUN_FRAMES * 4);
     this.out1 = this.take(RUN_FRAMES * 4);
     this.ratios = this.take(RUN_FRAMES * 8);
+    this.rawRatios = this.take(RUN_FRAMES * 4);
     this.renderParams = this.take(RENDER_PARAM_BYTES);
     this.mixParams = this.take(MIX_PARAM_BYTES);
     this.buildParams = this.take(BUILD_PARAM_BYTES);
