@@ -45,25 +45,27 @@ function easeScratch(): Float64Array {
 
 /**
  * `easeValue` of io = [from, to, u] into io[3]: its doubles in a Float64Array, since V8 boxes a double passed to or
- * returned from a call it does not inline (docs/allocation.md); each branch stores its own value.
+ * returned from a call it does not inline (docs/allocation.md). One store, after the branches: a store inside a branch
+ * first taken after optimisation (a ramp's end, u ≥ 1) has no type feedback and deoptimises the function.
  */
 function easeInto(io: Float64Array, easing: Easing): void {
   const from = io[0];
   const to = io[1];
   const u = io[2];
-  if (u <= 0) io[3] = from;
-  else if (u >= 1) io[3] = to;
-  else if (easing === 'smooth') io[3] = from + (to - from) * u * u * (3 - 2 * u);
+  let v: number;
+  if (u <= 0) v = from;
+  else if (u >= 1) v = to;
+  else if (easing === 'smooth') v = from + (to - from) * u * u * (3 - 2 * u);
   else if (easing === 'exponential') {
     const floor = io[4];
     const a = from > floor ? from : floor;
     const b = to > floor ? to : floor;
-    let v = a * Math.pow(b / a, u);
+    v = a * Math.pow(b / a, u);
     // Values under the floor: blend linearly toward the true endpoint near the ends so the ramp starts/ends exactly.
     if (from < floor) v += (from - a) * (1 - u);
     if (to < floor) v += (to - b) * u;
-    io[3] = v;
-  } else io[3] = from + (to - from) * u;
+  } else v = from + (to - from) * u;
+  io[3] = v;
 }
 
 /** The global time scale over time: the current ramp (start, duration, easing, endpoints), evaluated on demand. */
@@ -77,6 +79,8 @@ export class TimeFlow {
   /** The time scale `lookUp` wrote: valueAt(time). */
   value = 0.5;
   private readonly io = easeScratch();
+  /** MAX_TIME_SCALE as a field: a module constant merged with a double makes V8 box the result (docs/allocation.md). */
+  private readonly maxScale = MAX_TIME_SCALE;
   private start: Seconds = 0;
   private duration: Seconds = 0;
   private easing: Easing = 'linear';
@@ -84,7 +88,8 @@ export class TimeFlow {
   /** Creates a flow resting at `initial` (default 1, clamped to 0…4). */
   constructor(options: TimeFlowOptions = timeFlowDefaults) {
     const initial = options.initial ?? timeFlowDefaults.initial;
-    this.from = this.to = this.clampCounted(initial);
+    this.clampTarget(initial);
+    this.from = this.to;
   }
 
   /** The value the current ramp ends at. */
@@ -119,7 +124,7 @@ export class TimeFlow {
     }
     const from = this.valueAt(start);
     this.from = from;
-    this.to = this.clampCounted(request.target);
+    this.clampTarget(request.target);
     this.start = start;
     this.duration = ramp;
     this.easing = request.easing === 'smooth' || request.easing === 'exponential' ? request.easing : 'linear';
@@ -160,9 +165,15 @@ export class TimeFlow {
     this.value = io[3];
   }
 
-  private clampCounted(value: number): number {
-    const v = clampTimeScale(value);
-    if (v !== value) this.clamps += 1;
-    return v;
+  /**
+   * Sets `to` to `value` clamped as clampTimeScale does, counting a change. Writes the field, returning nothing: a
+   * double returned from a call V8 does not inline is boxed (docs/allocation.md).
+   */
+  private clampTarget(value: number): void {
+    const max = this.maxScale;
+    if (!(value > 0)) this.to = 0;
+    else if (value < max) this.to = value;
+    else this.to = max;
+    if (this.to !== value) this.clamps += 1;
   }
 }

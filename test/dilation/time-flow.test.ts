@@ -71,6 +71,13 @@ describe('TimeFlow', () => {
     expect(f.clamps).toBe(1);
   });
 
+  it.each([0, 0.35, 1, 4])('keeps a target of %s as is, uncounted (0 and 4 included)', (target) => {
+    const f = new TimeFlow();
+    f.set({ target, rampSeconds: 0, easing: 'linear' }, 0);
+    expect(f.valueAt(1)).toBe(target);
+    expect(f.clamps).toBe(0);
+  });
+
   it('treats a NaN or negative ramp as an instant change, counted', () => {
     const f = new TimeFlow();
     f.set({ target: 0.5, rampSeconds: Number.NaN, easing: 'linear' }, 0);
