@@ -146,7 +146,7 @@ export class EngineCore {
     const stereo = [buf(), buf()];
     this.scratch = { stereo, mono: [stereo[0]], dry: [buf(), buf()], wasm: null, ratios: new Float32Array(this.maxBlock), stage: this.stage };
     const wasm = this.voices[0].kernelName === 'wasm-simd' ? WasmKernel.shared() : null;
-    // Voice scratch and mix bus in module memory: the kernel writes and the module mixes there, with no copies.
+    // Voice scratch, per-sample ratios and mix bus in module memory: the kernel reads, writes and mixes there, with no copies.
     this.resident = wasm === null ? null : new KernelResidency({ kernel: wasm, maxBlockFrames: this.maxBlock, bank: this.bank, scratch: this.scratch, bus: this.bus, owner });
     this.input = { timeScale: 1, group: DEFAULT_GROUP, baseRatio: 1, gain: 1, listener: this.snapshots.listener, source: null, spatial: null };
     this.stats = {
