@@ -3,9 +3,10 @@
 // Mach-cone arrivals reported as shockwave events, and each propagating voice's per-sample read ratios.
 import type { Seconds, Vec3Like } from '../units';
 import type { EngineSnapshot, ShockwaveEvent } from './engine-types';
+import type { SnapshotStore } from './snapshot-store';
 import { MAX_RATIO, MIN_RATIO } from '../dsp';
 import { GameClock } from './game-clock';
-import { SourceTracks, APPEND_TELEPORT, TRACK_KNOTS } from './source-tracks';
+import { SourceTracks, TRACK_KNOTS } from './source-tracks';
 import { EmissionSolver, createEmissionSolution, EMISSION_HISTORY, EMISSION_NONE, type EmissionSolution } from './emission-solver';
 
 /** Shockwave events kept until read (older ones are dropped and counted). */
@@ -41,9 +42,11 @@ export class PropagationStage {
   /** Shockwaves detected, and events dropped because the queue was full. */
   shockwaves = 0;
   droppedEvents = 0;
-  /** The last shockwave's engine time (s, NaN before any) and source id (−1 before any). */
+  /** The last shockwave's engine time (s, NaN before any) and source id (−1 before any, set in the constructor). */
   lastShockwaveTime: Seconds = NaN;
-  lastShockwaveSource = -1;
+  // Declared with a double: ids are read from a Float64Array, and a double stored into a field that held a small
+  // integer changes the object's layout, which throws away the optimised code of every method (docs/allocation.md).
+  lastShockwaveSource = 0.5;
   private readonly solver = new EmissionSolver();
   private readonly ids: Float64Array;
   private readonly lastPush: Float64Array;
@@ -60,12 +63,8 @@ export class PropagationStage {
   private readonly sv: Vec3Like = { x: 0, y: 0, z: 0 };
   /** Engine time at the start of the block `solveAll` solves, s (the render loop sets the three, then calls). */
   blockStart: Seconds = 0.5;
-  // Doubles handed to the bodies of push, advance and fillRamp in fields, not as arguments: V8 boxes a double passed
-  // to or returned from a call it does not inline (docs/allocation.md); the public methods are small enough to inline.
-  private pushNow: Seconds = 0.5;
-  private pushInterval: Seconds = 0.5;
-  private pushTime: Seconds = 0.5;
-  private knot: Seconds = 0.5;
+  // Doubles handed to solveAll and fillRamp in fields, not as arguments: V8 boxes a double passed to or returned from
+  // a call it does not inline (docs/allocation.md).
   /** Engine time at the end of the block `solveAll` solves, s. */
   blockEnd: Seconds = 0.5;
   /** Time scale over that block (0…4). */
@@ -83,6 +82,7 @@ export class PropagationStage {
     const n = Math.max(1, Math.min(4096, Math.floor(options.maxSources)));
     this.tracks = new SourceTracks(n + 1, options.knots ?? TRACK_KNOTS);
     this.listenerSlot = n;
+    this.lastShockwaveSource = -1;
     this.ids = new Float64Array(n).fill(NaN);
     this.lastPush = new Float64Array(n).fill(-Infinity);
     this.solvedEpoch = new Int32Array(n).fill(-1);
@@ -91,7 +91,7 @@ export class PropagationStage {
       this.now.push(createEmissionSolution());
       this.before.push(createEmissionSolution());
     }
-    for (let i = 0; i < SHOCKWAVE_QUEUE; i++) this.events.push({ time: 0, gameTime: 0, sourceId: 0 });
+    for (let i = 0; i < SHOCKWAVE_QUEUE; i++) this.events.push({ time: 0.5, gameTime: 0.5, sourceId: 0.5 });
   }
 
   /** Speed of sound in metres per game second. */
@@ -99,50 +99,28 @@ export class PropagationStage {
     this.solver.c = c;
   }
 
-  /** Engine time of a snapshot stamped `time` pushed at engine time `now` to be reached after `interval` (s). */
-  knotTime(time: Seconds, now: Seconds, interval: Seconds): Seconds {
-    this.pushNow = now;
-    this.pushInterval = interval;
-    this.pushTime = time;
-    this.syncKnot();
-    return this.knot;
-  }
-
-  /** The body of `knotTime`: from `pushTime`, `pushNow` and `pushInterval` into `knot` (NaN: no valid time). */
-  private syncKnot(): void {
-    const time = this.pushTime;
-    const target = this.pushNow + this.pushInterval - time;
+  /**
+   * Records one snapshot's listener and sources, after `store` took it (its arrival time and interval, and its slots).
+   * It takes no double: called once per snapshot, its caller may run unoptimised for minutes, and unoptimised code
+   * boxes every double it reads or computes (docs/allocation.md).
+   */
+  push(s: EngineSnapshot, store: SnapshotStore): void {
+    this.pushes++;
+    // The knot's engine time: the snapshot's time plus an offset slewed towards arrival + interval − time.
+    const time = s.time;
+    const target = store.arrival + store.interval - time;
     if (!Number.isFinite(target)) {
-      this.knot = NaN;
+      this.tracks.dropped++;
       return;
     }
     if (!(Math.abs(target - this.offset) < RESYNC_SECONDS)) this.offset = target;
     else this.offset += (target - this.offset) * OFFSET_SLEW;
-    this.knot = time + this.offset;
-  }
-
-  /** Records one snapshot's listener and sources; `slotOf` maps a source id to the snapshot store's slot (−1: none). */
-  push(s: EngineSnapshot, now: Seconds, interval: Seconds, slotOf: (id: number) => number): void {
-    this.pushNow = now;
-    this.pushInterval = interval;
-    this.record(s, slotOf);
-  }
-
-  /** The body of `push`, at engine time `pushNow` with interval `pushInterval`. */
-  private record(s: EngineSnapshot, slotOf: (id: number) => number): void {
-    this.pushes++;
-    this.pushTime = s.time;
-    this.syncKnot();
-    const T = this.knot;
-    if (!Number.isFinite(T)) {
-      this.tracks.dropped++;
-      return;
-    }
+    const T = time + this.offset;
     this.tracks.append(this.listenerSlot, T, s.listener.position, s.listener.velocity);
     const list = s.sources;
     for (let i = 0; i < list.length; i++) {
       const src = list[i];
-      const slot = slotOf(src.id);
+      const slot = store.find(src.id);
       if (slot < 0 || slot >= this.ids.length) continue;
       if (this.ids[slot] !== src.id) {
         this.ids[slot] = src.id;
