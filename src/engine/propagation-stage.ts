@@ -116,7 +116,9 @@ export class PropagationStage {
     if (!(Math.abs(target - this.offset) < RESYNC_SECONDS)) this.offset = target;
     else this.offset += (target - this.offset) * OFFSET_SLEW;
     const T = time + this.offset;
-    this.tracks.append(this.listenerSlot, T, s.listener.position, s.listener.velocity);
+    const tracks = this.tracks;
+    tracks.at = T;
+    tracks.append(this.listenerSlot, s.listener.position, s.listener.velocity);
     const list = s.sources;
     for (let i = 0; i < list.length; i++) {
       const src = list[i];
@@ -127,7 +129,8 @@ export class PropagationStage {
         this.tracks.reset(slot);
       }
       this.lastPush[slot] = this.pushes;
-      this.tracks.append(slot, T, src.position, src.velocity);
+      tracks.at = T;
+      tracks.append(slot, src.position, src.velocity);
     }
   }
 
@@ -157,7 +160,8 @@ export class PropagationStage {
     const gStart = this.clock.game;
     this.clock.advance(end, scale);
     const tracks = this.tracks;
-    tracks.evaluate(this.listenerSlot, end, this.lp, this.lv);
+    tracks.at = end;
+    tracks.evaluate(this.listenerSlot, this.lp, this.lv);
     const solver = this.solver;
     solver.setListener(end, this.clock, this.lp, this.lv);
     const c = solver.c;
@@ -202,16 +206,7 @@ export class PropagationStage {
         cur.meanDoppler = (gCur - clock.gameFound) / gBlock;
       }
       else cur.meanDoppler = NaN;
-      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur)) {
-        let te = end - cur.scanResidual / cur.scanRate;
-        if (!(te >= start)) te = start;
-        cur.coneTime = te;
-        this.emit(cur, slot);
-      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && this.supersonicAt(slot, cur)) {
-        // The latest root jumped forward: a (second) cone arrived.
-        cur.coneTime = start;
-        this.emit(cur, slot);
-      }
+      this.detectCone(slot, prev, cur);
     }
   }
 
@@ -284,20 +279,36 @@ export class PropagationStage {
     return this.blockStart;
   }
 
-  /** Whether source `slot` moved at least at the speed of sound (game clock) at engine time `tau`: a cone can only come from there. */
-  private supersonicAt(slot: number, sol: EmissionSolution): boolean {
-    const tau = sol.tau;
-    this.tracks.evaluate(slot, tau, this.sp, this.sv);
+  /**
+   * Whether a Mach cone of source `slot` reached the listener during the block (solutions `prev` → `cur`): if so, sets
+   * `cur.coneTime` and queues a shockwave. Called for every solved source and block, with the speed test and the
+   * queueing in its own body: V8 optimises only code that runs often or is inlined into such code, and rare code left
+   * to its interpreter boxes every double (docs/allocation.md).
+   */
+  private detectCone(slot: number, prev: EmissionSolution, cur: EmissionSolution): void {
+    if (cur.state !== EMISSION_HISTORY) return;
+    const start = this.blockStart;
+    const end = this.blockEnd;
+    // A cone shows as the first root in the history, found by the scan, or as the latest root jumping forward.
+    const first = prev.state !== EMISSION_HISTORY;
+    if (first ? !(cur.scanRate > 0) : !(cur.tau - prev.tau > (end - start) * 8 + 1e-4)) return;
+    // Only a source that moved at least at the speed of sound (game clock) at τ makes one.
+    const tau = cur.tau;
+    const tracks = this.tracks;
+    tracks.at = tau;
+    tracks.evaluate(slot, this.sp, this.sv);
     const v = this.sv;
     const clock = this.clock;
     clock.query = tau;
     clock.lookUp();
-    return Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * clock.slopeFound;
-  }
-
-  /** Queues a shockwave of source slot `slot` at its solution's `coneTime`. */
-  private emit(sol: EmissionSolution, slot: number): void {
-    const time = sol.coneTime;
+    if (!(Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * clock.slopeFound)) return;
+    // Arrival: when the scanned residual crossed zero (first root), else at the block's start.
+    let time = start;
+    if (first) {
+      time = end - cur.scanResidual / cur.scanRate;
+      if (!(time >= start)) time = start;
+    }
+    cur.coneTime = time;
     const sourceId = this.ids[slot];
     this.shockwaves++;
     this.lastShockwaveTime = time;
@@ -309,9 +320,9 @@ export class PropagationStage {
     }
     const e = this.events[(this.eventHead + this.eventCount) % SHOCKWAVE_QUEUE];
     e.time = time;
-    this.clock.query = time;
-    this.clock.lookUp();
-    e.gameTime = this.clock.gameFound;
+    clock.query = time;
+    clock.lookUp();
+    e.gameTime = clock.gameFound;
     e.sourceId = sourceId;
     this.eventCount++;
   }
