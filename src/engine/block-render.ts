@@ -40,7 +40,8 @@ function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset:
   // The time flow runs on the pause clock: it holds while the world is paused.
   const tStart = core.frameCount / core.sampleRate;
   const tEnd = (core.frameCount + n) / core.sampleRate;
-  snapshots.interpolate(tEnd);
+  snapshots.time = tEnd;
+  snapshots.interpolate();
   const input = core.input;
   // Doubles go over in the callees' fields: V8 boxes a double passed to or returned from a call it does not inline.
   const pause = controls.clock;
@@ -90,7 +91,8 @@ function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset:
     if (!alive) core.pool.free(v);
   }
   bus.finish(outputs, offset, n, core.stats);
-  routes.finish(groupOutputs, offset, n, core.routeCeiling);
+  routes.ceiling = core.routeCeiling;
+  routes.finish(groupOutputs, offset, n);
   core.frameCount += n;
 }
 
@@ -110,6 +112,7 @@ function collectStats(core: EngineCore): void {
   st.refused += core.snapshots.refused;
   core.snapshots.refused = 0;
   st.limiterDb = core.bus.limiter.reductionDb;
-  st.timeScale = core.timeScaleNow;
+  core.lookUpTimeScale();
+  st.timeScale = core.flow.value;
   st.time = core.time;
 }

@@ -197,7 +197,10 @@ export class EmissionSolver {
       const fp = -this.c * clock.slopeFound + us;
       // (No NaN literal in a merge here: a global read V8 has no feedback for is a tagged value, and boxes the other.)
       const nx = b[2] - fx / fp;
-      b[2] = fp < 0 && nx > b[0] && nx < b[1] ? nx : 0.5 * (b[0] + b[1]);
+      // The bisection point is computed on every step, not only in the rare step that takes it: code that never ran
+      // before V8 optimised the function has no type feedback, and reaching it throws the optimised code away.
+      const mid = 0.5 * (b[0] + b[1]);
+      b[2] = fp < 0 && nx > b[0] && nx < b[1] ? nx : mid;
     }
     this.root = b[2];
   }
@@ -225,7 +228,8 @@ export class EmissionSolver {
   private residual(tracks: SourceTracks, clock: GameClock, slot: number): void {
     this.evals++;
     const tau = this.x;
-    this.region = tracks.evaluate(slot, tau, this.sp, this.sv);
+    tracks.at = tau;
+    this.region = tracks.evaluate(slot, this.sp, this.sv);
     const dx = this.lp.x - this.sp.x;
     const dy = this.lp.y - this.sp.y;
     const dz = this.lp.z - this.sp.z;

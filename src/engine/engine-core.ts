@@ -90,8 +90,6 @@ export class EngineCore {
   /** The engine clock of the block being rendered, handed to the voices' stages (allocation-free). */
   readonly clock: BlockClock;
   readonly emission: MovingSource = { id: 0, position: { x: 0, y: 0, z: 0 }, velocity: { x: 0, y: 0, z: 0 } };
-  /** Source id → snapshot slot, for the propagation stage. */
-  readonly slotOf = (id: number): number => this.snapshots.find(id);
   /** Tables handed in by the host (by tier name), or null: the engine designs its own (`KernelTable.forTier`). */
   readonly given: Map<string, KernelTable> | null;
   /** The tuning in use. */
@@ -122,7 +120,7 @@ export class EngineCore {
     const t = options.tuning ?? defaultTuning;
     this.tuning = t;
     this.mapper = new TargetMapper({ tuning: t });
-    this.snapshots = new SnapshotStore({ maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
+    this.snapshots = new SnapshotStore({ clock: this, maxSources, velocitySmoothingSeconds: t.doppler.velocitySmoothingSeconds, teleportSpeed: t.doppler.teleportSpeed });
     this.stage = new PropagationStage({ maxSources, knots: checkRange('trackKnots', options.trackKnots ?? 256, 16, 4096) });
     this.stage.speedOfSound = propagationSpeed(t);
     this.air = new AirAbsorption(t.air);
@@ -152,8 +150,11 @@ export class EngineCore {
     this.stats = {
       activeVoices: 0, virtualVoices: 0, steals: 0, clamps: 0, refused: 0, peakIn: 0, peakOut: 0, blasts: 0,
       limiterDb: 0, timeScale: 1, time: 0, errors: 0, tier: table.name as Tuning['resampler']['tier'], kernel: this.voices[0].kernelName,
-      ratioClamps: 0, teleports: 0, shockwaves: 0, lastShockwaveTime: NaN, lastShockwaveSource: -1,
+      ratioClamps: 0, teleports: 0, shockwaves: 0, lastShockwaveTime: NaN, lastShockwaveSource: NaN,
     };
+    // Declared with a double (NaN) above, then −1 ("none yet"): a field that held a small integer and later a double
+    // changes the object's layout and throws away optimised code using it (docs/allocation.md).
+    this.stats.lastShockwaveSource = -1;
   }
 
   /** Engine clock: seconds rendered so far. */
@@ -163,6 +164,12 @@ export class EngineCore {
 
   /** The time scale now (on the time-flow clock, which stops while the world is paused). */
   get timeScaleNow(): number {
+    this.lookUpTimeScale();
+    return this.flow.value;
+  }
+
+  /** The body of `timeScaleNow`: leaves the time scale now in `flow.value` (no double returned: V8 boxes one returned from a call it does not inline). */
+  lookUpTimeScale(): void {
     // Through the clocks' fields: V8 boxes a double passed to or returned from a call it does not inline.
     const pause = this.controls.clock;
     pause.host = this.frameCount / this.sampleRate;
@@ -170,7 +177,6 @@ export class EngineCore {
     const flow = this.flow;
     flow.time = pause.flow;
     flow.lookUp();
-    return flow.value;
   }
 
   /** The table for `tier` at this engine's rate: a given one, else (no tables given) the shared design; null while a given set lacks it. */

@@ -38,7 +38,8 @@ export function playVoice(core: EngineCore, sound: number, options: PlayOptions)
   const sourceId = options.sourceId !== undefined && Number.isFinite(options.sourceId) ? options.sourceId : -1;
   const rate = core.bank.rates[slot];
   // Targets now, for the stealing decision and so that the voice starts at its proper pitch.
-  core.snapshots.interpolate(now);
+  core.snapshots.time = now;
+  core.snapshots.interpolate();
   const src = sourceId === -1 ? -1 : core.snapshots.find(sourceId);
   const spatial = sourceId === -1 ? null : (core.controls.spatial.get(sourceId) ?? null);
   core.map(core.probe, group, (ratio * rate) / core.sampleRate, gain, src >= 0 ? core.snapshots.sourceAt(src) : null, spatial, core.timeScaleNow);

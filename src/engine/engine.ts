@@ -112,8 +112,9 @@ export class Engine {
     const c = this.core;
     try {
       if (s.timeScale !== undefined) c.flow.jump(s.timeScale, c.controls.flowTime(c.time));
-      c.snapshots.push(s, c.time);
-      c.stage.push(s, c.time, c.snapshots.snapshotInterval, c.slotOf);
+      // No double here: called once per snapshot, this may run unoptimised for minutes, boxing any (docs/allocation.md).
+      c.snapshots.push(s);
+      c.stage.push(s, c.snapshots);
     } catch {
       this.stats.errors++;
     }

@@ -3,9 +3,10 @@
 // Mach-cone arrivals reported as shockwave events, and each propagating voice's per-sample read ratios.
 import type { Seconds, Vec3Like } from '../units';
 import type { EngineSnapshot, ShockwaveEvent } from './engine-types';
+import type { SnapshotStore } from './snapshot-store';
 import { MAX_RATIO, MIN_RATIO } from '../dsp';
 import { GameClock } from './game-clock';
-import { SourceTracks, APPEND_TELEPORT, TRACK_KNOTS } from './source-tracks';
+import { SourceTracks, TRACK_KNOTS } from './source-tracks';
 import { EmissionSolver, createEmissionSolution, EMISSION_HISTORY, EMISSION_NONE, type EmissionSolution } from './emission-solver';
 
 /** Shockwave events kept until read (older ones are dropped and counted). */
@@ -41,9 +42,11 @@ export class PropagationStage {
   /** Shockwaves detected, and events dropped because the queue was full. */
   shockwaves = 0;
   droppedEvents = 0;
-  /** The last shockwave's engine time (s, NaN before any) and source id (−1 before any). */
+  /** The last shockwave's engine time (s, NaN before any) and source id (−1 before any, set in the constructor). */
   lastShockwaveTime: Seconds = NaN;
-  lastShockwaveSource = -1;
+  // Declared with a double: ids are read from a Float64Array, and a double stored into a field that held a small
+  // integer changes the object's layout, which throws away the optimised code of every method (docs/allocation.md).
+  lastShockwaveSource = 0.5;
   private readonly solver = new EmissionSolver();
   private readonly ids: Float64Array;
   private readonly lastPush: Float64Array;
@@ -60,12 +63,8 @@ export class PropagationStage {
   private readonly sv: Vec3Like = { x: 0, y: 0, z: 0 };
   /** Engine time at the start of the block `solveAll` solves, s (the render loop sets the three, then calls). */
   blockStart: Seconds = 0.5;
-  // Doubles handed to the bodies of push, advance and fillRamp in fields, not as arguments: V8 boxes a double passed
-  // to or returned from a call it does not inline (docs/allocation.md); the public methods are small enough to inline.
-  private pushNow: Seconds = 0.5;
-  private pushInterval: Seconds = 0.5;
-  private pushTime: Seconds = 0.5;
-  private knot: Seconds = 0.5;
+  // Doubles handed to solveAll and fillRamp in fields, not as arguments: V8 boxes a double passed to or returned from
+  // a call it does not inline (docs/allocation.md).
   /** Engine time at the end of the block `solveAll` solves, s. */
   blockEnd: Seconds = 0.5;
   /** Time scale over that block (0…4). */
@@ -83,6 +82,7 @@ export class PropagationStage {
     const n = Math.max(1, Math.min(4096, Math.floor(options.maxSources)));
     this.tracks = new SourceTracks(n + 1, options.knots ?? TRACK_KNOTS);
     this.listenerSlot = n;
+    this.lastShockwaveSource = -1;
     this.ids = new Float64Array(n).fill(NaN);
     this.lastPush = new Float64Array(n).fill(-Infinity);
     this.solvedEpoch = new Int32Array(n).fill(-1);
@@ -91,7 +91,7 @@ export class PropagationStage {
       this.now.push(createEmissionSolution());
       this.before.push(createEmissionSolution());
     }
-    for (let i = 0; i < SHOCKWAVE_QUEUE; i++) this.events.push({ time: 0, gameTime: 0, sourceId: 0 });
+    for (let i = 0; i < SHOCKWAVE_QUEUE; i++) this.events.push({ time: 0.5, gameTime: 0.5, sourceId: 0.5 });
   }
 
   /** Speed of sound in metres per game second. */
@@ -99,57 +99,38 @@ export class PropagationStage {
     this.solver.c = c;
   }
 
-  /** Engine time of a snapshot stamped `time` pushed at engine time `now` to be reached after `interval` (s). */
-  knotTime(time: Seconds, now: Seconds, interval: Seconds): Seconds {
-    this.pushNow = now;
-    this.pushInterval = interval;
-    this.pushTime = time;
-    this.syncKnot();
-    return this.knot;
-  }
-
-  /** The body of `knotTime`: from `pushTime`, `pushNow` and `pushInterval` into `knot` (NaN: no valid time). */
-  private syncKnot(): void {
-    const time = this.pushTime;
-    const target = this.pushNow + this.pushInterval - time;
+  /**
+   * Records one snapshot's listener and sources, after `store` took it (its arrival time and interval, and its slots).
+   * It takes no double: called once per snapshot, its caller may run unoptimised for minutes, and unoptimised code
+   * boxes every double it reads or computes (docs/allocation.md).
+   */
+  push(s: EngineSnapshot, store: SnapshotStore): void {
+    this.pushes++;
+    // The knot's engine time: the snapshot's time plus an offset slewed towards arrival + interval − time.
+    const time = s.time;
+    const target = store.arrival + store.interval - time;
     if (!Number.isFinite(target)) {
-      this.knot = NaN;
+      this.tracks.dropped++;
       return;
     }
     if (!(Math.abs(target - this.offset) < RESYNC_SECONDS)) this.offset = target;
     else this.offset += (target - this.offset) * OFFSET_SLEW;
-    this.knot = time + this.offset;
-  }
-
-  /** Records one snapshot's listener and sources; `slotOf` maps a source id to the snapshot store's slot (−1: none). */
-  push(s: EngineSnapshot, now: Seconds, interval: Seconds, slotOf: (id: number) => number): void {
-    this.pushNow = now;
-    this.pushInterval = interval;
-    this.record(s, slotOf);
-  }
-
-  /** The body of `push`, at engine time `pushNow` with interval `pushInterval`. */
-  private record(s: EngineSnapshot, slotOf: (id: number) => number): void {
-    this.pushes++;
-    this.pushTime = s.time;
-    this.syncKnot();
-    const T = this.knot;
-    if (!Number.isFinite(T)) {
-      this.tracks.dropped++;
-      return;
-    }
-    this.tracks.append(this.listenerSlot, T, s.listener.position, s.listener.velocity);
+    const T = time + this.offset;
+    const tracks = this.tracks;
+    tracks.at = T;
+    tracks.append(this.listenerSlot, s.listener.position, s.listener.velocity);
     const list = s.sources;
     for (let i = 0; i < list.length; i++) {
       const src = list[i];
-      const slot = slotOf(src.id);
+      const slot = store.find(src.id);
       if (slot < 0 || slot >= this.ids.length) continue;
       if (this.ids[slot] !== src.id) {
         this.ids[slot] = src.id;
         this.tracks.reset(slot);
       }
       this.lastPush[slot] = this.pushes;
-      this.tracks.append(slot, T, src.position, src.velocity);
+      tracks.at = T;
+      tracks.append(slot, src.position, src.velocity);
     }
   }
 
@@ -179,7 +160,8 @@ export class PropagationStage {
     const gStart = this.clock.game;
     this.clock.advance(end, scale);
     const tracks = this.tracks;
-    tracks.evaluate(this.listenerSlot, end, this.lp, this.lv);
+    tracks.at = end;
+    tracks.evaluate(this.listenerSlot, this.lp, this.lv);
     const solver = this.solver;
     solver.setListener(end, this.clock, this.lp, this.lv);
     const c = solver.c;
@@ -224,16 +206,7 @@ export class PropagationStage {
         cur.meanDoppler = (gCur - clock.gameFound) / gBlock;
       }
       else cur.meanDoppler = NaN;
-      if (cur.state === EMISSION_HISTORY && prev.state !== EMISSION_HISTORY && cur.scanRate > 0 && this.supersonicAt(slot, cur)) {
-        let te = end - cur.scanResidual / cur.scanRate;
-        if (!(te >= start)) te = start;
-        cur.coneTime = te;
-        this.emit(cur, slot);
-      } else if (cur.state === EMISSION_HISTORY && prev.state === EMISSION_HISTORY && cur.tau - prev.tau > (end - start) * 8 + 1e-4 && this.supersonicAt(slot, cur)) {
-        // The latest root jumped forward: a (second) cone arrived.
-        cur.coneTime = start;
-        this.emit(cur, slot);
-      }
+      this.detectCone(slot, prev, cur);
     }
   }
 
@@ -306,20 +279,36 @@ export class PropagationStage {
     return this.blockStart;
   }
 
-  /** Whether source `slot` moved at least at the speed of sound (game clock) at engine time `tau`: a cone can only come from there. */
-  private supersonicAt(slot: number, sol: EmissionSolution): boolean {
-    const tau = sol.tau;
-    this.tracks.evaluate(slot, tau, this.sp, this.sv);
+  /**
+   * Whether a Mach cone of source `slot` reached the listener during the block (solutions `prev` → `cur`): if so, sets
+   * `cur.coneTime` and queues a shockwave. Called for every solved source and block, with the speed test and the
+   * queueing in its own body: V8 optimises only code that runs often or is inlined into such code, and rare code left
+   * to its interpreter boxes every double (docs/allocation.md).
+   */
+  private detectCone(slot: number, prev: EmissionSolution, cur: EmissionSolution): void {
+    if (cur.state !== EMISSION_HISTORY) return;
+    const start = this.blockStart;
+    const end = this.blockEnd;
+    // A cone shows as the first root in the history, found by the scan, or as the latest root jumping forward.
+    const first = prev.state !== EMISSION_HISTORY;
+    if (first ? !(cur.scanRate > 0) : !(cur.tau - prev.tau > (end - start) * 8 + 1e-4)) return;
+    // Only a source that moved at least at the speed of sound (game clock) at τ makes one.
+    const tau = cur.tau;
+    const tracks = this.tracks;
+    tracks.at = tau;
+    tracks.evaluate(slot, this.sp, this.sv);
     const v = this.sv;
     const clock = this.clock;
     clock.query = tau;
     clock.lookUp();
-    return Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * clock.slopeFound;
-  }
-
-  /** Queues a shockwave of source slot `slot` at its solution's `coneTime`. */
-  private emit(sol: EmissionSolution, slot: number): void {
-    const time = sol.coneTime;
+    if (!(Math.sqrt(v.x * v.x + v.y * v.y + v.z * v.z) > 0.99 * this.solver.c * clock.slopeFound)) return;
+    // Arrival: when the scanned residual crossed zero (first root), else at the block's start.
+    let time = start;
+    if (first) {
+      time = end - cur.scanResidual / cur.scanRate;
+      if (!(time >= start)) time = start;
+    }
+    cur.coneTime = time;
     const sourceId = this.ids[slot];
     this.shockwaves++;
     this.lastShockwaveTime = time;
@@ -331,9 +320,9 @@ export class PropagationStage {
     }
     const e = this.events[(this.eventHead + this.eventCount) % SHOCKWAVE_QUEUE];
     e.time = time;
-    this.clock.query = time;
-    this.clock.lookUp();
-    e.gameTime = this.clock.gameFound;
+    clock.query = time;
+    clock.lookUp();
+    e.gameTime = clock.gameFound;
     e.sourceId = sourceId;
     this.eventCount++;
   }

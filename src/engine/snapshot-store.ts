@@ -5,8 +5,16 @@ import type { EngineSnapshot } from './engine-types';
 import { VelocityEstimator } from '../motion';
 import type { ListenerState, SourceState } from '../dilation';
 
+/** The engine clock as frames rendered at a sample rate (engine time = frameCount / sampleRate, s). */
+export interface FrameClock {
+  readonly frameCount: number;
+  readonly sampleRate: number;
+}
+
 /** Options of SnapshotStore. */
 export interface SnapshotStoreOptions {
+  /** Where `push` reads the engine time (the engine's core: read there, no double crosses the call). */
+  clock: FrameClock;
   /** Source slots (1…4096). */
   maxSources: number;
   /** Velocity estimator smoothing (s) and teleport speed (m/s). */
@@ -39,15 +47,23 @@ export class SnapshotStore {
   private readonly mask: number;
   private readonly lis = new Float64Array(24); // prev pos, fwd, up, vel; next pos, fwd, up, vel
   private readonly lisEstimator: VelocityEstimator;
-  private arrival: Seconds = 0;
-  private interval: Seconds = 0;
+  /** Engine time of the last `push`, s. */
+  arrival: Seconds = 0.5;
+  /** Snapshot-time gap between the last two snapshots, s (0 for the first or a non-increasing time). */
+  interval: Seconds = 0.5;
   private lastTime: Seconds = NaN;
+  private readonly clock: FrameClock;
   private alpha = 1;
+  /** The interpolation point of `interpolate`, engine s (a field: V8 boxes a double passed to a call it does not inline). */
+  time: Seconds = 0.5;
 
   /** Preallocates `maxSources` slots. */
   constructor(options: SnapshotStoreOptions) {
     const n = Math.max(1, Math.min(4096, Math.floor(options.maxSources)));
     this.capacity = n;
+    this.clock = options.clock;
+    this.arrival = 0;
+    this.interval = 0;
     this.ids = new Float64Array(n);
     this.used = new Uint8Array(n);
     this.seen = new Float64Array(n);
@@ -72,21 +88,27 @@ export class SnapshotStore {
     this.lisEstimator.configure(o);
   }
 
-  /** Copies a snapshot in; positions glide from the previous snapshot over the time between the two, starting at engine time `now`. */
-  push(s: EngineSnapshot, now: Seconds): void {
+  /**
+   * Copies a snapshot in; positions glide from the previous snapshot over the time between the two, starting now (the
+   * clock's engine time). It takes no double: called once per snapshot, its caller may run unoptimised for minutes,
+   * and unoptimised code boxes every double it reads or computes (docs/allocation.md).
+   */
+  push(s: EngineSnapshot): void {
     const t = s.time;
     this.interval = Number.isFinite(t) && Number.isFinite(this.lastTime) && t > this.lastTime ? t - this.lastTime : 0;
     if (Number.isFinite(t)) this.lastTime = t;
-    this.arrival = now;
+    this.arrival = this.clock.frameCount / this.clock.sampleRate;
     this.pushes++;
     const L = this.lis;
-    for (let k = 0; k < 12; k++) L[k] = this.pushes === 1 ? NaN : L[12 + k];
+    for (let k = 0; k < 12; k++) L[k] = L[12 + k];
     const l = s.listener;
     this.put3(L, 12, l.position);
     this.put3(L, 15, l.forward);
     this.put3(L, 18, l.up);
-    const lv = l.velocity ?? this.lisEstimator.update(l.position, t);
-    this.put3(L, 21, lv);
+    // The estimators read the time from their field: V8 boxes a double passed to a call it does not inline.
+    const le = this.lisEstimator;
+    le.at = t;
+    this.put3(L, 21, l.velocity ?? le.updateAt(l.position));
     if (this.pushes === 1) for (let k = 0; k < 12; k++) L[k] = L[12 + k];
     const list = s.sources;
     for (let i = 0; i < list.length; i++) {
@@ -102,20 +124,17 @@ export class SnapshotStore {
       const wasSeen = !fresh && this.seen[slot] === this.pushes - 1;
       for (let k = 0; k < 6; k++) this.prev[o + k] = this.next[o + k];
       this.put3(this.next, o, src.position);
-      this.put3(this.next, o + 3, src.velocity ?? this.estimators[slot].update(src.position, t));
+      const e = this.estimators[slot];
+      e.at = t;
+      this.put3(this.next, o + 3, src.velocity ?? e.updateAt(src.position));
       if (!wasSeen) for (let k = 0; k < 6; k++) this.prev[o + k] = this.next[o + k];
       this.seen[slot] = this.pushes;
     }
   }
 
-  /** Snapshot-time gap between the last two snapshots, s (0 for the first or a non-increasing time). */
-  get snapshotInterval(): Seconds {
-    return this.interval;
-  }
-
-  /** Sets the interpolation point to engine time `now` and fills `listener`. */
-  interpolate(now: Seconds): void {
-    const a = this.interval > 0 ? (now - this.arrival) / this.interval : 1;
+  /** Moves the interpolation point to engine time `time` (set it first) and fills `listener`. */
+  interpolate(): void {
+    const a = this.interval > 0 ? (this.time - this.arrival) / this.interval : 1;
     this.alpha = a < 0 ? 0 : a > 1 ? 1 : a;
     const L = this.lis;
     const w = this.alpha;

@@ -47,9 +47,9 @@ export class SourceTracks {
   /** Largest speed seen per slot since its last restart, m/s (engine clock). */
   readonly maxSpeed: Float64Array;
   private readonly pendingTeleport: Uint8Array;
-  /** Engine time of the knot being appended or of the evaluation asked for, s: a field, so that no double crosses the
-   * calls into the bodies of `append` and `evaluate` (V8 boxes one passed to a call it does not inline). */
-  private at: Seconds = 0.5;
+  /** Engine time of the knot `append` adds or of the point `evaluate` reads, s: set it first. A field, so that no double
+   * crosses the call (V8 boxes one passed to a call it does not inline, docs/allocation.md). */
+  at: Seconds = 0.5;
   /** TRACK_EXTRAPOLATE_SECONDS as a field: a module constant merged with a computed double made V8 box the double. */
   private readonly reach: Seconds = TRACK_EXTRAPOLATE_SECONDS;
 
@@ -88,25 +88,8 @@ export class SourceTracks {
     return this.count[slot];
   }
 
-  /** Engine time of the first knot of `slot` (NaN when empty). */
-  startTime(slot: number): Seconds {
-    return this.count[slot] > 0 ? this.time[slot * this.knots + this.first[slot]] : NaN;
-  }
-
-  /** Engine time of the last knot of `slot` (NaN when empty). */
-  endTime(slot: number): Seconds {
-    const n = this.count[slot];
-    return n > 0 ? this.time[this.index(slot, n - 1)] : NaN;
-  }
-
-  /** Appends a knot at engine time T; `velocity` (m/s, engine clock) or null to derive it from positions. */
-  append(slot: number, T: Seconds, p: Vec3Like, velocity: Vec3Like | null | undefined): number {
-    this.at = T;
-    return this.appendAt(slot, p, velocity);
-  }
-
-  /** The body of `append`, at engine time `at`. */
-  private appendAt(slot: number, p: Vec3Like, velocity: Vec3Like | null | undefined): number {
+  /** Appends a knot at engine time `at`; `velocity` (m/s, engine clock) or null to derive it from positions. */
+  append(slot: number, p: Vec3Like, velocity: Vec3Like | null | undefined): number {
     const T = this.at;
     const lim = TRACK_MAX_COORDINATE;
     if (!(p.x >= -lim && p.x <= lim && p.y >= -lim && p.y <= lim && p.z >= -lim && p.z <= lim) || !Number.isFinite(T)) {
@@ -179,16 +162,10 @@ export class SourceTracks {
   }
 
   /**
-   * Position and velocity (m/s, engine clock) of `slot` at engine time T into `outP`/`outV`; returns TRACK_INSIDE,
+   * Position and velocity (m/s, engine clock) of `slot` at engine time `at` into `outP`/`outV`; returns TRACK_INSIDE,
    * TRACK_BEFORE (first position held, velocity 0) or TRACK_AFTER. An empty slot gives the origin, velocity 0.
    */
-  evaluate(slot: number, T: Seconds, outP: Vec3Like, outV: Vec3Like): number {
-    this.at = T;
-    return this.evaluateAt(slot, outP, outV);
-  }
-
-  /** The body of `evaluate`, at engine time `at`. */
-  private evaluateAt(slot: number, outP: Vec3Like, outV: Vec3Like): number {
+  evaluate(slot: number, outP: Vec3Like, outV: Vec3Like): number {
     const T = this.at;
     const n = this.count[slot];
     const P = this.pos;

@@ -43,8 +43,9 @@ export class VoiceTone {
     return this.wet ? Math.pow(2, this.cutoffLog2.value) : OPEN_CUTOFF_HZ;
   }
 
-  /** Reads the block's target cutoff, Hz (the logarithm is kept while it repeats). */
-  aim(cutoffHz: Hz): void {
+  /** Reads the block's target cutoff from `t.cutoffHz`, Hz (the logarithm is kept while it repeats); the object, not the double, crosses the call: V8 boxes a double passed to a call it does not inline. */
+  aim(t: { readonly cutoffHz: Hz }): void {
+    const cutoffHz = t.cutoffHz;
     if (cutoffHz !== this.memoHz) {
       this.memoHz = cutoffHz;
       this.target = Math.log2(cutoffHz);

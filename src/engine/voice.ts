@@ -253,7 +253,7 @@ export class Voice {
     const envelope = this.envelope;
     const resumed = envelope.step((t.frozen === true && this.own.followsTime) || this.isHeld, frames);
     pitch.aim(t);
-    tone.aim(t.cutoffHz);
+    tone.aim(t);
     gain.aim(t);
     if (this.isFresh) {
       this.isFresh = false;

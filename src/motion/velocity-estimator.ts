@@ -27,13 +27,16 @@ export class VelocityEstimator {
   private smoothing: Seconds;
   private teleportSpeed: MetersPerSecond;
   private readonly last: Vec3Like = { x: 0, y: 0, z: 0 };
-  private lastTime: Seconds = 0;
+  private lastTime: Seconds = 0.5;
   private primed = false;
+  /** Wall-clock time of the sample `updateAt` reads, s (a field: V8 boxes a double passed to a call it does not inline). */
+  at: Seconds = 0.5;
 
   /** Creates an estimator; options as VelocityEstimatorOptions (invalid values fall back to the defaults). */
   constructor(options: VelocityEstimatorOptions = velocityEstimatorDefaults) {
     this.smoothing = velocityEstimatorDefaults.smoothingSeconds;
     this.teleportSpeed = velocityEstimatorDefaults.teleportSpeed;
+    this.lastTime = 0;
     this.configure(options);
   }
 
@@ -51,6 +54,13 @@ export class VelocityEstimator {
    * Repeated or backwards times and non-finite inputs are ignored (counted in `ignored`).
    */
   update(position: Vec3Like, time: Seconds): Vec3Like {
+    this.at = time;
+    return this.updateAt(position);
+  }
+
+  /** `update` at the time in `at` (set it first): the form for hot callers, no double crosses the call. */
+  updateAt(position: Vec3Like): Vec3Like {
+    const time = this.at;
     const px = position.x;
     const py = position.y;
     const pz = position.z;
@@ -59,7 +69,7 @@ export class VelocityEstimator {
       return this.velocity;
     }
     if (!this.primed) {
-      this.setReference(px, py, pz, time);
+      this.setReference(position);
       this.primed = true;
       return this.velocity;
     }
@@ -79,7 +89,7 @@ export class VelocityEstimator {
       this.velocity.x = 0;
       this.velocity.y = 0;
       this.velocity.z = 0;
-      this.setReference(px, py, pz, time);
+      this.setReference(position);
       return this.velocity;
     }
     const a = this.smoothing > 0 ? 1 - Math.exp(-dt / this.smoothing) : 1;
@@ -87,7 +97,7 @@ export class VelocityEstimator {
     v.x += a * (rx - v.x);
     v.y += a * (ry - v.y);
     v.z += a * (rz - v.z);
-    this.setReference(px, py, pz, time);
+    this.setReference(position);
     return v;
   }
 
@@ -99,10 +109,11 @@ export class VelocityEstimator {
     this.velocity.z = 0;
   }
 
-  private setReference(x: number, y: number, z: number, time: Seconds): void {
-    this.last.x = x;
-    this.last.y = y;
-    this.last.z = z;
-    this.lastTime = time;
+  /** The reference point becomes `p` at time `at` (no double crosses the call). */
+  private setReference(p: Vec3Like): void {
+    this.last.x = p.x;
+    this.last.y = p.y;
+    this.last.z = p.z;
+    this.lastTime = this.at;
   }
 }

@@ -23,7 +23,7 @@ function sineBlocks(tone: VoiceTone, hz: number, blocks: number): number {
 describe('VoiceTone', () => {
   it('leaves the signal untouched while the cutoff is open', () => {
     const tone = new VoiceTone(SR, 0.02);
-    tone.aim(OPEN_CUTOFF_HZ);
+    tone.aim({ cutoffHz: OPEN_CUTOFF_HZ });
     tone.jump();
     const x = [Float32Array.from({ length: N }, (_, i) => Math.sin(i))];
     const copy = Float32Array.from(x[0]);
@@ -38,7 +38,7 @@ describe('VoiceTone', () => {
     { fc: 4000, f: 4000 },
   ])('at cutoff $fc Hz passes $f Hz at the Butterworth magnitude', ({ fc, f }) => {
     const tone = new VoiceTone(SR, 0);
-    tone.aim(fc);
+    tone.aim({ cutoffHz: fc });
     tone.jump();
     const want = 1 / Math.sqrt(1 + Math.pow(Math.tan((Math.PI * f) / SR) / Math.tan((Math.PI * fc) / SR), 4));
     expect(tone.wet).toBe(true);
@@ -47,10 +47,10 @@ describe('VoiceTone', () => {
 
   it('once an opened cutoff has arrived, crossfades from filtered to dry over one block', () => {
     const tone = new VoiceTone(SR, 0);
-    tone.aim(1000);
+    tone.aim({ cutoffHz: 1000 });
     tone.jump();
     sineBlocks(tone, 200, 4);
-    tone.aim(OPEN_CUTOFF_HZ);
+    tone.aim({ cutoffHz: OPEN_CUTOFF_HZ });
     const x = [new Float32Array(N).fill(1)];
     tone.process(x, [new Float32Array(N)], N); // the cutoff glides open, still filtered
     expect(tone.wet).toBe(true);
@@ -73,7 +73,7 @@ describe('VoiceTone', () => {
     const x = [new Float32Array(N), new Float32Array(N)];
     for (let b = 0; b < targets.length; b++) {
       const t = Math.log2(targets[b]);
-      tone.aim(targets[b]);
+      tone.aim({ cutoffHz: targets[b] });
       if (b === 0) {
         tone.jump();
         v = t;
