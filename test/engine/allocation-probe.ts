@@ -4,8 +4,7 @@
 // what the two readings allocate themselves (measured around an empty span, after 20 such readings). With no collection in between the used
 // heap only grows, by every byte allocated. A collection inside a span is counted from its 'gc' performance entry:
 // a scavenge would hide allocation, so the test fails on any.
-import { getHeapStatistics } from 'node:v8';
-import { PerformanceObserver, performance, type PerformanceEntry } from 'node:perf_hooks';
+import { gc, spanMeter } from './heap-span';
 import type { KernelPreference } from '../../src/index';
 import { allocationScene } from './allocation-scene';
 
@@ -31,32 +30,12 @@ export interface AllocationReport {
   errors: number;
 }
 
-const gc = (globalThis as unknown as { gc?: (o?: { type: 'major' | 'minor' }) => void }).gc;
-
 async function main(): Promise<void> {
   if (gc === undefined) throw new Error('run with node --expose-gc');
   const kernel = (process.argv[2] ?? 'auto') as KernelPreference;
-  const entries: PerformanceEntry[] = [];
-  const observer = new PerformanceObserver((list) => entries.push(...list.getEntries()));
-  observer.observe({ entryTypes: ['gc'] });
-  const settle = async () => {
-    for (let i = 0; i < 3; i++) await new Promise((r) => setImmediate(r));
-    await new Promise((r) => setTimeout(r, 0));
-    entries.push(...observer.takeRecords());
-  };
   // A scavenge before each span empties the young generation; a full collection would also let V8 drop optimised
   // code that embeds objects it no longer holds ("weak objects"), and code running unoptimised boxes its doubles.
-  const across = async (work: () => void) => {
-    gc({ type: 'minor' });
-    await settle();
-    const from = performance.now();
-    const before = getHeapStatistics().used_heap_size;
-    work();
-    const after = getHeapStatistics().used_heap_size;
-    const to = performance.now();
-    await settle();
-    return { bytes: after - before, collections: entries.filter((e) => e.startTime >= from && e.startTime <= to).length };
-  };
+  const { across, stop } = spanMeter();
 
   const scene = allocationScene(kernel);
   for (let b = 0; b < WARM_UP_BLOCKS; b += WARM_UP_CALL) scene.run(WARM_UP_CALL);
@@ -75,7 +54,7 @@ async function main(): Promise<void> {
     report.collections += m.collections;
     report.spans.push((m.bytes - overhead.bytes) / SPAN_BLOCKS);
   }
-  observer.disconnect();
+  stop();
   const st = scene.engine.stats;
   report.voices = st.activeVoices + st.virtualVoices;
   report.errors = st.errors;

@@ -3,8 +3,7 @@
 // every frame — a snapshot (source counts cycling across every list band of the decoder, with and without velocities),
 // a voice's gain and ratio (set-voice) and a time-scale ramp — are each already a structured clone, as the port
 // delivers them: what is counted is what the audio thread allocates on top of the message. Prints one JSON line.
-import { getHeapStatistics } from 'node:v8';
-import { PerformanceObserver, performance, type PerformanceEntry } from 'node:perf_hooks';
+import { gc, spanMeter } from '../engine/heap-span';
 import { EngineHost } from '../../runtime/worklet/engine-host';
 import { SnapshotDecoder, decodeCommand, decodeSnapshot, encodeSnapshot, type Command } from '../../runtime/protocol';
 import { defaultTuning } from '../../src/tuning/index';
@@ -36,8 +35,6 @@ export interface MessageAllocationReport {
   errors: number;
 }
 
-const gc = (globalThis as unknown as { gc?: (o?: { type: 'major' | 'minor' }) => void }).gc;
-
 /** One frame's three messages, cloned as postMessage clones them. */
 function frameMessages(frame: number): Command[] {
   const n = COUNTS[frame % COUNTS.length];
@@ -61,25 +58,7 @@ function frameMessages(frame: number): Command[] {
 
 async function main(): Promise<void> {
   if (gc === undefined) throw new Error('run with node --expose-gc');
-  const entries: PerformanceEntry[] = [];
-  const observer = new PerformanceObserver((list) => entries.push(...list.getEntries()));
-  observer.observe({ entryTypes: ['gc'] });
-  const settle = async () => {
-    for (let i = 0; i < 3; i++) await new Promise((r) => setImmediate(r));
-    await new Promise((r) => setTimeout(r, 0));
-    entries.push(...observer.takeRecords());
-  };
-  const across = async (work: () => void) => {
-    gc({ type: 'minor' });
-    await settle();
-    const from = performance.now();
-    const before = getHeapStatistics().used_heap_size;
-    work();
-    const after = getHeapStatistics().used_heap_size;
-    const to = performance.now();
-    await settle();
-    return { bytes: after - before, collections: entries.filter((e) => e.startTime >= from && e.startTime <= to).length };
-  };
+  const { across, stop } = spanMeter();
 
   const host = new EngineHost({
     sampleRate: RATE, startContextTime: 0, post: () => {},
@@ -157,7 +136,7 @@ async function main(): Promise<void> {
     }
     report[names[w]] = bytes / MEASURED_FRAMES;
   }
-  observer.disconnect();
+  stop();
   report.errors = host.errors + host.engine.stats.errors + (sink < 0 ? 1 : 0);
   process.stdout.write(`${JSON.stringify(report)}\n`);
 }
