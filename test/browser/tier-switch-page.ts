@@ -36,9 +36,12 @@ async function tierSwitch(mainThreadTables: boolean): Promise<SwitchResult> {
   const tone = new Float32Array(RATE).map((_, i) => 0.25 * Math.sin((2 * Math.PI * 440 * i) / RATE));
   r.play(r.load({ channels: [tone], sampleRate: RATE }), { group: 'interface', loop: true, ratio: 1.7 });
   let peakMs = 0;
+  let lastStatsTime = 0;
   r.node.port.addEventListener('message', (e: MessageEvent) => {
-    const load = (e.data as { type: string; load?: { peakMs?: number } }).load;
-    if ((e.data as { type: string }).type === 'stats' && load?.peakMs !== undefined) peakMs = Math.max(peakMs, load.peakMs);
+    const m = e.data as { type: string; contextTime?: number; load?: { peakMs?: number } };
+    if (m.type !== 'stats') return;
+    if (m.load?.peakMs !== undefined) peakMs = Math.max(peakMs, m.load.peakMs);
+    if (m.contextTime !== undefined) lastStatsTime = Math.max(lastStatsTime, m.contextTime);
   });
   const switched = ctx.suspend(0.1).then(async () => {
     const t = JSON.parse(serializeTuning(defaultTuning));
@@ -51,6 +54,10 @@ async function tierSwitch(mainThreadTables: boolean): Promise<SwitchResult> {
   await ctx.startRendering();
   await switched;
   await r.flush();
+  // The rendered context is closed, so flush() no longer waits for the worklet; the stats it posted near the end of the
+  // render may still be queued on the main thread (seen on a loaded machine): wait for the last report (one every
+  // 0.05 s of audio, so one at or after 0.9 s), up to 5 s.
+  for (let waited = 0; lastStatsTime < 0.9 && waited < 5000; waited += 10) await new Promise((done) => setTimeout(done, 10));
   const w = r.tableWork;
   const result = { tier: String(r.stats.tier), kernel: String(r.stats.kernel), designed: w?.designed ?? -1, stridesBuilt: w?.stridesBuilt ?? -1, installing: w?.installing ?? -1, peakMs, errors };
   r.dispose();
