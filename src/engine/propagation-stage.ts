@@ -1,6 +1,7 @@
 // The propagation stage: sources tracked from their first snapshot (trajectory rings on the engine clock), the game
 // clock, the emission-time solution per source and block (delay, emission-time position, game-clock Doppler factor),
-// Mach-cone arrivals reported as shockwave events, and each propagating voice's per-sample read ratios.
+// Mach-cone arrivals reported as shockwave events; the inputs and results of each propagating voice's per-sample read
+// ratios (ratio-ramp.ts).
 import type { Seconds, Vec3Like } from '../units';
 import type { EngineSnapshot, ShockwaveEvent } from './engine-types';
 import type { SnapshotStore } from './snapshot-store';
@@ -8,6 +9,7 @@ import { MAX_RATIO, MIN_RATIO } from '../dsp';
 import { GameClock } from './game-clock';
 import { SourceTracks, TRACK_KNOTS } from './source-tracks';
 import { EmissionSolver, createEmissionSolution, EMISSION_HISTORY, EMISSION_NONE, type EmissionSolution } from './emission-solver';
+import { fillRatioRamp, type RatioRampState } from './ratio-ramp';
 
 /** Shockwave events kept until read (older ones are dropped and counted). */
 export const SHOCKWAVE_QUEUE = 64;
@@ -27,7 +29,7 @@ export interface PropagationStageOptions {
 }
 
 /** Tracks, clock and emission-time solutions for an engine; creates no objects after construction; its bodies take and return no doubles (docs/allocation.md). */
-export class PropagationStage {
+export class PropagationStage implements RatioRampState {
   /** The game clock over engine time. */
   readonly clock = new GameClock();
   /** Trajectories: one slot per source plus the listener's (slot `listenerSlot`). */
@@ -74,8 +76,8 @@ export class PropagationStage {
   /** Source frames advanced by the last `fillRamp` (the sum of its ratios). */
   rampSum = 0.5;
   /** The resampler's ratio range as fields: module constants merged with a computed double made V8 box the double. */
-  private readonly minRatio = MIN_RATIO;
-  private readonly maxRatio = MAX_RATIO;
+  readonly minRatio = MIN_RATIO;
+  readonly maxRatio = MAX_RATIO;
 
   /** Preallocates the tracks of `maxSources` sources and the listener. */
   constructor(options: PropagationStageOptions) {
@@ -225,53 +227,9 @@ export class PropagationStage {
     return k;
   }
 
-  /**
-   * Writes one voice's per-sample read ratios for a block of `frames`: the time ratio ramped linearly from r0 to r1
-   * times the Doppler factor going from d0 to d1 (values at the block's start and end) with mean `mean`, clamped to
-   * the resampler's range (counted). The five doubles are taken from `ramp` (r0, r1, d0, d1, mean) and their sum (source
-   * frames advanced) is left in `rampSum`: a call V8 does not inline would box every double passed or returned.
-   */
+  /** Writes one voice's per-sample read ratios for a block of `frames` from `ramp` into `out` (ratio-ramp.ts). */
   fillRamp(out: Float32Array, frames: number): void {
-    const q = this.ramp;
-    const r0 = q[0];
-    const r1 = q[1];
-    const d0 = q[2];
-    const d1 = q[3];
-    const mean = q[4];
-    const dr = (r1 - r0) / frames;
-    const dd = (d1 - d0) / frames;
-    const lo = d0 < d1 ? d0 : d1;
-    const hi = d0 < d1 ? d1 : d0;
-    // The Doppler factor over the block: the derivative of the cubic Hermite U with U(0) = 0, U(1) = mean, U'(0) = d0,
-    // U'(1) = d1, averaged over each sample, so that the read advances by exactly the emission-time span; linear
-    // when the mean is unknown or implausible (a new track, a Mach cone).
-    const cubic = mean >= 0.5 * lo && mean <= 2 * hi;
-    const minRatio = this.minRatio;
-    const maxRatio = this.maxRatio;
-    let uPrev = 0;
-    let sum = 0;
-    for (let i = 0; i < frames; i++) {
-      let d: number;
-      if (cubic) {
-        const x = (i + 1) / frames;
-        const x2 = x * x;
-        const x3 = x2 * x;
-        const u = (x3 - 2 * x2 + x) * d0 + (-2 * x3 + 3 * x2) * mean + (x3 - x2) * d1;
-        d = (u - uPrev) * frames;
-        uPrev = u;
-      } else d = d0 + dd * i;
-      let r = (r0 + dr * i) * d;
-      if (!(r >= minRatio)) {
-        r = minRatio;
-        this.ratioClamps++;
-      } else if (r > maxRatio) {
-        r = maxRatio;
-        this.ratioClamps++;
-      }
-      out[i] = r;
-      sum += out[i];
-    }
-    this.rampSum = sum;
+    fillRatioRamp(this, out, frames);
   }
 
   /** Engine time of the start of the last solved block, s. */
