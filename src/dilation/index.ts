@@ -1,5 +1,5 @@
 // Public entry of src/dilation: time flow, curves, group policies, snapshot → per-voice targets.
-export { TimeFlow, timeFlowDefaults, clampTimeScale, easeValue, EXPONENTIAL_FLOOR } from './time-flow';
+export { TimeFlow, timeFlowDefaults, easeValue, EXPONENTIAL_FLOOR } from './time-flow';
 export type { TimeFlowOptions } from './time-flow';
 export { Curve, fritschCarlsonTangents, MIN_KEY_SPACING } from './curve';
 export { CompiledGroup, policyFollowsSpeed, policyAppliesTone } from './group-policy';

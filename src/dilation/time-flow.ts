@@ -17,11 +17,6 @@ export interface TimeFlowOptions {
 /** Frozen defaults of TimeFlow. */
 export const timeFlowDefaults: Readonly<Required<TimeFlowOptions>> = Object.freeze({ initial: 1 });
 
-/** Clamps a requested time scale to 0…MAX_TIME_SCALE; NaN gives 0. */
-export function clampTimeScale(value: number): number {
-  if (!(value > 0)) return 0;
-  return value < MAX_TIME_SCALE ? value : MAX_TIME_SCALE;
-}
 
 /** Eases u ∈ [0, 1] from `from` to `to`. */
 export function easeValue(from: number, to: number, u: number, easing: Easing): number {
@@ -166,7 +161,7 @@ export class TimeFlow {
   }
 
   /**
-   * Sets `to` to `value` clamped as clampTimeScale does, counting a change. Writes the field, returning nothing: a
+   * Sets `to` to `value` clamped to 0…MAX_TIME_SCALE (NaN gives 0), counting a change. Writes the field, returning nothing: a
    * double returned from a call V8 does not inline is boxed (docs/allocation.md).
    */
   private clampTarget(value: number): void {
