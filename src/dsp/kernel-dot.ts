@@ -156,3 +156,52 @@ export function dotRowsSplitPair(pm: Float32Array, k0: number, k2: number, taps:
   io[2] = a0 + io[0] * (a1 + b1 - a0);
   io[3] = c0 + io[1] * (c1 + d1 - c0);
 }
+
+// The stretched fast path (ratios above 1): the dense kernel read at k0, k0 − stride, … against x[m…], `count` taps,
+// again even and odd taps in two chains.
+
+/** One-column sum (a table point), into io[2]. */
+export function columnSum(d: Float32Array, k0: number, stride: number, x: Float32Array, m: number, count: number, io: Float64Array): void {
+  const stride2 = stride * 2;
+  const even = count & ~1;
+  let k = k0;
+  let j = 0;
+  let a0 = 0;
+  let b0 = 0;
+  for (; j < even; j += 2) {
+    a0 += d[k] * x[m + j];
+    b0 += d[k - stride] * x[m + j + 1];
+    k -= stride2;
+  }
+  if (j < count) a0 += d[k] * x[m + j];
+  io[2] = a0 + b0;
+}
+
+/** Two adjacent columns (k and k + 1), linearly interpolated by f = io[0], into io[1]. */
+export function dotColumns(d: Float32Array, k0: number, stride: number, x: Float32Array, m: number, count: number, io: Float64Array): void {
+  const stride2 = stride * 2;
+  const even = count & ~1;
+  let k = k0;
+  let j = 0;
+  let a0 = 0;
+  let b0 = 0;
+  let a1 = 0;
+  let b1 = 0;
+  for (; j < even; j += 2) {
+    const s0 = x[m + j];
+    const s1 = x[m + j + 1];
+    const k2 = k - stride;
+    a0 += d[k] * s0;
+    a1 += d[k + 1] * s0;
+    b0 += d[k2] * s1;
+    b1 += d[k2 + 1] * s1;
+    k -= stride2;
+  }
+  if (j < count) {
+    const s0 = x[m + j];
+    a0 += d[k] * s0;
+    a1 += d[k + 1] * s0;
+  }
+  a0 += b0;
+  io[1] = a0 + io[0] * (a1 + b1 - a0);
+}

@@ -4,7 +4,7 @@
 import { KernelTable } from './kernel-table';
 import { MAX_RATIO } from './quality-tiers';
 import { ReadCursor } from './read-cursor';
-import { dotRows, dotRowsSplit, dotRowsSplitPair, dotStride, fillRows, fillStride, rowSum, rowSumPair } from './kernel-dot';
+import { columnSum, dotColumns, dotRows, dotRowsSplit, dotRowsSplitPair, dotStride, fillRows, fillStride, rowSum, rowSumPair } from './kernel-dot';
 
 const EMPTY = new Float64Array(0);
 
@@ -110,7 +110,8 @@ export class TypeScriptTaps {
               stride = t.strideFor(r2) | 0;
               lastR = r2;
             }
-            // The next position as moveTo gives it when it does not wrap (no pairing across a wrap).
+            // The next position as moveTo gives it without a wrap. It is ≥ pos, so m2 ≥ mLo ≥ lo; a wrap (p2 ≥ loopEnd,
+            // which is hi) fails m2 + taps ≤ hi and is left to the next sample's own step.
             const p2 = pos + r;
             const n2 = Math.floor(p2) | 0;
             const ph2 = (p2 - n2) * phases;
@@ -119,7 +120,7 @@ export class TypeScriptTaps {
             k2 = (phi2 * taps) | 0;
             // Two windows apart are paired only for steps above 1/2: below, one sample left alone lets the
             // following ones pair on a shared window (the cheaper form).
-            if (stride === phases && m2 >= lo && m2 + taps <= hi && !(cur.loop && p2 >= cur.loopEnd) && (m2 === mLo || r > 0.5)) {
+            if (stride === phases && m2 + taps <= hi && (m2 === mLo || r > 0.5)) {
               if (ph === phi && ph2 === phi2) {
                 rowSumPair(pm, k0, k2, taps, x, mLo, m2, io);
                 paired = true;
@@ -167,47 +168,14 @@ export class TypeScriptTaps {
         const count = this.count[ci];
         if (mono && mLo >= lo && mLo + count <= hi) {
           const k0 = (a1n * stride + halfDense + ci) | 0;
-          const stride2 = stride * 2;
-          const even = count & ~1;
-          let k = k0;
-          let j = 0;
-          let a0 = 0;
-          let b0 = 0;
+          const io = this.dotIo;
           // On a table point (c = ci): one column, as on a table phase above.
-          if (c === ci) {
-            for (; j < even; j += 2) {
-              a0 += dense[k] * x[mLo + j];
-              b0 += dense[k - stride] * x[mLo + j + 1];
-              k -= stride2;
-            }
-            if (j < count) a0 += dense[k] * x[mLo + j];
-            a0 += b0;
-          }
-          if (c === ci && a0 - a0 === 0) y[o + i] = (stride / phases) * a0;
+          if (c === ci) columnSum(dense, k0, stride, x, mLo, count, io);
+          if (c === ci && io[2] - io[2] === 0) y[o + i] = (stride / phases) * io[2];
           else {
-            k = k0;
-            j = 0;
-            a0 = 0;
-            b0 = 0;
-            let a1 = 0;
-            let b1 = 0;
-            for (; j < even; j += 2) {
-              const s0 = x[mLo + j];
-              const s1 = x[mLo + j + 1];
-              const k2 = k - stride;
-              a0 += dense[k] * s0;
-              a1 += dense[k + 1] * s0;
-              b0 += dense[k2] * s1;
-              b1 += dense[k2 + 1] * s1;
-              k -= stride2;
-            }
-            if (j < count) {
-              const s0 = x[mLo + j];
-              a0 += dense[k] * s0;
-              a1 += dense[k + 1] * s0;
-            }
-            a0 += b0;
-            y[o + i] = (stride / phases) * (a0 + (c - ci) * (a1 + b1 - a0));
+            io[0] = c - ci;
+            dotColumns(dense, k0, stride, x, mLo, count, io);
+            y[o + i] = (stride / phases) * io[1];
           }
           cur.lastStretch = phases / stride;
         } else this.renderOne(out, o + i, stride);
