@@ -8,7 +8,7 @@ import { columnSum, dotColumns, dotRows, dotRowsSplit, dotRowsSplitPair, dotStri
 
 const EMPTY = new Float64Array(0);
 
-/** The block loop of the TypeScript kernel: a mono in-range fast path, and a general path (edges, loop seams, several channels). */
+/** The block loop of the TypeScript kernel: a mono in-range fast path (unstretched: output samples in pairs where it can), and a general path (edges, loop seams, several channels). */
 export class TypeScriptTaps {
   /** Ratio at the block's first sample and its change over the block (handed in fields: V8 boxes a double passed to a call it does not inline). */
   rs = 0.5;
@@ -23,7 +23,7 @@ export class TypeScriptTaps {
   private before = new Int32Array(0);
   private count = new Int32Array(0);
   private spanStride = 0;
-  /** The phase fraction in [0] and a dot product in [1] handed to and from kernel-dot (no boxed doubles). */
+  /** Doubles handed to and from kernel-dot (no boxed doubles): fractions in [0] and [1], sums in [1] to [3], as each function says. */
   private readonly dotIo = new Float64Array(4);
 
   /** Scratch for `channels` channels and the table's widest (ratio 4) window. */
