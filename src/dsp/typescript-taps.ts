@@ -4,11 +4,11 @@
 import { KernelTable } from './kernel-table';
 import { MAX_RATIO } from './quality-tiers';
 import { ReadCursor } from './read-cursor';
-import { dotRows, dotStride, fillRows, fillStride } from './kernel-dot';
+import { columnSum, dotColumns, dotRows, dotRowsSplit, dotRowsSplitPair, dotStride, fillRows, fillStride, rowSum, rowSumPair } from './kernel-dot';
 
 const EMPTY = new Float64Array(0);
 
-/** The block loop of the TypeScript kernel: a mono in-range fast path, and a general path (edges, loop seams, several channels). */
+/** The block loop of the TypeScript kernel: a mono in-range fast path (unstretched: output samples in pairs where it can), and a general path (edges, loop seams, several channels). */
 export class TypeScriptTaps {
   /** Ratio at the block's first sample and its change over the block (handed in fields: V8 boxes a double passed to a call it does not inline). */
   rs = 0.5;
@@ -23,8 +23,8 @@ export class TypeScriptTaps {
   private before = new Int32Array(0);
   private count = new Int32Array(0);
   private spanStride = 0;
-  /** The phase fraction in [0] and a dot product in [1] handed to and from kernel-dot (no boxed doubles). */
-  private readonly dotIo = new Float64Array(2);
+  /** Doubles handed to and from kernel-dot (no boxed doubles): fractions in [0] and [1], sums in [1] to [3], as each function says. */
+  private readonly dotIo = new Float64Array(4);
 
   /** Scratch for `channels` channels and the table's widest (ratio 4) window. */
   constructor(cur: ReadCursor, channels: number, table: KernelTable) {
@@ -76,13 +76,18 @@ export class TypeScriptTaps {
         lastR = Infinity;
       }
     }
+    // The next sample's ratio once looked ahead for pairing (taken once: sanitize counts clamps).
+    let rNext = 0.5;
+    let haveNext = false;
     for (let i = 0; i < frames; i++) {
-      const r = ratios === null ? (dr === 0 ? rs : rs + (dr * i) / frames) : cur.sanitize(ratios[ro + i]);
+      let r = rNext;
+      if (haveNext) haveNext = false;
+      else r = ratios === null ? (dr === 0 ? rs : rs + (dr * i) / frames) : cur.sanitize(ratios[ro + i]);
       if (r !== lastR && lastR !== Infinity) {
         stride = t.strideFor(r) | 0;
         lastR = r;
       }
-      const pos = cur.pos;
+      let pos = cur.pos;
       const n = Math.floor(pos) | 0;
       const frac = pos - n;
       if (stride === phases) {
@@ -91,35 +96,66 @@ export class TypeScriptTaps {
           const ph = frac * phases;
           const phi = ph | 0;
           const k0 = (phi * taps) | 0;
-          let a0 = 0;
-          let b0 = 0;
+          const io = this.dotIo;
+          // Look ahead: when the next sample is also on this path, both are summed in one loop (twice the
+          // independent chains, one read of a shared window; each sample keeps its own order of additions).
+          let paired = false;
+          let k2 = 0;
+          let m2 = 0;
+          if (i + 1 < frames) {
+            const r2 = ratios === null ? (dr === 0 ? rs : rs + (dr * (i + 1)) / frames) : cur.sanitize(ratios[ro + i + 1]);
+            rNext = r2;
+            haveNext = true;
+            if (r2 !== lastR && lastR !== Infinity) {
+              stride = t.strideFor(r2) | 0;
+              lastR = r2;
+            }
+            // The next position as moveTo gives it without a wrap. It is ≥ pos, so m2 ≥ mLo ≥ lo; a wrap (p2 ≥ loopEnd,
+            // which is hi) fails m2 + taps ≤ hi and is left to the next sample's own step.
+            const p2 = pos + r;
+            const n2 = Math.floor(p2) | 0;
+            const ph2 = (p2 - n2) * phases;
+            const phi2 = ph2 | 0;
+            m2 = (n2 - halfTaps + 1) | 0;
+            k2 = (phi2 * taps) | 0;
+            // Two windows apart are paired only for steps above 1/2: below, one sample left alone lets the
+            // following ones pair on a shared window (the cheaper form).
+            if (stride === phases && m2 + taps <= hi && (m2 === mLo || r > 0.5)) {
+              if (ph === phi && ph2 === phi2) {
+                rowSumPair(pm, k0, k2, taps, x, mLo, m2, io);
+                paired = true;
+              } else if (ph !== phi && ph2 !== phi2) {
+                io[0] = ph - phi;
+                io[1] = ph2 - phi2;
+                dotRowsSplitPair(pm, k0, k2, taps, x, mLo, m2, io);
+                paired = true;
+              }
+            }
+          }
           // On a table phase (ph = phi) the second row's weight is 0, and a0 + 0·(…) is a0 whenever a0 is finite
           // (then so is every tap, and the second row's sum): one row gives the same sample. A non-finite a0 (a
           // non-finite source sample in the window) takes the full form.
-          if (ph === phi) {
-            for (let j = 0; j < taps; j += 2) {
-              a0 += pm[k0 + j] * x[mLo + j];
-              b0 += pm[k0 + j + 1] * x[mLo + j + 1];
-            }
-            a0 += b0;
+          if (paired && ph === phi) {
+            const b = io[3];
+            this.finishRow(y, o + i, k0, mLo);
+            io[2] = b;
+            this.finishRow(y, o + i + 1, k2, m2);
+          } else if (paired) {
+            y[o + i] = io[2];
+            y[o + i + 1] = io[3];
+          } else if (ph === phi) {
+            rowSum(pm, k0, taps, x, mLo, io);
+            this.finishRow(y, o + i, k0, mLo);
+          } else {
+            io[0] = ph - phi;
+            dotRowsSplit(pm, k0, taps, x, mLo, io);
+            y[o + i] = io[1];
           }
-          if (ph === phi && a0 - a0 === 0) y[o + i] = a0;
-          else {
-            const k1 = (k0 + taps) | 0;
-            a0 = 0;
-            b0 = 0;
-            let a1 = 0;
-            let b1 = 0;
-            for (let j = 0; j < taps; j += 2) {
-              const s0 = x[mLo + j];
-              const s1 = x[mLo + j + 1];
-              a0 += pm[k0 + j] * s0;
-              a1 += pm[k1 + j] * s0;
-              b0 += pm[k0 + j + 1] * s1;
-              b1 += pm[k1 + j + 1] * s1;
-            }
-            a0 += b0;
-            y[o + i] = a0 + (ph - phi) * (a1 + b1 - a0);
+          if (paired) {
+            i++;
+            pos += r;
+            r = rNext;
+            haveNext = false;
           }
           cur.lastStretch = 1;
         } else this.renderOne(out, o + i, stride);
@@ -132,53 +168,32 @@ export class TypeScriptTaps {
         const count = this.count[ci];
         if (mono && mLo >= lo && mLo + count <= hi) {
           const k0 = (a1n * stride + halfDense + ci) | 0;
-          const stride2 = stride * 2;
-          const even = count & ~1;
-          let k = k0;
-          let j = 0;
-          let a0 = 0;
-          let b0 = 0;
+          const io = this.dotIo;
           // On a table point (c = ci): one column, as on a table phase above.
-          if (c === ci) {
-            for (; j < even; j += 2) {
-              a0 += dense[k] * x[mLo + j];
-              b0 += dense[k - stride] * x[mLo + j + 1];
-              k -= stride2;
-            }
-            if (j < count) a0 += dense[k] * x[mLo + j];
-            a0 += b0;
-          }
-          if (c === ci && a0 - a0 === 0) y[o + i] = (stride / phases) * a0;
+          if (c === ci) columnSum(dense, k0, stride, x, mLo, count, io);
+          if (c === ci && io[2] - io[2] === 0) y[o + i] = (stride / phases) * io[2];
           else {
-            k = k0;
-            j = 0;
-            a0 = 0;
-            b0 = 0;
-            let a1 = 0;
-            let b1 = 0;
-            for (; j < even; j += 2) {
-              const s0 = x[mLo + j];
-              const s1 = x[mLo + j + 1];
-              const k2 = k - stride;
-              a0 += dense[k] * s0;
-              a1 += dense[k + 1] * s0;
-              b0 += dense[k2] * s1;
-              b1 += dense[k2 + 1] * s1;
-              k -= stride2;
-            }
-            if (j < count) {
-              const s0 = x[mLo + j];
-              a0 += dense[k] * s0;
-              a1 += dense[k + 1] * s0;
-            }
-            a0 += b0;
-            y[o + i] = (stride / phases) * (a0 + (c - ci) * (a1 + b1 - a0));
+            io[0] = c - ci;
+            dotColumns(dense, k0, stride, x, mLo, count, io);
+            y[o + i] = (stride / phases) * io[1];
           }
           cur.lastStretch = phases / stride;
         } else this.renderOne(out, o + i, stride);
       }
       cur.moveTo(pos + r);
       if (cur.wrapped) lo = cur.loopStart;
+    }
+  }
+
+  /** Writes the one-row sum in dotIo[2] to y[oi] when finite, else the full two-row form on the table phase at k0, window x[m…]. */
+  private finishRow(y: Float32Array, oi: number, k0: number, m: number): void {
+    const io = this.dotIo;
+    const a = io[2];
+    if (a - a === 0) y[oi] = a;
+    else {
+      io[0] = 0;
+      dotRowsSplit(this.table.phaseMajor, k0, this.table.taps, this.cur.sources[0], m, io);
+      y[oi] = io[1];
     }
   }
 
