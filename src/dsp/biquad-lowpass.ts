@@ -1,5 +1,7 @@
 // Second-order low-pass from R. Bristow-Johnson's Audio EQ Cookbook (W3C Audio WG Note, 2021), Direct Form 1, per channel.
 import type { Hz } from '../units';
+import type { WasmKernel } from './wasm/wasm-kernel';
+import { LP_COEF, LP_FRAMES, LP_STATE, LP_X0, LP_X1 } from './wasm/kernel-params';
 
 /** Construction options of a BiquadLowpass. */
 export interface BiquadLowpassOptions {
@@ -83,6 +85,48 @@ export class BiquadLowpass {
       this.state[s + 2] = y1;
       this.state[s + 3] = y2;
     }
+  }
+
+  /**
+   * Filters `frames` samples of two channels in `kernel`'s memory in place (x0 and x1: byte addresses of their first
+   * sample) through the module's `lowpass`, for a filter of two or more channels (its first two): the samples of
+   * `process`, since the module runs the same operations in the same order with the channels in the two f64 lanes of
+   * one vector, one recurrence where `process` runs two one after the other (whose latency bounds it).
+   */
+  processResident(kernel: WasmKernel, x0: number, x1: number, frames: number): void {
+    const p = kernel.lowpassParams;
+    const i32 = kernel.i32;
+    i32[(p + LP_X0) >> 2] = x0;
+    i32[(p + LP_X1) >> 2] = x1;
+    i32[(p + LP_FRAMES) >> 2] = frames;
+    const f = kernel.f64;
+    const k = this.coef;
+    const c = (p + LP_COEF) >> 3;
+    f[c] = k[0];
+    f[c + 1] = k[1];
+    f[c + 2] = k[2];
+    f[c + 3] = k[3];
+    f[c + 4] = k[4];
+    // This filter's state is per channel (x1, x2, y1, y2); the module's is per variable (left, right).
+    const st = this.state;
+    const s = (p + LP_STATE) >> 3;
+    f[s] = st[0];
+    f[s + 1] = st[4];
+    f[s + 2] = st[1];
+    f[s + 3] = st[5];
+    f[s + 4] = st[2];
+    f[s + 5] = st[6];
+    f[s + 6] = st[3];
+    f[s + 7] = st[7];
+    kernel.exports.lowpass(p);
+    st[0] = f[s];
+    st[4] = f[s + 1];
+    st[1] = f[s + 2];
+    st[5] = f[s + 3];
+    st[2] = f[s + 4];
+    st[6] = f[s + 5];
+    st[3] = f[s + 6];
+    st[7] = f[s + 7];
   }
 
   /** Clears the filter memory (silence in, silence out). */

@@ -9,7 +9,7 @@ import { MAX_RATIO, MIN_RATIO } from '../dsp';
 import { GameClock } from './game-clock';
 import { SourceTracks, TRACK_KNOTS } from './source-tracks';
 import { EmissionSolver, createEmissionSolution, EMISSION_HISTORY, EMISSION_NONE, type EmissionSolution } from './emission-solver';
-import { fillRatioRamp, type RatioRampState } from './ratio-ramp';
+import { RatioRampBasis, fillRatioRamp, type RatioRampState } from './ratio-ramp';
 
 /** Shockwave events kept until read (older ones are dropped and counted). */
 export const SHOCKWAVE_QUEUE = 64;
@@ -78,6 +78,8 @@ export class PropagationStage implements RatioRampState {
   /** The resampler's ratio range as fields: module constants merged with a computed double made V8 box the double. */
   readonly minRatio = MIN_RATIO;
   readonly maxRatio = MAX_RATIO;
+  /** The Hermite basis of `fillRamp`'s cubic, shared by every voice of a block. */
+  readonly basis = new RatioRampBasis();
 
   /** Preallocates the tracks of `maxSources` sources and the listener. */
   constructor(options: PropagationStageOptions) {

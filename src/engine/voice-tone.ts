@@ -1,6 +1,7 @@
 // The tone stage of a voice: the dilation tone (and air absorption) as an RBJ cookbook low-pass (biquad, Q 1/√2),
-// cutoff smoothed in log frequency and set per 32-frame sub-block; bypassed when open, crossfaded over one block on a change.
-import { BiquadLowpass, OnePoleSmoother } from '../dsp';
+// cutoff smoothed in log frequency and set per 32-frame sub-block; bypassed when open, crossfaded over one block on a change;
+// a stereo block in WebAssembly module memory is filtered there (wasm/lowpass.ts, the same samples).
+import { BiquadLowpass, OnePoleSmoother, type WasmKernel } from '../dsp';
 import { OPEN_CUTOFF_HZ } from '../tuning';
 import type { Hz, Seconds } from '../units';
 
@@ -72,8 +73,11 @@ export class VoiceTone {
     if (Math.abs(sm.value - this.target) < 1e-4) sm.reset(this.target);
   }
 
-  /** Filters `frames` of `bufs` in place; `dry` (as many channels, ≥ frames) holds the unfiltered copy for a crossfade. */
-  process(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number): void {
+  /**
+   * Filters `frames` of `bufs` in place; `dry` (as many channels, ≥ frames) holds the unfiltered copy for a crossfade.
+   * With `wasm` non-null (`bufs` then views of its memory) a stereo block is filtered in the module (the same samples).
+   */
+  process(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number, wasm: WasmKernel | null = null): void {
     const target = this.target;
     const wasWet = this.wet;
     const before = this.cutoffLog2.value;
@@ -89,6 +93,7 @@ export class VoiceTone {
     if (!wasWet) this.filter.reset();
     const sm = this.cutoffLog2;
     const design = this.filter.design;
+    const resident = chans === 2 ? wasm : null;
     sm.target = target;
     for (let off = 0; off < frames; off += TONE_SUB_BLOCK) {
       const n = frames - off < TONE_SUB_BLOCK ? frames - off : TONE_SUB_BLOCK;
@@ -101,7 +106,8 @@ export class VoiceTone {
         design[0] = Math.pow(2, log2);
         this.filter.applyDesign();
       }
-      this.filter.process(bufs, off, n);
+      if (resident !== null) this.filter.processResident(resident, bufs[0].byteOffset + 4 * off, bufs[1].byteOffset + 4 * off, n);
+      else this.filter.process(bufs, off, n);
     }
     if (changing) crossfade(bufs, dry, frames, nowWet);
   }

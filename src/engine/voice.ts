@@ -290,7 +290,7 @@ export class Voice {
     const mono = this.own.channels === 1;
     const bufs = mono ? scratch.mono : scratch.stereo;
     resampleBlock(source, pitch, bufs, frames, ratios, silentFrames, t);
-    tone.process(bufs, scratch.dry, frames);
+    tone.process(bufs, scratch.dry, frames, scratch.wasm);
     gain.ramp(envelope, frames);
     // A non-finite input must not live on in the filter state.
     if (!mixBlock(bufs[0], mono ? bufs[0] : bufs[1], mixL, mixR, offset, frames, gain, scratch.wasm)) tone.clear();

@@ -65,6 +65,19 @@ export const MP_DGR = 48;
 /** Bytes of a `mix` block. */
 export const MIX_PARAM_BYTES = 56;
 
+/** `lowpass` block (wasm/lowpass.ts): channel x0 (byte address). */
+export const LP_X0 = 0;
+/** Channel x1 (byte address). */
+export const LP_X1 = 4;
+/** Frames to filter (i32). */
+export const LP_FRAMES = 8;
+/** Coefficients b0, b1, b2, a1, a2 (f64 each, normalised by a0). */
+export const LP_COEF = 16;
+/** State as f64 pairs (x0's, x1's): x[n−1], x[n−2], y[n−1], y[n−2]; read and written back. */
+export const LP_STATE = 56;
+/** Bytes of a `lowpass` block. */
+export const LOWPASS_PARAM_BYTES = 120;
+
 /** `buildStride` block (i32 fields, byte offsets): table header, dense table, dense length, stride, descriptor, rows, diffs. */
 export const BP_TABLE = 0;
 /** Dense table (byte address). */
