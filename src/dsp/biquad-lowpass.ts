@@ -1,7 +1,7 @@
 // Second-order low-pass from R. Bristow-Johnson's Audio EQ Cookbook (W3C Audio WG Note, 2021), Direct Form 1, per channel.
 import type { Hz } from '../units';
 import type { WasmKernel } from './wasm/wasm-kernel';
-import { LP_COEF, LP_FRAMES, LP_STATE, LP_X0, LP_X1 } from './wasm/kernel-params';
+import { LP_COEF, LP_FRAMES, LP_SET_BYTES, LP_STATE, LP_SUB, LP_X0, LP_X1 } from './wasm/kernel-params';
 
 /** Construction options of a BiquadLowpass. */
 export interface BiquadLowpassOptions {
@@ -88,26 +88,35 @@ export class BiquadLowpass {
   }
 
   /**
-   * Filters `frames` samples of two channels in `kernel`'s memory in place (x0 and x1: byte addresses of their first
-   * sample) through the module's `lowpass`, for a filter of two or more channels (its first two): the samples of
-   * `process`, since the module runs the same operations in the same order with the channels in the two f64 lanes of
-   * one vector, one recurrence where `process` runs two one after the other (whose latency bounds it).
+   * Stages the current coefficients as those of sub-block `set` (0…LP_SETS − 1) of the next `processResident` call.
    */
-  processResident(kernel: WasmKernel, x0: number, x1: number, frames: number): void {
-    const p = kernel.lowpassParams;
-    const i32 = kernel.i32;
-    i32[(p + LP_X0) >> 2] = x0;
-    i32[(p + LP_X1) >> 2] = x1;
-    i32[(p + LP_FRAMES) >> 2] = frames;
+  stageResident(kernel: WasmKernel, set: number): void {
     const f = kernel.f64;
     const k = this.coef;
-    const c = (p + LP_COEF) >> 3;
+    const c = (kernel.lowpassParams + LP_COEF + set * LP_SET_BYTES) >> 3;
     f[c] = k[0];
     f[c + 1] = k[1];
     f[c + 2] = k[2];
     f[c + 3] = k[3];
     f[c + 4] = k[4];
+  }
+
+  /**
+   * Filters `frames` samples (at most LP_SETS sub-blocks of `subFrames`, each with the coefficients staged for it) of
+   * two channels in `kernel`'s memory in place (x0 and x1: byte addresses of their first sample) through the module's
+   * `lowpass`, for a filter of two or more channels (its first two): the samples of `process` on each sub-block, since
+   * the module runs the same operations in the same order with the channels in the two f64 lanes of one vector — one
+   * recurrence where `process` runs two one after the other, and one call for the sub-blocks.
+   */
+  processResident(kernel: WasmKernel, x0: number, x1: number, frames: number, subFrames: number): void {
+    const p = kernel.lowpassParams;
+    const i32 = kernel.i32;
+    i32[(p + LP_X0) >> 2] = x0;
+    i32[(p + LP_X1) >> 2] = x1;
+    i32[(p + LP_FRAMES) >> 2] = frames;
+    i32[(p + LP_SUB) >> 2] = subFrames;
     // This filter's state is per channel (x1, x2, y1, y2); the module's is per variable (left, right).
+    const f = kernel.f64;
     const st = this.state;
     const s = (p + LP_STATE) >> 3;
     f[s] = st[0];

@@ -3,6 +3,7 @@
 // a stereo block in WebAssembly module memory is filtered there (wasm/lowpass.ts, the same samples).
 import { BiquadLowpass, OnePoleSmoother, type WasmKernel } from '../dsp';
 import { OPEN_CUTOFF_HZ } from '../tuning';
+import { LP_SETS } from '../dsp/wasm/kernel-params';
 import type { Hz, Seconds } from '../units';
 
 /** Frames per dilation-tone coefficient update. */
@@ -94,6 +95,9 @@ export class VoiceTone {
     const sm = this.cutoffLog2;
     const design = this.filter.design;
     const resident = chans === 2 ? wasm : null;
+    // In the module: sub-blocks from `start` staged as sets 0…set − 1, filtered in one call per LP_SETS of them.
+    let start = 0;
+    let set = 0;
     sm.target = target;
     for (let off = 0; off < frames; off += TONE_SUB_BLOCK) {
       const n = frames - off < TONE_SUB_BLOCK ? frames - off : TONE_SUB_BLOCK;
@@ -106,8 +110,15 @@ export class VoiceTone {
         design[0] = Math.pow(2, log2);
         this.filter.applyDesign();
       }
-      if (resident !== null) this.filter.processResident(resident, bufs[0].byteOffset + 4 * off, bufs[1].byteOffset + 4 * off, n);
-      else this.filter.process(bufs, off, n);
+      if (resident === null) this.filter.process(bufs, off, n);
+      else {
+        this.filter.stageResident(resident, set++);
+        if (set === LP_SETS || off + n === frames) {
+          this.filter.processResident(resident, bufs[0].byteOffset + 4 * start, bufs[1].byteOffset + 4 * start, off + n - start, TONE_SUB_BLOCK);
+          start = off + n;
+          set = 0;
+        }
+      }
     }
     if (changing) crossfade(bufs, dry, frames, nowWet);
   }
