@@ -12,7 +12,7 @@
 // The run's ratios (wasm/ratios.ts), the voice mix (wasm/mix.ts) and its low-pass (wasm/lowpass.ts) are exports of this module too.
 export { sanitize, ramp } from './ratios';
 export { mix } from './mix';
-export { lowpass } from './lowpass';
+export { lowpass, lowpassMix } from './lowpass';
 
 /** First free byte after the module's own data (the JavaScript allocator starts here). */
 export function heapBase(): usize {

@@ -27,6 +27,8 @@ export class VoiceTone {
   private memoHz = NaN;
   /** Smoothed cutoff (log2 Hz) the filter's coefficients were last designed for (NaN: none yet). */
   private designed = NaN;
+  /** The block's filtering is staged in the module and left to the mix stage (`mixPending`). */
+  private pending = false;
 
   /** An open, bypassed tone with cutoff smoothing `cutoffSeconds` (s) at `sampleRate` (Hz). */
   constructor(sampleRate: Hz, cutoffSeconds: Seconds) {
@@ -76,9 +78,11 @@ export class VoiceTone {
 
   /**
    * Filters `frames` of `bufs` in place; `dry` (as many channels, ≥ frames) holds the unfiltered copy for a crossfade.
-   * With `wasm` non-null (`bufs` then views of its memory) a stereo block is filtered in the module (the same samples).
+   * With `wasm` non-null (`bufs` then views of its memory) a stereo block is filtered in the module (the same samples);
+   * with `fuse` too, a block filtered in one call and needing no crossfade is only staged there, and the mix stage
+   * filters it as it mixes (`pendingIn`, `mixPending`), which must follow.
    */
-  process(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number, wasm: WasmKernel | null = null): void {
+  process(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number, wasm: WasmKernel | null = null, fuse = false): void {
     const target = this.target;
     const wasWet = this.wet;
     const before = this.cutoffLog2.value;
@@ -113,7 +117,8 @@ export class VoiceTone {
       if (resident === null) this.filter.process(bufs, off, n);
       else {
         this.filter.stageResident(resident, set++);
-        if (set === LP_SETS || off + n === frames) {
+        if (fuse && start === 0 && off + n === frames && !changing) this.pending = true;
+        else if (set === LP_SETS || off + n === frames) {
           this.filter.processResident(resident, bufs[0].byteOffset + 4 * start, bufs[1].byteOffset + 4 * start, off + n - start, TONE_SUB_BLOCK);
           start = off + n;
           set = 0;
@@ -121,6 +126,20 @@ export class VoiceTone {
       }
     }
     if (changing) crossfade(bufs, dry, frames, nowWet);
+  }
+
+  /** Whether the last `process` left its filtering to the mix stage: the tone when so, else null. */
+  pendingIn(): VoiceTone | null {
+    return this.pending ? this : null;
+  }
+
+  /**
+   * Filters the block `process` staged (channels at byte addresses x0 and x1 of `wasm`'s memory, `frames`) and mixes it
+   * into the bus at mixL and mixR with the gains in `wasm.mixGains`; false when a filtered sample was not finite.
+   */
+  mixPending(wasm: WasmKernel, x0: number, x1: number, mixL: number, mixR: number, frames: number): boolean {
+    this.pending = false;
+    return this.filter.processResidentMix(wasm, x0, x1, mixL, mixR, frames, TONE_SUB_BLOCK);
   }
 }
 

@@ -37,6 +37,8 @@ export interface KernelExports {
   mix(params: number): number;
   /** Low-passes two channels in place as described by the block at `params` (kernel-params.ts, LP_*). */
   lowpass(params: number): void;
+  /** `lowpass`, then mixes the filtered block as `mix` does with the block at `mixParams` (its gains and bus); 1 when every filtered sample was finite. */
+  lowpassMix(params: number, mixParams: number): number;
   /** Renders a run as described by the block at `params` (kernel-params.ts, RP_*); returns the samples written. */
   render(params: number): number;
   /** Sanitises a run's raw ratios into the f64 ratios `render` reads (kernel-params.ts, RP_*); returns the clamps. */
