@@ -169,6 +169,12 @@ export class PropagationStage implements RatioRampState {
     const solver = this.solver;
     solver.setListener(end, this.clock, this.lp, this.lv);
     const c = solver.c;
+    // Through the clock's fields: V8 boxes a double passed to or returned from a call it does not inline. The slope at
+    // the block's end is the same for every source: looked up once.
+    const clock = this.clock;
+    clock.query = end;
+    clock.lookUp();
+    const sNow = clock.slopeFound;
     for (let slot = 0; slot < this.ids.length; slot++) {
       const wanted = this.needed[slot] === 1 || this.pushes - this.lastPush[slot] <= LIVE_PUSHES;
       this.needed[slot] = 0;
@@ -179,11 +185,6 @@ export class PropagationStage implements RatioRampState {
       const epoch = tracks.epoch[slot];
       const same = this.solvedEpoch[slot] === epoch;
       this.solvedEpoch[slot] = epoch;
-      // Through the clock's fields: V8 boxes a double passed to or returned from a call it does not inline.
-      const clock = this.clock;
-      clock.query = end;
-      clock.lookUp();
-      const sNow = clock.slopeFound;
       let sLow = sNow;
       if (same && prev.state !== EMISSION_NONE) {
         clock.query = prev.tau;
