@@ -83,6 +83,8 @@ export class VoiceTone {
    * filters it as it mixes (`pendingIn`, `mixPending`), which must follow.
    */
   process(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number, wasm: WasmKernel | null = null, fuse = false): void {
+    // Nothing staged from an earlier block can carry over (a block cut short by an exception never reached its mix).
+    this.pending = false;
     const target = this.target;
     const wasWet = this.wet;
     const before = this.cutoffLog2.value;

@@ -94,4 +94,30 @@ describe('mixBlock', () => {
     }
     k.release(at, 16 * F);
   });
+
+  it.runIf(kernel !== null)('leaves nothing staged for the mix when a block takes two module calls (over four sub-blocks)', () => {
+    // Reference: the TypeScript tone stage on a copy of the same 200-frame block.
+    const k = kernel!;
+    const F = 200;
+    const at = k.allocFloats(2 * F);
+    const x = [new Float32Array(k.f32.buffer, at, F), new Float32Array(k.f32.buffer, at + 4 * F, F)];
+    for (let i = 0; i < F; i++) {
+      x[0][i] = Math.sin(0.05 * i);
+      x[1][i] = Math.cos(0.07 * i);
+    }
+    const y = [Float32Array.from(x[0]), Float32Array.from(x[1])];
+    const dry = [new Float32Array(F), new Float32Array(F)];
+    const staged = new VoiceTone(48000, 0.01);
+    const ts = new VoiceTone(48000, 0.01);
+    for (const t of [staged, ts]) {
+      t.aim({ cutoffHz: 1200 });
+      t.jump();
+    }
+    staged.process(x, dry, F, k, true);
+    ts.process(y, dry, F);
+    expect(staged.pendingIn()).toBe(null);
+    expect(Array.from(x[0])).toEqual(Array.from(y[0]));
+    expect(Array.from(x[1])).toEqual(Array.from(y[1]));
+    k.release(at, 8 * F);
+  });
 });
