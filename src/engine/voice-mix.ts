@@ -1,5 +1,6 @@
 // The mix stage of a voice: adds its block into a stereo bus with the gain stage's per-sample linear ramps, in
-// TypeScript or in the WebAssembly module's `mix` (f64 lanes, the same operations) when the buffers live in its memory.
+// TypeScript or in the WebAssembly module's `mix` (f64 lanes, the same operations) when the buffers live in its memory,
+// or with the tone stage's staged low-pass in the module's `lowpassMix` (filtered and mixed in one pass).
 import type { WasmKernel } from '../dsp';
 import type { VoiceGain } from './voice-gain';
 import type { VoiceTone } from './voice-tone';
