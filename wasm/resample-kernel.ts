@@ -9,9 +9,10 @@
 // Descriptor of (stride s, sub-phase ci), 32 bytes: row0 ptr · row1 ptr · a1n (taps left of the centre) · count8 ·
 // diff ptr (count8 floats row1 − row0, so that two-channel sources interpolate the taps once and share them).
 
-// The run's ratios (wasm/ratios.ts) and the voice mix (wasm/mix.ts) are exports of this module too.
+// The run's ratios (wasm/ratios.ts), the voice mix (wasm/mix.ts) and its low-pass (wasm/lowpass.ts) are exports of this module too.
 export { sanitize, ramp } from './ratios';
 export { mix } from './mix';
+export { lowpass, lowpassMix } from './lowpass';
 
 /** First free byte after the module's own data (the JavaScript allocator starts here). */
 export function heapBase(): usize {

@@ -1,5 +1,7 @@
 // Second-order low-pass from R. Bristow-Johnson's Audio EQ Cookbook (W3C Audio WG Note, 2021), Direct Form 1, per channel.
 import type { Hz } from '../units';
+import type { WasmKernel } from './wasm/wasm-kernel';
+import { LP_COEF, LP_FRAMES, LP_SET_BYTES, LP_STATE, LP_SUB, LP_X0, LP_X1, MP_MIX_L, MP_MIX_R } from './wasm/kernel-params';
 
 /** Construction options of a BiquadLowpass. */
 export interface BiquadLowpassOptions {
@@ -83,6 +85,85 @@ export class BiquadLowpass {
       this.state[s + 2] = y1;
       this.state[s + 3] = y2;
     }
+  }
+
+  /**
+   * Stages the current coefficients as those of sub-block `set` (0…LP_SETS − 1) of the next `processResident` call.
+   */
+  stageResident(kernel: WasmKernel, set: number): void {
+    const f = kernel.f64;
+    const k = this.coef;
+    const c = (kernel.lowpassParams + LP_COEF + set * LP_SET_BYTES) >> 3;
+    f[c] = k[0];
+    f[c + 1] = k[1];
+    f[c + 2] = k[2];
+    f[c + 3] = k[3];
+    f[c + 4] = k[4];
+  }
+
+  /**
+   * Filters `frames` samples (at most LP_SETS sub-blocks of `subFrames`, each with the coefficients staged for it) of
+   * two channels in `kernel`'s memory in place (x0 and x1: byte addresses of their first sample) through the module's
+   * `lowpass`, for a filter of two or more channels (its first two): the samples of `process` on each sub-block, since
+   * the module runs the same operations in the same order with the channels in the two f64 lanes of one vector — one
+   * recurrence where `process` runs two one after the other, and one call for the sub-blocks.
+   */
+  processResident(kernel: WasmKernel, x0: number, x1: number, frames: number, subFrames: number): void {
+    this.enter(kernel, x0, x1, frames, subFrames);
+    kernel.exports.lowpass(kernel.lowpassParams);
+    this.leave(kernel);
+  }
+
+  /**
+   * `processResident` over a whole block, mixing the filtered samples as the module's `mix` would with its parameter
+   * block (gains in `kernel.mixGains`) into the bus at byte addresses mixL and mixR: the mix's arithmetic runs while
+   * the recurrence waits. Returns false when a filtered sample was not finite (as `mix`).
+   */
+  processResidentMix(kernel: WasmKernel, x0: number, x1: number, mixL: number, mixR: number, frames: number, subFrames: number): boolean {
+    this.enter(kernel, x0, x1, frames, subFrames);
+    const m = kernel.mixParams;
+    const i32 = kernel.i32;
+    i32[(m + MP_MIX_L) >> 2] = mixL;
+    i32[(m + MP_MIX_R) >> 2] = mixR;
+    const finite = kernel.exports.lowpassMix(kernel.lowpassParams, m) !== 0;
+    this.leave(kernel);
+    return finite;
+  }
+
+  /** Writes the `lowpass` block's addresses, sizes and this filter's state (per channel here, per variable there). */
+  private enter(kernel: WasmKernel, x0: number, x1: number, frames: number, subFrames: number): void {
+    const p = kernel.lowpassParams;
+    const i32 = kernel.i32;
+    i32[(p + LP_X0) >> 2] = x0;
+    i32[(p + LP_X1) >> 2] = x1;
+    i32[(p + LP_FRAMES) >> 2] = frames;
+    i32[(p + LP_SUB) >> 2] = subFrames;
+    const f = kernel.f64;
+    const st = this.state;
+    const s = (p + LP_STATE) >> 3;
+    f[s] = st[0];
+    f[s + 1] = st[4];
+    f[s + 2] = st[1];
+    f[s + 3] = st[5];
+    f[s + 4] = st[2];
+    f[s + 5] = st[6];
+    f[s + 6] = st[3];
+    f[s + 7] = st[7];
+  }
+
+  /** Reads the state the module left back into this filter. */
+  private leave(kernel: WasmKernel): void {
+    const f = kernel.f64;
+    const st = this.state;
+    const s = (kernel.lowpassParams + LP_STATE) >> 3;
+    st[0] = f[s];
+    st[4] = f[s + 1];
+    st[1] = f[s + 2];
+    st[5] = f[s + 3];
+    st[2] = f[s + 4];
+    st[6] = f[s + 5];
+    st[3] = f[s + 6];
+    st[7] = f[s + 7];
   }
 
   /** Clears the filter memory (silence in, silence out). */

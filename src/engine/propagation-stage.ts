@@ -9,7 +9,7 @@ import { MAX_RATIO, MIN_RATIO } from '../dsp';
 import { GameClock } from './game-clock';
 import { SourceTracks, TRACK_KNOTS } from './source-tracks';
 import { EmissionSolver, createEmissionSolution, EMISSION_HISTORY, EMISSION_NONE, type EmissionSolution } from './emission-solver';
-import { fillRatioRamp, type RatioRampState } from './ratio-ramp';
+import { RatioRampBasis, fillRatioRamp, type RatioRampState } from './ratio-ramp';
 
 /** Shockwave events kept until read (older ones are dropped and counted). */
 export const SHOCKWAVE_QUEUE = 64;
@@ -78,6 +78,8 @@ export class PropagationStage implements RatioRampState {
   /** The resampler's ratio range as fields: module constants merged with a computed double made V8 box the double. */
   readonly minRatio = MIN_RATIO;
   readonly maxRatio = MAX_RATIO;
+  /** The Hermite basis of `fillRamp`'s cubic, shared by every voice of a block. */
+  readonly basis = new RatioRampBasis();
 
   /** Preallocates the tracks of `maxSources` sources and the listener. */
   constructor(options: PropagationStageOptions) {
@@ -167,6 +169,12 @@ export class PropagationStage implements RatioRampState {
     const solver = this.solver;
     solver.setListener(end, this.clock, this.lp, this.lv);
     const c = solver.c;
+    // Through the clock's fields: V8 boxes a double passed to or returned from a call it does not inline. The slope at
+    // the block's end is the same for every source: looked up once.
+    const clock = this.clock;
+    clock.query = end;
+    clock.lookUp();
+    const sNow = clock.slopeFound;
     for (let slot = 0; slot < this.ids.length; slot++) {
       const wanted = this.needed[slot] === 1 || this.pushes - this.lastPush[slot] <= LIVE_PUSHES;
       this.needed[slot] = 0;
@@ -177,11 +185,6 @@ export class PropagationStage implements RatioRampState {
       const epoch = tracks.epoch[slot];
       const same = this.solvedEpoch[slot] === epoch;
       this.solvedEpoch[slot] = epoch;
-      // Through the clock's fields: V8 boxes a double passed to or returned from a call it does not inline.
-      const clock = this.clock;
-      clock.query = end;
-      clock.lookUp();
-      const sNow = clock.slopeFound;
       let sLow = sNow;
       if (same && prev.state !== EMISSION_NONE) {
         clock.query = prev.tau;

@@ -1,14 +1,17 @@
 // The mix stage of a voice: adds its block into a stereo bus with the gain stage's per-sample linear ramps, in
-// TypeScript or in the WebAssembly module's `mix` (f64 lanes, the same operations) when the buffers live in its memory.
+// TypeScript or in the WebAssembly module's `mix` (f64 lanes, the same operations) when the buffers live in its memory,
+// or with the tone stage's staged low-pass in the module's `lowpassMix` (filtered and mixed in one pass).
 import type { WasmKernel } from '../dsp';
 import type { VoiceGain } from './voice-gain';
+import type { VoiceTone } from './voice-tone';
 
 /**
  * Adds `frames` of `x0`/`x1` (left/right; the same array for a mono sound) into mixL/mixR from `offset`, ramped by
  * `gain`'s left0/leftStep and right0/rightStep; through `wasm` when non-null (every array then a view of its memory).
+ * `tone`, when non-null, left its low-pass of x0/x1 staged in the module: the module filters and mixes in one pass.
  * Returns false when the input was not finite (the caller then clears its filter state).
  */
-export function mixBlock(x0: Float32Array, x1: Float32Array, mixL: Float32Array, mixR: Float32Array, offset: number, frames: number, gain: VoiceGain, wasm: WasmKernel | null): boolean {
+export function mixBlock(x0: Float32Array, x1: Float32Array, mixL: Float32Array, mixR: Float32Array, offset: number, frames: number, gain: VoiceGain, wasm: WasmKernel | null, tone: VoiceTone | null = null): boolean {
   const gl0 = gain.left0;
   const dgl = gain.leftStep;
   const gr0 = gain.right0;
@@ -20,6 +23,7 @@ export function mixBlock(x0: Float32Array, x1: Float32Array, mixL: Float32Array,
     g[1] = dgl;
     g[2] = gr0;
     g[3] = dgr;
+    if (tone !== null) return tone.mixPending(wasm, x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames);
     return wasm.mix(x0.byteOffset, x1.byteOffset, mixL.byteOffset + 4 * offset, mixR.byteOffset + 4 * offset, frames) !== 0;
   }
   let check = 0;

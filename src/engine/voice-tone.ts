@@ -1,7 +1,9 @@
 // The tone stage of a voice: the dilation tone (and air absorption) as an RBJ cookbook low-pass (biquad, Q 1/√2),
-// cutoff smoothed in log frequency and set per 32-frame sub-block; bypassed when open, crossfaded over one block on a change.
-import { BiquadLowpass, OnePoleSmoother } from '../dsp';
+// cutoff smoothed in log frequency and set per 32-frame sub-block; bypassed when open, crossfaded over one block on a change;
+// a stereo block in WebAssembly module memory is filtered there (wasm/lowpass.ts, the same samples).
+import { BiquadLowpass, OnePoleSmoother, type WasmKernel } from '../dsp';
 import { OPEN_CUTOFF_HZ } from '../tuning';
+import { LP_SETS } from '../dsp/wasm/kernel-params';
 import type { Hz, Seconds } from '../units';
 
 /** Frames per dilation-tone coefficient update. */
@@ -25,6 +27,8 @@ export class VoiceTone {
   private memoHz = NaN;
   /** Smoothed cutoff (log2 Hz) the filter's coefficients were last designed for (NaN: none yet). */
   private designed = NaN;
+  /** The block's filtering is staged in the module and left to the mix stage (`mixPending`). */
+  private pending = false;
 
   /** An open, bypassed tone with cutoff smoothing `cutoffSeconds` (s) at `sampleRate` (Hz). */
   constructor(sampleRate: Hz, cutoffSeconds: Seconds) {
@@ -72,8 +76,15 @@ export class VoiceTone {
     if (Math.abs(sm.value - this.target) < 1e-4) sm.reset(this.target);
   }
 
-  /** Filters `frames` of `bufs` in place; `dry` (as many channels, ≥ frames) holds the unfiltered copy for a crossfade. */
-  process(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number): void {
+  /**
+   * Filters `frames` of `bufs` in place; `dry` (as many channels, ≥ frames) holds the unfiltered copy for a crossfade.
+   * With `wasm` non-null (`bufs` then views of its memory) a stereo block is filtered in the module (the same samples);
+   * with `fuse` too, a block filtered in one call and needing no crossfade is only staged there, and the mix stage
+   * filters it as it mixes (`pendingIn`, `mixPending`), which must follow.
+   */
+  process(bufs: readonly Float32Array[], dry: readonly Float32Array[], frames: number, wasm: WasmKernel | null = null, fuse = false): void {
+    // Nothing staged from an earlier block can carry over (a block cut short by an exception never reached its mix).
+    this.pending = false;
     const target = this.target;
     const wasWet = this.wet;
     const before = this.cutoffLog2.value;
@@ -89,6 +100,10 @@ export class VoiceTone {
     if (!wasWet) this.filter.reset();
     const sm = this.cutoffLog2;
     const design = this.filter.design;
+    const resident = chans === 2 ? wasm : null;
+    // In the module: sub-blocks from `start` staged as sets 0…set − 1, filtered in one call per LP_SETS of them.
+    let start = 0;
+    let set = 0;
     sm.target = target;
     for (let off = 0; off < frames; off += TONE_SUB_BLOCK) {
       const n = frames - off < TONE_SUB_BLOCK ? frames - off : TONE_SUB_BLOCK;
@@ -101,9 +116,32 @@ export class VoiceTone {
         design[0] = Math.pow(2, log2);
         this.filter.applyDesign();
       }
-      this.filter.process(bufs, off, n);
+      if (resident === null) this.filter.process(bufs, off, n);
+      else {
+        this.filter.stageResident(resident, set++);
+        if (fuse && start === 0 && off + n === frames && !changing) this.pending = true;
+        else if (set === LP_SETS || off + n === frames) {
+          this.filter.processResident(resident, bufs[0].byteOffset + 4 * start, bufs[1].byteOffset + 4 * start, off + n - start, TONE_SUB_BLOCK);
+          start = off + n;
+          set = 0;
+        }
+      }
     }
     if (changing) crossfade(bufs, dry, frames, nowWet);
+  }
+
+  /** Whether the last `process` left its filtering to the mix stage: the tone when so, else null. */
+  pendingIn(): VoiceTone | null {
+    return this.pending ? this : null;
+  }
+
+  /**
+   * Filters the block `process` staged (channels at byte addresses x0 and x1 of `wasm`'s memory, `frames`) and mixes it
+   * into the bus at mixL and mixR with the gains in `wasm.mixGains`; false when a filtered sample was not finite.
+   */
+  mixPending(wasm: WasmKernel, x0: number, x1: number, mixL: number, mixR: number, frames: number): boolean {
+    this.pending = false;
+    return this.filter.processResidentMix(wasm, x0, x1, mixL, mixR, frames, TONE_SUB_BLOCK);
   }
 }
 

@@ -290,10 +290,11 @@ export class Voice {
     const mono = this.own.channels === 1;
     const bufs = mono ? scratch.mono : scratch.stereo;
     resampleBlock(source, pitch, bufs, frames, ratios, silentFrames, t);
-    tone.process(bufs, scratch.dry, frames);
+    // In module memory the low-pass of a whole block is left to the mix, which filters and mixes in one pass.
+    tone.process(bufs, scratch.dry, frames, scratch.wasm, true);
     gain.ramp(envelope, frames);
     // A non-finite input must not live on in the filter state.
-    if (!mixBlock(bufs[0], mono ? bufs[0] : bufs[1], mixL, mixR, offset, frames, gain, scratch.wasm)) tone.clear();
+    if (!mixBlock(bufs[0], mono ? bufs[0] : bufs[1], mixL, mixR, offset, frames, gain, scratch.wasm, tone.pendingIn())) tone.clear();
     return this.alive();
   }
 

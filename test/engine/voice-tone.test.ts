@@ -2,7 +2,7 @@
 // prewarped bilinear Butterworth: |H|² = 1 / (1 + (tan(πf/fs) / tan(πfc/fs))⁴) (docs/references.md §4).
 import { describe, expect, it } from 'vitest';
 import { VoiceTone, TONE_Q, TONE_SUB_BLOCK } from '../../src/engine/voice-tone';
-import { BiquadLowpass } from '../../src/dsp';
+import { BiquadLowpass, WasmKernel } from '../../src/dsp';
 import { OPEN_CUTOFF_HZ } from '../../src/tuning';
 
 const SR = 48000;
@@ -93,5 +93,48 @@ describe('VoiceTone', () => {
       expect(x[0]).toEqual(want[0]);
       expect(x[1]).toEqual(want[1]);
     }
+  });
+
+  const kernel = WasmKernel.shared();
+
+  it.runIf(kernel !== null)('filters a stereo block in module memory to the same bits as the TypeScript low-pass', () => {
+    // Reference: the TypeScript cookbook filter (`BiquadLowpass.process`, checked against its transfer function in
+    // test/dsp/small-dsp.test.ts) on a copy of the same input, with the same per-sub-block designs. The blocks cover
+    // gliding and resting cutoffs, the crossfades of engaging and opening, a decay into the denormal flush (exact
+    // zeros in the output), a non-finite input, and block sizes of one call (128 frames), two calls (200, the last
+    // sub-block short) and a short block (45).
+    const k = kernel!;
+    const M = 256;
+    const at = k.allocFloats(2 * M);
+    const bits = (x: Float32Array) => Array.from(new Uint32Array(x.buffer, x.byteOffset, x.length));
+    const inWasm = new VoiceTone(SR, 0.01);
+    const inTs = new VoiceTone(SR, 0.01);
+    const dry = [new Float32Array(M), new Float32Array(M)];
+    const cutoffs = [OPEN_CUTOFF_HZ, 800, 800, 3000, 3000, OPEN_CUTOFF_HZ, OPEN_CUTOFF_HZ, 400, ...Array(40).fill(400), 2500];
+    const sizes = [128, 200, 45];
+    let flushed = 0;
+    let t0 = 0;
+    for (let b = 0; b < cutoffs.length; b++) {
+      const n = sizes[b % sizes.length];
+      const x = [new Float32Array(k.f32.buffer, at, n), new Float32Array(k.f32.buffer, at + 4 * M, n)];
+      const quiet = b >= 9 && b < 47; // silence in: the output decays through 1e-25 and is flushed to zero
+      for (let i = 0; i < n; i++) {
+        x[0][i] = quiet ? 0 : 0.7 * Math.sin((2 * Math.PI * 300 * (t0 + i)) / SR);
+        x[1][i] = quiet ? 0 : 0.5 * Math.sin((2 * Math.PI * 6100 * (t0 + i)) / SR);
+      }
+      t0 += n;
+      if (b === cutoffs.length - 1) x[1][5] = NaN;
+      const want = [Float32Array.from(x[0]), Float32Array.from(x[1])];
+      for (const t of [inWasm, inTs]) t.aim({ cutoffHz: cutoffs[b] });
+      if (b === 0) for (const t of [inWasm, inTs]) t.jump();
+      inWasm.process(x, dry, n, k);
+      inTs.process(want, dry, n);
+      expect(inWasm.wet).toBe(inTs.wet);
+      expect(bits(x[0])).toEqual(bits(want[0]));
+      expect(bits(x[1])).toEqual(bits(want[1]));
+      if (quiet && inTs.wet) for (let i = 1; i < n; i++) if (want[0][i] === 0 && want[0][i - 1] !== 0) flushed++;
+    }
+    expect(flushed).toBeGreaterThan(0);
+    k.release(at, 8 * M);
   });
 });

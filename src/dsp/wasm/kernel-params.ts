@@ -65,6 +65,25 @@ export const MP_DGR = 48;
 /** Bytes of a `mix` block. */
 export const MIX_PARAM_BYTES = 56;
 
+/** `lowpass` block (wasm/lowpass.ts): channel x0 (byte address). */
+export const LP_X0 = 0;
+/** Channel x1 (byte address). */
+export const LP_X1 = 4;
+/** Frames to filter (i32; at most LP_SETS sub-blocks). */
+export const LP_FRAMES = 8;
+/** Frames per sub-block (i32): each has its own coefficients. */
+export const LP_SUB = 12;
+/** State as f64 pairs (x0's, x1's): x[n−1], x[n−2], y[n−1], y[n−2]; read and written back. */
+export const LP_STATE = 16;
+/** Coefficients b0, b1, b2, a1, a2 (f64 each, normalised by a0) of sub-block 0, then LP_SET_BYTES per further sub-block. */
+export const LP_COEF = 80;
+/** Bytes of one sub-block's coefficients. */
+export const LP_SET_BYTES = 40;
+/** Sub-blocks one `lowpass` call filters at most. */
+export const LP_SETS = 4;
+/** Bytes of a `lowpass` block. */
+export const LOWPASS_PARAM_BYTES = LP_COEF + LP_SETS * LP_SET_BYTES;
+
 /** `buildStride` block (i32 fields, byte offsets): table header, dense table, dense length, stride, descriptor, rows, diffs. */
 export const BP_TABLE = 0;
 /** Dense table (byte address). */

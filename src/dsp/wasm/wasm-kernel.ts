@@ -5,7 +5,7 @@ import { MAX_RATIO } from '../quality-tiers';
 import { decodeBase64 } from './base64';
 import { kernelModuleBase64 } from './kernel-bytes.generated';
 import { ModuleHeap, align } from './module-heap';
-import { BP_DENSE, BP_DESC, BP_DIFFS, BP_ROWS, BP_STRIDE, BP_TABLE, BP_TOTAL, BUILD_PARAM_BYTES, MIX_PARAM_BYTES, MP_FRAMES, MP_GL0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
+import { BP_DENSE, BP_DESC, BP_DIFFS, BP_ROWS, BP_STRIDE, BP_TABLE, BP_TOTAL, BUILD_PARAM_BYTES, LOWPASS_PARAM_BYTES, MIX_PARAM_BYTES, MP_FRAMES, MP_GL0, MP_MIX_L, MP_MIX_R, MP_X0, MP_X1, RENDER_PARAM_BYTES } from './kernel-params';
 
 /** Which inner loop a reader runs: the WebAssembly SIMD kernel or the TypeScript reference. */
 export type KernelName = 'wasm-simd' | 'typescript';
@@ -35,6 +35,10 @@ export interface KernelExports {
   buildStride(params: number): void;
   /** Mixes one voice as described by the block at `params` (kernel-params.ts, MP_*); 1 when every input sample was finite. */
   mix(params: number): number;
+  /** Low-passes two channels in place as described by the block at `params` (kernel-params.ts, LP_*). */
+  lowpass(params: number): void;
+  /** `lowpass`, then mixes the filtered block as `mix` does with the block at `mixParams` (its gains and bus); 1 when every filtered sample was finite. */
+  lowpassMix(params: number, mixParams: number): number;
   /** Renders a run as described by the block at `params` (kernel-params.ts, RP_*); returns the samples written. */
   render(params: number): number;
   /** Sanitises a run's raw ratios into the f64 ratios `render` reads (kernel-params.ts, RP_*); returns the clamps. */
@@ -106,6 +110,8 @@ export class WasmKernel {
   mixParams = 0;
   /** The gains of the next `mix`, a view of its parameter block: [gl0, dgl, gr0, dgr] (linear; renewed after growth). */
   mixGains: Float64Array = new Float64Array(4);
+  /** Byte offset of the `lowpass` parameter block (kernel-params.ts LP_*; written through `f64` and `i32`). */
+  lowpassParams = 0;
   /** Byte offset of the `buildStride` parameter block (kernel-params.ts BP_*). */
   private buildParams = 0;
   /** outViews0[n] / outViews1[n]: the first n floats of out0 / out1 (n = 0…RUN_FRAMES), for allocation-free block copies. */
@@ -136,6 +142,7 @@ export class WasmKernel {
     this.renderParams = this.take(RENDER_PARAM_BYTES);
     this.mixParams = this.take(MIX_PARAM_BYTES);
     this.buildParams = this.take(BUILD_PARAM_BYTES);
+    this.lowpassParams = this.take(LOWPASS_PARAM_BYTES);
     this.refreshViews();
     this.mixGains = new Float64Array(this.exports.memory.buffer, this.mixParams + MP_GL0, 4);
   }
