@@ -8,7 +8,7 @@
 // (WebAssembly) and 128 (TypeScript) B/block: optimised code that called a small function with a double, boxing it on
 // every call, because that compile had not inlined it (SnapshotStore's lerp3, and OnePoleSmoother.reset called by
 // VoiceTone; no double is passed to either now). Slowing V8's compiler (--concurrent-recompilation-delay=50) brought
-// that state out in 8 of 27 short runs before the fix and in none of 20 after it, where 2 of the 14 'auto' runs showed
+// that state out in 8 of 27 short runs before the fix and in none of 29 after it, where 2 of the 20 'auto' runs showed
 // other states (48 and 5,888 B/block, not yet explained; docs/allocation.md "Where it stands" gives the runs). So the
 // check holds the median span at MEDIAN_BYTES_PER_BLOCK (four boxed doubles per block: any steady allocation per voice
 // or per source fails it; every full-length run measured read 0) and the mean at MEAN_BYTES_PER_BLOCK (a loaded run
