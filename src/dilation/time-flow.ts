@@ -76,12 +76,16 @@ export class TimeFlow {
   private readonly io = easeScratch();
   /** MAX_TIME_SCALE as a field: a module constant merged with a double makes V8 box the result (docs/allocation.md). */
   private readonly maxScale = MAX_TIME_SCALE;
-  private start: Seconds = 0;
-  private duration: Seconds = 0;
+  // Declared with doubles, set to 0 in the constructor: a field first stored with a small integer and later with a
+  // double changes the layout of the object and throws away optimised code using it (docs/allocation.md).
+  private start: Seconds = 0.5;
+  private duration: Seconds = 0.5;
   private easing: Easing = 'linear';
 
   /** Creates a flow resting at `initial` (default 1, clamped to 0…4). */
   constructor(options: TimeFlowOptions = timeFlowDefaults) {
+    this.start = 0;
+    this.duration = 0;
     const initial = options.initial ?? timeFlowDefaults.initial;
     this.clampTarget(initial);
     this.from = this.to;

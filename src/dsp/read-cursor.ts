@@ -22,18 +22,24 @@ export class ReadCursor {
   loopLength = 0;
   /** True once a loop has wrapped (frames before loopStart then read from the loop's end). */
   wrapped = false;
+  // The three doubles below are declared with a double and given their real start values in the constructor: a field
+  // first stored with a small integer and later with a double changes the layout of every cursor, which throws away
+  // the optimised code of every method using it while V8 is still compiling (docs/allocation.md).
   /** Read position, source frames (fractional). */
-  pos = 0;
+  pos = 0.5;
   /** The last in-range ratio (replaces non-finite ones). */
-  lastRatio = 1;
+  lastRatio = 0.5;
   /** Kernel stretch of the last output sample (≥ 1; sets how far past the end a one-shot still sounds). */
-  lastStretch = 1;
+  lastStretch = 0.5;
   /** Ratios clamped or replaced, plus module stalls (StreamReader.clampCount). */
   clamps = 0;
 
   /** Holds up to `channels` (1…32) source channels. */
   constructor(channels: number) {
     this.sources = new Array<Float32Array>(channels).fill(EMPTY);
+    this.pos = 0;
+    this.lastRatio = 1;
+    this.lastStretch = 1;
   }
 
   /** Clears channel slots from `count` on (they then read nothing). */

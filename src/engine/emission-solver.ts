@@ -43,7 +43,18 @@ export interface EmissionSolution {
 
 /** Creates an empty solution object (allocate once per source slot). */
 export function createEmissionSolution(): EmissionSolution {
-  return { state: EMISSION_NONE, tau: NaN, doppler: 1, distance: 0, meanDoppler: NaN, coneTime: NaN, position: { x: 0, y: 0, z: 0 }, scanResidual: 0, scanRate: 0, evaluations: 0 };
+  // Every field that will hold a double is created with one, then given its start value: a field first holding a small
+  // integer changes the layout of every solution when a double arrives (the scan's fields, blocks into a run), which
+  // throws away optimised code, and code compiled meanwhile can box doubles for good (docs/allocation.md).
+  const s = { state: EMISSION_NONE, tau: NaN, doppler: 0.5, distance: 0.5, meanDoppler: NaN, coneTime: NaN, position: { x: 0.5, y: 0.5, z: 0.5 }, scanResidual: 0.5, scanRate: 0.5, evaluations: 0 };
+  s.doppler = 1;
+  s.distance = 0;
+  s.position.x = 0;
+  s.position.y = 0;
+  s.position.z = 0;
+  s.scanResidual = 0;
+  s.scanRate = 0;
+  return s;
 }
 
 /** Solves the emission-time equation for one source; creates no objects, and its steps pass doubles in fields, not calls (docs/allocation.md). */

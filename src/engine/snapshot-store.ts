@@ -33,9 +33,9 @@ export class SnapshotStore {
   refused = 0;
   clamps = 0;
   /** Interpolated listener (position, forward, up, velocity) after `interpolate`. */
-  readonly listener: ListenerState & { velocity: Vec3Like } = { position: v(), forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 }, velocity: v() };
-  /** Scratch source state filled by `sourceAt`. */
-  readonly source: SourceState & { velocity: Vec3Like } = { id: 0, position: v(), velocity: v() };
+  readonly listener: ListenerState & { velocity: Vec3Like } = { position: v(0, 0, 0), forward: v(0, 0, -1), up: v(0, 1, 0), velocity: v(0, 0, 0) };
+  /** Scratch source state filled by `sourceAt` (its id declared with a double, as it is read from a Float64Array; set to 0 in the constructor). */
+  readonly source: SourceState & { velocity: Vec3Like } = { id: 0.5, position: v(0, 0, 0), velocity: v(0, 0, 0) };
   private readonly capacity: number;
   private readonly ids: Float64Array;
   private readonly used: Uint8Array;
@@ -53,7 +53,9 @@ export class SnapshotStore {
   interval: Seconds = 0.5;
   private lastTime: Seconds = NaN;
   private readonly clock: FrameClock;
-  private alpha = 1;
+  private alpha = 0.5;
+  /** The weight `lerp3` reads (a field: V8 boxes a double passed to a call it does not inline). */
+  private weight = 0.5;
   /** The interpolation point of `interpolate`, engine s (a field: V8 boxes a double passed to a call it does not inline). */
   time: Seconds = 0.5;
 
@@ -64,6 +66,8 @@ export class SnapshotStore {
     this.clock = options.clock;
     this.arrival = 0;
     this.interval = 0;
+    this.alpha = 1;
+    this.source.id = 0;
     this.ids = new Float64Array(n);
     this.used = new Uint8Array(n);
     this.seen = new Float64Array(n);
@@ -137,11 +141,11 @@ export class SnapshotStore {
     const a = this.interval > 0 ? (this.time - this.arrival) / this.interval : 1;
     this.alpha = a < 0 ? 0 : a > 1 ? 1 : a;
     const L = this.lis;
-    const w = this.alpha;
-    lerp3(this.listener.position, L, 0, 12, w);
-    lerp3(this.listener.forward, L, 3, 15, w);
-    lerp3(this.listener.up, L, 6, 18, w);
-    lerp3(this.listener.velocity, L, 9, 21, w);
+    this.weight = this.alpha;
+    this.lerp3(this.listener.position, L, 0, 12, L);
+    this.lerp3(this.listener.forward, L, 3, 15, L);
+    this.lerp3(this.listener.up, L, 6, 18, L);
+    this.lerp3(this.listener.velocity, L, 9, 21, L);
   }
 
   /** Slot of source `id`, or −1 when no snapshot has named it. */
@@ -165,11 +169,13 @@ export class SnapshotStore {
   /** Fills `source` with slot `slot`'s interpolated state (a source missing from the latest snapshot holds still). */
   sourceAt(slot: number): SourceState & { velocity: Vec3Like } {
     const o = 6 * slot;
-    const w = this.seen[slot] === this.pushes ? this.alpha : 1;
+    // Each branch stores its own weight: a merge of the field's double with the constant 1 would be boxed.
+    if (this.seen[slot] === this.pushes) this.weight = this.alpha;
+    else this.weight = 1;
     const s = this.source;
     s.id = this.ids[slot];
-    lerp3(s.position, this.prev, o, o, w, this.next);
-    lerp3(s.velocity, this.prev, o + 3, o + 3, w, this.next);
+    this.lerp3(s.position, this.prev, o, o, this.next);
+    this.lerp3(s.velocity, this.prev, o + 3, o + 3, this.next);
     if (this.seen[slot] !== this.pushes) {
       s.velocity.x = 0;
       s.velocity.y = 0;
@@ -215,6 +221,18 @@ export class SnapshotStore {
     }
   }
 
+  /**
+   * out = a[ia…ia+2] + (b[ib…ib+2] − a[ia…ia+2])·weight. The weight comes in a field: passed as an argument, V8 boxed it
+   * on every call whenever it had compiled the caller before this function had type feedback of its own and so did
+   * not inline it (≈107 B/block for a whole run, docs/allocation.md).
+   */
+  private lerp3(out: Vec3Like, a: Float64Array, ia: number, ib: number, b: Float64Array): void {
+    const w = this.weight;
+    out.x = a[ia] + (b[ib] - a[ia]) * w;
+    out.y = a[ia + 1] + (b[ib + 1] - a[ia + 1]) * w;
+    out.z = a[ia + 2] + (b[ib + 2] - a[ia + 2]) * w;
+  }
+
   private put3(a: Float64Array, o: number, p: Vec3Like): void {
     const x = p.x;
     const y = p.y;
@@ -227,12 +245,14 @@ export class SnapshotStore {
   }
 }
 
-function v(): Vec3Like {
-  return { x: 0, y: 0, z: 0 };
-}
-
-function lerp3(out: Vec3Like, a: Float64Array, ia: number, ib: number, w: number, b: Float64Array = a): void {
-  out.x = a[ia] + (b[ib] - a[ia]) * w;
-  out.y = a[ia + 1] + (b[ib + 1] - a[ia + 1]) * w;
-  out.z = a[ia + 2] + (b[ib + 2] - a[ia + 2]) * w;
+/**
+ * A vector (x, y, z) whose fields are created with doubles: created with small integers, they would change the layout of
+ * every such object when the first interpolated double arrives, throwing away optimised code (docs/allocation.md).
+ */
+function v(x: number, y: number, z: number): Vec3Like {
+  const out = { x: 0.5, y: 0.5, z: 0.5 };
+  out.x = x;
+  out.y = y;
+  out.z = z;
+  return out;
 }

@@ -73,7 +73,8 @@ export class VoiceTone {
     const sm = this.cutoffLog2;
     sm.target = this.target;
     sm.step(frames);
-    if (Math.abs(sm.value - this.target) < 1e-4) sm.reset(this.target);
+    // A field store, not sm.reset(target): see process.
+    if (Math.abs(sm.value - this.target) < 1e-4) sm.value = this.target;
   }
 
   /**
@@ -108,7 +109,10 @@ export class VoiceTone {
     for (let off = 0; off < frames; off += TONE_SUB_BLOCK) {
       const n = frames - off < TONE_SUB_BLOCK ? frames - off : TONE_SUB_BLOCK;
       sm.step(n);
-      if (Math.abs(sm.value - target) < 1e-4) sm.reset(target);
+      // Arrived: snap to the target (finite here, so this is reset(target)). A field store, not a call: when V8 compiled
+      // this before `reset` had type feedback of its own, it called it, boxing the double on every sub-block for the
+      // rest of the run (128 B/block in this scene; docs/allocation.md).
+      if (Math.abs(sm.value - target) < 1e-4) sm.value = target;
       // The same cutoff gives the same coefficients: design only when it moved (an arrived cutoff stays put).
       const log2 = sm.value;
       if (log2 !== this.designed) {
