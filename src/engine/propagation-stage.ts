@@ -195,9 +195,10 @@ export class PropagationStage implements RatioRampState {
       // The previous τ is used only when `subsonic` (which implies a valid previous solution).
       solver.solve(tracks, this.clock, slot, prev.tau, subsonic, cur);
       cur.coneTime = NaN;
+      // A new or teleported track starts the block from this solution (no glide). The copy runs on every pass (prev onto
+      // itself otherwise): a first call in a rare branch ran unoptimised for several spans (docs/allocation.md).
+      copySolution(prev, same ? prev : cur);
       if (!same) {
-        // A new or teleported track: the block starts from this solution (no glide from elsewhere).
-        copySolution(prev, cur);
         cur.meanDoppler = NaN;
         continue;
       }
