@@ -8,6 +8,8 @@ export { StreamReader } from './stream-reader';
 export type { StreamReaderOptions, StreamSourceOptions } from './stream-reader';
 export { wasmSimdSupported, activeKernel, WasmKernel } from './wasm/wasm-kernel';
 export type { KernelName, KernelPreference, KernelImage, MemoryWatcher } from './wasm/wasm-kernel';
+/** Sub-blocks the module's low-pass filters per call, each with its own staged coefficients (engine-internal). */
+export { LP_SETS } from './wasm/kernel-params';
 export { packKernelTable, packAllTiers, packedTransfer, isPackedKernelTable, INSTALL_BYTES_PER_QUANTUM } from './table-transfer';
 export type { PackedKernelTable } from './table-transfer';
 export { resample, resampleChunks } from './resample';

@@ -1,9 +1,8 @@
 // The tone stage of a voice: the dilation tone (and air absorption) as an RBJ cookbook low-pass (biquad, Q 1/√2),
 // cutoff smoothed in log frequency and set per 32-frame sub-block; bypassed when open, crossfaded over one block on a change;
 // a stereo block in WebAssembly module memory is filtered there (wasm/lowpass.ts, the same samples).
-import { BiquadLowpass, OnePoleSmoother, type WasmKernel } from '../dsp';
+import { BiquadLowpass, LP_SETS, OnePoleSmoother, type WasmKernel } from '../dsp';
 import { OPEN_CUTOFF_HZ } from '../tuning';
-import { LP_SETS } from '../dsp/wasm/kernel-params';
 import type { Hz, Seconds } from '../units';
 
 /** Frames per dilation-tone coefficient update. */
