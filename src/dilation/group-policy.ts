@@ -55,8 +55,12 @@ export class CompiledGroup {
   /** One slot for the in-place unit conversions (dbToGainAt, centsToRatioAt). */
   private readonly unit = new Float64Array(1);
 
-  /** Evaluates the curves at time scale s (0…4) into the cached fields; reuses them when s is unchanged. */
-  evaluateAt(s: number, minCutoffHz: number, openCutoffHz: number): void {
+  /** Time scale (0…4) `evaluate` reads: a field, since a double passed to a call V8 does not inline is boxed. */
+  scaleQuery = 0.5;
+
+  /** Evaluates the curves at time scale `scaleQuery` into the cached fields; reuses them when it is unchanged. */
+  evaluate(minCutoffHz: number, openCutoffHz: number): void {
+    const s = this.scaleQuery;
     if (s === this.cachedScale) return;
     this.cachedScale = s;
     // Curves read and write their doubles in fields, and each branch stores its own value: V8 boxes a double passed to

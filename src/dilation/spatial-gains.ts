@@ -6,19 +6,41 @@ import type { Vec3Like } from '../units';
 
 /** Distance gain of the Web Audio distance `model` at distance d (m), refDistance, maxDistance, rolloffFactor. */
 export function distanceGain(model: DistanceModel, d: Meters, ref: Meters, max: Meters, rolloff: number): number {
+  const q = DISTANCE_SCRATCH;
+  q[0] = d;
+  q[1] = ref;
+  q[2] = max;
+  q[3] = rolloff;
+  distanceGainAt(model, q);
+  return q[0];
+}
+
+/** The doubles of `distanceGain` handed to distanceGainAt. */
+const DISTANCE_SCRATCH = new Float64Array(4);
+
+/**
+ * `distanceGain` in place: reads [d, refDistance, maxDistance, rolloffFactor] from `q` and writes the gain into q[0].
+ * For the render path: a double passed to or returned from a call V8 does not inline is boxed (docs/allocation.md).
+ */
+export function distanceGainAt(model: DistanceModel, q: Float64Array): void {
+  const d = q[0];
+  const ref = q[1];
+  const max = q[2];
+  const rolloff = q[3];
+  let g: number;
   if (model === 'linear') {
     const lo = Math.min(ref, max);
     const hi = Math.max(ref, max);
     // The spec clamps the linear model's rolloff factor to [0, 1].
     const f = rolloff < 0 ? 0 : rolloff > 1 ? 1 : rolloff;
-    if (lo === hi) return 1 - f;
     const dc = d < lo ? lo : d > hi ? hi : d;
-    return 1 - (f * (dc - lo)) / (hi - lo);
+    g = lo === hi ? 1 - f : 1 - (f * (dc - lo)) / (hi - lo);
+  } else if (!(ref > 0)) g = 0;
+  else {
+    const dm = d > ref ? d : ref;
+    g = model === 'exponential' ? Math.pow(dm / ref, -rolloff) : ref / (ref + rolloff * (dm - ref));
   }
-  if (!(ref > 0)) return 0;
-  const dm = d > ref ? d : ref;
-  if (model === 'exponential') return Math.pow(dm / ref, -rolloff);
-  return ref / (ref + rolloff * (dm - ref));
+  q[0] = g;
 }
 
 /**

@@ -3,10 +3,10 @@
 import type { Tuning } from '../tuning';
 import { DEFAULT_GROUP, OPEN_CUTOFF_HZ, MAX_TIME_SCALE } from '../tuning';
 import type { Vec3Like } from '../units';
-import { dopplerFromSpeeds, speedOfSound, createDopplerStats, type DopplerStats } from '../motion';
+import { dopplerFromSpeedsAt, speedOfSound, createDopplerStats, type DopplerStats } from '../motion';
 import type { ListenerState, SourceState, VoiceTargets } from './snapshot-types';
 import { CompiledGroup } from './group-policy';
-import { distanceGain, equalPowerFromSine } from './spatial-gains';
+import { distanceGain, distanceGainAt, equalPowerFromSine } from './spatial-gains';
 import { coneGain } from './cone-gain';
 import { centsToRatio } from '../dsp';
 import type { SourceSpatial } from './source-spatial';
@@ -92,6 +92,10 @@ export class TargetMapper {
   private readonly lastUp: Vec3Like = { x: Number.NaN, y: 0, z: 0 };
   private lastOrientationValid = true;
   private readonly pan = new Float64Array(2);
+  /** distanceGainAt's [d, refDistance, maxDistance, rolloffFactor] in, gain out. */
+  private readonly distanceQuery = new Float64Array(4);
+  /** dopplerFromSpeedsAt's [vls, vss, c, factor] in, ratio out. */
+  private readonly dopplerQuery = new Float64Array(4);
   /** PannerNode's default orientation, for sources with a cone but no orientation. */
   private readonly defaultOrientation: Vec3Like = { x: 1, y: 0, z: 0 };
   private readonly dir: Vec3Like = { x: 0, y: 0, z: 0 };
@@ -169,7 +173,9 @@ export class TargetMapper {
       this.clamps += 1;
     }
 
-    g.evaluateAt(s, MIN_CUTOFF_HZ, OPEN_CUTOFF_HZ);
+    // The time scale in a field: the call is not always inlined here, and then a double passed to it is boxed.
+    g.scaleQuery = s;
+    g.evaluate(MIN_CUTOFF_HZ, OPEN_CUTOFF_HZ);
     const speed = g.cachedSpeed;
     out.cutoffHz = g.cachedCutoffHz;
     out.gain = gain * g.cachedLevelGain;
@@ -219,7 +225,17 @@ export class TargetMapper {
     const dz = sp.z - lp.z;
     const d = Math.sqrt(dx * dx + dy * dy + dz * dz);
     const own = input.spatial ?? null;
-    const dist = own === null ? distanceGain(this.distanceModel, d, this.refDistance, this.maxDistance, this.rolloff) : this.sourceGain(own, d, sp, lp);
+    let dist = 0;
+    if (own === null) {
+      // In place (distanceGainAt): the call is not always inlined here, and then a double crossing it is boxed.
+      const q = this.distanceQuery;
+      q[0] = d;
+      q[1] = this.refDistance;
+      q[2] = this.maxDistance;
+      q[3] = this.rolloff;
+      distanceGainAt(this.distanceModel, q);
+      dist = q[0];
+    } else dist = this.sourceGain(own, d, sp, lp);
     out.distance = d;
     const dir = this.dir;
     if (d > 0) {
@@ -258,7 +274,14 @@ export class TargetMapper {
     out.radialSpeed = vss - vls;
     const factor = this.dopplerFactor;
     if (!g.doppler || factor === 0 || d === 0) return;
-    const ratio = dopplerFromSpeeds(vls, vss, this.c, factor, this.dopplerStats);
+    // In place (dopplerFromSpeedsAt), as the distance gain above.
+    const q = this.dopplerQuery;
+    q[0] = vls;
+    q[1] = vss;
+    q[2] = this.c;
+    q[3] = factor;
+    dopplerFromSpeedsAt(q, this.dopplerStats);
+    const ratio = q[0];
     out.doppler = ratio < this.minDoppler ? this.minDoppler : ratio > this.maxDoppler ? this.maxDoppler : ratio;
   }
 

@@ -46,6 +46,11 @@ export class VoiceGain {
   /** Whether the voice is virtual: too quiet to render (read head advanced, nothing mixed). */
   virtual = false;
   private readonly f = new Float64Array(SLOTS);
+  /**
+   * The block's ramp as [left0, leftStep, right0, rightStep] (a view of the state): the mix reads it here, since a
+   * getter V8 does not inline boxes the double it returns (docs/allocation.md).
+   */
+  readonly rampGains = this.f.subarray(LEFT0, RIGHT_STEP + 1);
 
   /** Smoothers with time constant `gainSeconds` (s) at `sampleRate` (Hz), starting at the floor. */
   constructor(sampleRate: Hz, gainSeconds: Seconds) {

@@ -7,15 +7,17 @@ import type { VoiceTone } from './voice-tone';
 
 /**
  * Adds `frames` of `x0`/`x1` (left/right; the same array for a mono sound) into mixL/mixR from `offset`, ramped by
- * `gain`'s left0/leftStep and right0/rightStep; through `wasm` when non-null (every array then a view of its memory).
+ * `gain.rampGains` (left0, leftStep, right0, rightStep); through `wasm` when non-null (every array then a view of its memory).
  * `tone`, when non-null, left its low-pass of x0/x1 staged in the module: the module filters and mixes in one pass.
  * Returns false when the input was not finite (the caller then clears its filter state).
  */
 export function mixBlock(x0: Float32Array, x1: Float32Array, mixL: Float32Array, mixR: Float32Array, offset: number, frames: number, gain: VoiceGain, wasm: WasmKernel | null, tone: VoiceTone | null = null): boolean {
-  const gl0 = gain.left0;
-  const dgl = gain.leftStep;
-  const gr0 = gain.right0;
-  const dgr = gain.rightStep;
+  // From the ramp's array, not the getters: a getter V8 does not inline boxes the double it returns.
+  const ramp = gain.rampGains;
+  const gl0 = ramp[0];
+  const dgl = ramp[1];
+  const gr0 = ramp[2];
+  const dgr = ramp[3];
   if (wasm !== null) {
     // The gains go into the module's parameter block; only small integers cross the call (no boxed doubles).
     const g = wasm.mixGains;

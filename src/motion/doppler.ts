@@ -58,22 +58,47 @@ export function dopplerFromSpeeds(
   factor: number,
   stats: DopplerStats,
 ): number {
+  const q = SPEEDS_SCRATCH;
+  q[0] = vls;
+  q[1] = vss;
+  q[2] = c;
+  q[3] = factor;
+  dopplerFromSpeedsAt(q, stats);
+  return q[0];
+}
+
+/** The doubles of `dopplerFromSpeeds` handed to dopplerFromSpeedsAt. */
+const SPEEDS_SCRATCH = new Float64Array(4);
+
+/**
+ * `dopplerFromSpeeds` in place: reads [vls, vss, c, factor] from `q` and writes the ratio into q[0], each branch
+ * storing its own value. For the render path: a double passed to or returned from a call V8 does not inline is boxed,
+ * and so is one merged with a module constant (docs/allocation.md).
+ */
+export function dopplerFromSpeedsAt(q: Float64Array, stats: DopplerStats): void {
+  const vls = q[0];
+  const vss = q[1];
+  const c = q[2];
+  const factor = q[3];
   const limit = c / factor;
   const ls = vls < limit ? vls : limit;
   const ss = vss < limit ? vss : limit;
   const num = c - factor * ls;
   const den = c - factor * ss;
   if (den <= 0) {
-    if (num <= 0) return 1;
-    stats.capped += 1;
-    return DOPPLER_RATIO_CAP;
+    if (num <= 0) q[0] = 1;
+    else {
+      stats.capped += 1;
+      q[0] = DOPPLER_RATIO_CAP;
+    }
+    return;
   }
   const ratio = num / den;
   if (ratio > DOPPLER_RATIO_CAP) {
     stats.capped += 1;
-    return DOPPLER_RATIO_CAP;
-  }
-  return ratio > 0 ? ratio : 0;
+    q[0] = DOPPLER_RATIO_CAP;
+  } else if (ratio > 0) q[0] = ratio;
+  else q[0] = 0;
 }
 
 /**

@@ -4,6 +4,7 @@ export { speedOfSound, SPEED_OF_SOUND_0C, ZERO_CELSIUS_KELVIN } from './speed-of
 export {
   dopplerRatio,
   dopplerFromSpeeds,
+  dopplerFromSpeedsAt,
   createDopplerStats,
   globalDopplerStats,
   DOPPLER_RATIO_CAP,
