@@ -47,7 +47,7 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 describe('Render path allocation', () => {
   // The two kernels run side by side, each in its own process.
   it.concurrent.each([['typescript', 'typescript'], ['auto', 'wasm-simd']])(
-    'renders 10,000 blocks of 64 voices and 8 moving sources with no collection, at most 64 B per block in the median span and 128 on average (%s kernel)',
+    'renders 10,000 blocks of 64 voices and 8 moving sources with no collection, at most 64 B per block in the median span and 512 on average (%s kernel)',
     async (kernel, resolved) => {
       const { stdout } = await run(process.execPath, ['--expose-gc', probe, kernel], { timeout: 280_000, maxBuffer: 1 << 20 });
       const r = JSON.parse(stdout.trim().split('\n').pop()!) as AllocationReport;
