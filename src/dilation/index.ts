@@ -4,8 +4,8 @@ export type { TimeFlowOptions } from './time-flow';
 export { Curve, fritschCarlsonTangents, MIN_KEY_SPACING } from './curve';
 export { CompiledGroup, policyFollowsSpeed, policyAppliesTone } from './group-policy';
 export { distanceGain, azimuthDegrees, equalPowerGains, equalPowerFromSine } from './spatial-gains';
+export { TargetMapper } from './target-mapper';
 export {
-  TargetMapper,
   createVoiceTargets,
   MAX_TARGET_RATIO,
   MIN_TARGET_RATIO,
@@ -14,8 +14,8 @@ export {
   MAX_RADIAL_SPEED,
   GAME_CLOCK_MIN_TIME_SCALE,
   MIN_CUTOFF_HZ,
-} from './target-mapper';
-export type { VoiceInput, TargetMapperOptions } from './target-mapper';
+} from './voice-input';
+export type { VoiceInput, TargetMapperOptions } from './voice-input';
 export type * from './snapshot-types';
 export { coneGain } from './cone-gain';
 export { PauseClock } from './pause-clock';

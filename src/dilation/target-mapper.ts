@@ -10,50 +10,7 @@ import { distanceGain, distanceGainAt, equalPowerFromSine } from './spatial-gain
 import { coneGain } from './cone-gain';
 import { centsToRatio } from '../dsp';
 import type { SourceSpatial } from './source-spatial';
-
-/** Largest target ratio (the resampler's maximum playback ratio). */
-export const MAX_TARGET_RATIO = 4;
-/** Smallest target ratio; a follow-time voice whose ratio would fall below it is reported `frozen`. */
-export const MIN_TARGET_RATIO = 1 / 1024;
-/** Largest voice gain accepted (linear); above is clamped and counted. */
-export const MAX_VOICE_GAIN = 16;
-/** Coordinates beyond ±1e12 m are treated like non-finite ones (voice heard non-positional). */
-export const MAX_COORDINATE = 1e12;
-/** Line-of-sight speeds beyond ±1e9 m/s are absurd: clamped to it and counted. */
-export const MAX_RADIAL_SPEED = 1e9;
-/** Lowest time scale used to turn wall-clock into game-clock velocity (wall ÷ max(s, this)). */
-export const GAME_CLOCK_MIN_TIME_SCALE = 0.05;
-/** Lowest cutoff target, Hz. */
-export const MIN_CUTOFF_HZ = 20;
-
-/** One voice's input to the mapper; velocities are wall-clock m/s. */
-export interface VoiceInput {
-  /** Global time scale, 0…4 (NaN or negative → 0, counted). */
-  timeScale: number;
-  /** Group name; unknown names use 'effects' (counted in `unknownGroups`). */
-  group: string;
-  /** Base ratio (0, 4] (invalid → 1, counted). */
-  baseRatio: number;
-  /** Voice gain, linear 0…16 (invalid → 0 or 16, counted). */
-  gain: number;
-  /** Listener with velocity. */
-  listener: ListenerState & { velocity: Vec3Like };
-  /** Positioned source with velocity, or null for a non-positional voice (centred, gains 1, no Doppler). */
-  source: (SourceState & { velocity: Vec3Like }) | null;
-  /** The source's own distance model and cone (overriding the tuning's), or null/absent for the tuning's. */
-  spatial?: SourceSpatial | null;
-}
-
-/** Options of TargetMapper. */
-export interface TargetMapperOptions {
-  /** A parsed tuning (parseTuning output or defaultTuning). */
-  tuning: Tuning;
-}
-
-/** Creates a VoiceTargets object with neutral values (allocate once per voice). */
-export function createVoiceTargets(): VoiceTargets {
-  return { ratio: 1, cutoffHz: OPEN_CUTOFF_HZ, gain: 1, left: 1, right: 1, doppler: 1, radialSpeed: 0, distance: 0, frozen: false, pitch: 1 };
-}
+import { MAX_TARGET_RATIO, MIN_TARGET_RATIO, MAX_VOICE_GAIN, MAX_COORDINATE, MAX_RADIAL_SPEED, GAME_CLOCK_MIN_TIME_SCALE, MIN_CUTOFF_HZ, type VoiceInput, type TargetMapperOptions } from './voice-input';
 
 function finiteCoord(v: number, limit: number): boolean {
   return v >= -limit && v <= limit;
