@@ -87,8 +87,15 @@ export function equalPowerGains(azimuth: number, out: Float64Array): Float64Arra
  * gainL = sqrt((1 − a)/2), gainR = sqrt((1 + a)/2). Writes out[0], out[1]; no trigonometry.
  */
 export function equalPowerFromSine(sinAzimuth: number, out: Float64Array): Float64Array {
-  const a = sinAzimuth > 1 ? 1 : sinAzimuth < -1 ? -1 : sinAzimuth === sinAzimuth ? sinAzimuth : 0;
+  out[0] = sinAzimuth;
+  equalPowerFromSineAt(out);
+  return out;
+}
+
+/** In place: equalPowerFromSine of out[0], written to out[0] (left) and out[1] (right); no double crosses the call. */
+export function equalPowerFromSineAt(out: Float64Array): void {
+  const s = out[0];
+  const a = s > 1 ? 1 : s < -1 ? -1 : s === s ? s : 0;
   out[0] = Math.sqrt((1 - a) * 0.5);
   out[1] = Math.sqrt((1 + a) * 0.5);
-  return out;
 }

@@ -6,15 +6,11 @@ import type { Vec3Like } from '../units';
 import { dopplerFromSpeedsAt, speedOfSound, createDopplerStats, type DopplerStats } from '../motion';
 import type { ListenerState, SourceState, VoiceTargets } from './snapshot-types';
 import { CompiledGroup } from './group-policy';
-import { distanceGain, distanceGainAt, equalPowerFromSine } from './spatial-gains';
+import { distanceGain, distanceGainAt, equalPowerFromSineAt } from './spatial-gains';
 import { coneGain } from './cone-gain';
 import { centsToRatio } from '../dsp';
 import type { SourceSpatial } from './source-spatial';
 import { MAX_TARGET_RATIO, MIN_TARGET_RATIO, MAX_VOICE_GAIN, MAX_COORDINATE, MAX_RADIAL_SPEED, GAME_CLOCK_MIN_TIME_SCALE, MIN_CUTOFF_HZ, type VoiceInput, type TargetMapperOptions } from './voice-input';
-
-function finiteCoord(v: number, limit: number): boolean {
-  return v >= -limit && v <= limit;
-}
 
 /** Maps voices to targets under one tuning; creates no objects per call (docs/allocation.md); counts every clamped input. */
 export class TargetMapper {
@@ -53,6 +49,8 @@ export class TargetMapper {
   private readonly distanceQuery = new Float64Array(4);
   /** dopplerFromSpeedsAt's [vls, vss, c, factor] in, ratio out. */
   private readonly dopplerQuery = new Float64Array(4);
+  /** The source's and the listener's line-of-sight speeds, clamped in place (clampSpeeds). */
+  private readonly speeds = new Float64Array(2);
   /** PannerNode's default orientation, for sources with a cone but no orientation. */
   private readonly defaultOrientation: Vec3Like = { x: 1, y: 0, z: 0 };
   private readonly dir: Vec3Like = { x: 0, y: 0, z: 0 };
@@ -172,7 +170,10 @@ export class TargetMapper {
     const sp = src.position;
     const lp = lis.position;
     const lim = this.maxCoordinate;
-    if (!finiteCoord(sp.x, lim) || !finiteCoord(sp.y, lim) || !finiteCoord(sp.z, lim) || !finiteCoord(lp.x, lim) || !finiteCoord(lp.y, lim) || !finiteCoord(lp.z, lim)) {
+    // Every coordinate finite and within ±lim (NaN fails each comparison). Written out, not a helper: a double passed
+    // to a call V8 did not inline is boxed (docs/allocation.md).
+    const inside = sp.x >= -lim && sp.x <= lim && sp.y >= -lim && sp.y <= lim && sp.z >= -lim && sp.z <= lim;
+    if (!inside || !(lp.x >= -lim && lp.x <= lim && lp.y >= -lim && lp.y <= lim && lp.z >= -lim && lp.z <= lim)) {
       this.clamps += 1;
       return;
     }
@@ -204,12 +205,14 @@ export class TargetMapper {
       const r = dx * this.right.x + dy * this.right.y + dz * this.right.z;
       const f = dx * this.fwd.x + dy * this.fwd.y + dz * this.fwd.z;
       const h = Math.sqrt(r * r + f * f);
-      equalPowerFromSine(h > 1e-12 * d ? r / h : 0, this.pan);
+      this.pan[0] = h > 1e-12 * d ? r / h : 0;
+      equalPowerFromSineAt(this.pan);
     } else {
       dir.x = 0;
       dir.y = 0;
       dir.z = 0;
-      equalPowerFromSine(0, this.pan);
+      this.pan[0] = 0;
+      equalPowerFromSineAt(this.pan);
     }
     out.left = dist * this.pan[0];
     out.right = dist * this.pan[1];
@@ -217,10 +220,12 @@ export class TargetMapper {
     // Line-of-sight speeds along source → listener (= −dir): vss > 0 approaching, vls > 0 receding.
     const sv = src.velocity;
     const lv = lis.velocity;
-    let vss = -(sv.x * dir.x + sv.y * dir.y + sv.z * dir.z);
-    let vls = -(lv.x * dir.x + lv.y * dir.y + lv.z * dir.z);
-    vss = this.clampSpeed(vss);
-    vls = this.clampSpeed(vls);
+    const speeds = this.speeds;
+    speeds[0] = -(sv.x * dir.x + sv.y * dir.y + sv.z * dir.z);
+    speeds[1] = -(lv.x * dir.x + lv.y * dir.y + lv.z * dir.z);
+    this.clampSpeeds();
+    let vss = speeds[0];
+    let vls = speeds[1];
     if (this.gameClock) {
       const s = this.scale;
       const floor = this.gameClockMinScale;
@@ -251,14 +256,16 @@ export class TargetMapper {
     return g * coneGain(sourcePosition, o, listenerPosition, sp.coneInnerAngle ?? 360, sp.coneOuterAngle ?? 360, sp.coneOuterGain ?? 0);
   }
 
-  /** Non-finite speeds → 0, beyond ±MAX_RADIAL_SPEED → clamped; both counted. */
-  private clampSpeed(v: number): number {
+  /** Clamps both line-of-sight speeds in `speeds` in place: non-finite → 0, beyond ±MAX_RADIAL_SPEED → clamped; counted. */
+  private clampSpeeds(): void {
     const lim = this.maxRadialSpeed;
-    if (v >= -lim && v <= lim) return v;
-    this.clamps += 1;
-    if (v > lim) return lim;
-    if (v < -lim) return -lim;
-    return 0;
+    const q = this.speeds;
+    for (let k = 0; k < 2; k++) {
+      const v = q[k];
+      if (v >= -lim && v <= lim) continue;
+      this.clamps += 1;
+      q[k] = v > lim ? lim : v < -lim ? -lim : 0;
+    }
   }
 
   /** Normalised forward and right (= forward × up) of the listener into scratch; defaults when degenerate (counted). */
