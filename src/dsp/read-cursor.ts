@@ -47,17 +47,35 @@ export class ReadCursor {
     for (let c = count; c < this.sources.length; c++) this.sources[c] = EMPTY;
   }
 
+  /** Ratios handed to `sanitizeAt` in place (the ramp's two ends, or `sanitize`'s one). */
+  readonly ratioIo = new Float64Array(2);
+
   /** `r` when it lies in MIN_RATIO…MAX_RATIO, else the nearest bound (or the last ratio when non-finite), counted in `clamps`. */
   sanitize(r: number): number {
+    const q = this.ratioIo;
+    q[0] = r;
+    this.sanitizeAt(q, 0);
+    return q[0];
+  }
+
+  /**
+   * `sanitize` of q[k] in place: the render path's form, since V8 boxes a double passed to or returned from a call it
+   * did not inline (docs/allocation.md).
+   */
+  sanitizeAt(q: Float64Array, k: number): void {
+    const r = q[k];
     if (r >= MIN_RATIO && r <= MAX_RATIO) {
       this.lastRatio = r;
-      return r;
+      return;
     }
     this.clamps++;
-    if (r !== r || r === Infinity || r === -Infinity) return this.lastRatio;
+    if (r !== r || r === Infinity || r === -Infinity) {
+      q[k] = this.lastRatio;
+      return;
+    }
     const c = r > MAX_RATIO ? MAX_RATIO : MIN_RATIO;
     this.lastRatio = c;
-    return c;
+    q[k] = c;
   }
 
   /** Moves the position on by `r` source frames, wrapping inside a loop. */

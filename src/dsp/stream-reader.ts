@@ -144,10 +144,21 @@ export class StreamReader {
   private rs = 0.5;
   private dr = 0.5;
 
+  /** rampStart and rampEnd sanitised (in that order) into the cursor's ratioIo[0] and [1]: no double crosses a call. */
+  private sanitizeRamp(): Float64Array {
+    const q = this.cur.ratioIo;
+    q[0] = this.rampStart;
+    q[1] = this.rampEnd;
+    this.cur.sanitizeAt(q, 0);
+    this.cur.sanitizeAt(q, 1);
+    return q;
+  }
+
   /** `read` with its ratios in `rampStart`/`rampEnd`. */
   readRamp(out: readonly Float32Array[], outOffset: number, frames: number): void {
-    const rs = this.cur.sanitize(this.rampStart);
-    const re = this.cur.sanitize(this.rampEnd);
+    const q = this.sanitizeRamp();
+    const rs = q[0];
+    const re = q[1];
     if (rs === 1 && re === 1 && this.cur.pos === Math.floor(this.cur.pos)) {
       this.cur.copyThrough(out, outOffset, frames);
       return;
@@ -199,8 +210,9 @@ export class StreamReader {
 
   /** `skip` with its ratios in `rampStart`/`rampEnd`. */
   skipRamp(frames: number): void {
-    const rs = this.cur.sanitize(this.rampStart);
-    const re = this.cur.sanitize(this.rampEnd);
+    const q = this.sanitizeRamp();
+    const rs = q[0];
+    const re = q[1];
     if (rs === 1 && re === 1 && this.cur.pos === Math.floor(this.cur.pos)) {
       for (let i = 0; i < frames; i++) this.cur.advance(1);
       return;
