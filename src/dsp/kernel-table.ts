@@ -155,7 +155,16 @@ export class KernelTable {
 
   /** Stride through `dense` at playback ratio `ratio`: phases when unstretched, else the largest grid stride ≤ phases / (ratio · stretchPerRatio). */
   strideFor(ratio: number): number {
-    const s = ratio * this.stretchPerRatio;
+    this.strideRatio = ratio;
+    return this.strideForQuery();
+  }
+
+  /** The ratio `strideForQuery` reads (a field: V8 boxes a double passed to a call it does not inline). */
+  strideRatio = 0.5;
+
+  /** `strideFor(strideRatio)`: the render path's form (an integer comes back, so nothing is boxed). */
+  strideForQuery(): number {
+    const s = this.strideRatio * this.stretchPerRatio;
     return s <= 1 ? this.phases : this.gridFloor[Math.floor(this.phases / s)];
   }
 

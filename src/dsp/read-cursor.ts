@@ -85,11 +85,18 @@ export class ReadCursor {
 
   /** Sets the position to `p` source frames, reached by advancing: inside a loop, past its end wraps back by whole loop lengths. */
   moveTo(p: number): void {
-    if (this.loop && p >= this.loopEnd) {
+    this.pos = p;
+    this.wrapPos();
+  }
+
+  /** `moveTo(pos)`: wraps a position already stored in `pos` (the render path's form: no double crosses the call). */
+  wrapPos(): void {
+    if (this.loop && this.pos >= this.loopEnd) {
+      let p = this.pos;
       while (p >= this.loopEnd) p -= this.loopLength;
       this.wrapped = true;
+      this.pos = p;
     }
-    this.pos = p;
   }
 
   /** Source index for frame m after loop wrapping, or −1 for silence. */

@@ -143,9 +143,9 @@ export class WasmReadPath {
         i32[(pb + RP_RATIOS) >> 2] = k.ratios;
         k.exports.ramp(pb);
       }
-      // t.strideFor(rmax) written out: a double passed to a call V8 does not inline is boxed (docs/allocation.md).
-      const stretch = rmax * t.stretchPerRatio;
-      const halfW = halfWindowFor(halfDense, stretch <= 1 ? t.phases : t.gridFloor[Math.floor(t.phases / stretch)]);
+      // strideFor's field form: a double passed to a call V8 does not inline is boxed (docs/allocation.md).
+      t.strideRatio = rmax;
+      const halfW = halfWindowFor(halfDense, t.strideForQuery());
       for (let i = run; i < runEnd; ) {
         const lower = Math.floor(cur.pos) - halfW;
         const upper = Math.floor(cur.pos + (runEnd - i) * rmax + 1) + halfW + 10;
@@ -188,13 +188,9 @@ export class WasmReadPath {
           if (at0 < 0) y0.set(k.outViews0[done], o + i);
           if (pair && at1 < 0) y1.set(k.outViews1[done], o + i);
         }
-        // cur.moveTo(end) written out, for the same reason: past a loop's end wraps back by whole loop lengths.
-        let end = k.f64[(pb + RP_POS) >> 3];
-        if (cur.loop && end >= cur.loopEnd) {
-          while (end >= cur.loopEnd) end -= cur.loopLength;
-          cur.wrapped = true;
-        }
-        cur.pos = end;
+        // moveTo's field form, for the same reason: past a loop's end wraps back by whole loop lengths.
+        cur.pos = k.f64[(pb + RP_POS) >> 3];
+        cur.wrapPos();
         cur.lastStretch = t.phases / k.i32[(pb + RP_STRIDE) >> 2];
         if (done <= 0) {
           // The module made no progress (it never should): output silence for the rest of the run rather than spin.
