@@ -4,19 +4,17 @@
 // (2) the TypeScript kernel against libsamplerate's "sinc fastest" (C compiled to WebAssembly) at ratios 0.5 and 1.7;
 // (3) 512 gliding stereo voices with propagation on (default tuning, moving sources) as a share of one core, beside
 // the same scene with propagation off and the share the ceiling alone would take. Spread = min/median/max over rounds.
-import { Engine } from '../src/engine';
-import { parseTuning, defaultTuning, serializeTuning } from '../src/tuning';
 import { KernelTable, StreamReader, WasmKernel } from '../src/dsp';
 import { metricMultisine } from '../test/dsp/resampler-metric';
 import { CeilingProbe } from './ceiling-probe';
 import { SINC_FASTEST, libsamplerate } from './resampler-reference';
+import { createScene512, VOICES_512 } from './scene512';
 
 const SR = 48000;
 const BLOCK = 128;
 const ROUNDS = 7;
 const SLICE_MS = 150;
 const RATIOS = [0.5, 1.7];
-const VOICES_512 = 512;
 
 /** min, median, max of `v`. */
 function spread(v: number[]): [number, number, number] {
@@ -125,43 +123,13 @@ async function tsAndReference(ratio: number): Promise<{ ts: () => number; fastes
   };
 }
 
-/** 512 stereo voices on 256 sources circling the listener (10…265 m, 60 Hz snapshots), time scale gliding 1 → 0.6; returns a function rendering `blocks` blocks and returning its processor and wall time, ms. */
+/** The 512-voice scene (`bench/scene512.ts`); returns a function rendering `blocks` blocks and returning its processor and wall time, ms. */
 function scene512(motion: 'propagation' | 'instant'): (blocks: number) => { cpu: number; wall: number } {
-  const json = JSON.parse(serializeTuning(defaultTuning));
-  if (motion !== 'propagation') for (const g of Object.values(json.groups) as Record<string, unknown>[]) g.motion = motion;
-  const engine = new Engine({ sampleRate: SR, capacity: VOICES_512, tuning: parseTuning(json) });
-  const sounds = [0, 1, 2, 3].map((k) => engine.addSound(tone(110 * (k + 1), 1.5 + k * 0.5), SR));
-  const sources = VOICES_512 / 2;
-  for (let i = 0; i < VOICES_512; i++) {
-    engine.play(sounds[i % 4], { loop: true, gain: 0.2, ratio: 0.8 + (i % 9) * 0.05, sourceId: i % sources, group: i % 2 ? 'effects' : 'vehicles', fadeInSeconds: 0 });
-  }
-  const listener = { position: { x: 0, y: 0, z: 0 }, forward: { x: 0, y: 0, z: -1 }, up: { x: 0, y: 1, z: 0 } };
-  const list = Array.from({ length: sources }, (_, id) => ({ id, position: { x: 0, y: 0, z: 0 } }));
-  const snap = { time: 0, listener, sources: list };
-  const l = new Float32Array(BLOCK);
-  const r = new Float32Array(BLOCK);
-  const every = Math.round(SR / BLOCK / 60);
-  let block = 0;
-  let ramp = 0;
+  const scene = createScene512(motion);
   return (blocks: number) => {
-    // Each timed run glides the time scale (1 → 0.6 or back) over its length, so every voice's ratio moves.
-    engine.setTimeScale({ target: ramp++ % 2 === 0 ? 0.6 : 1, rampSeconds: (blocks * BLOCK) / SR, easing: 'linear' });
     const t0 = cpuMs();
     const w0 = performance.now();
-    for (let b = 0; b < blocks; b++, block++) {
-      if (block % every === 0) {
-        const t = ((block + every) * BLOCK) / SR;
-        snap.time = t;
-        for (const s of list) {
-          const radius = 10 + s.id;
-          const a = (30 / radius) * t + s.id;
-          s.position.x = radius * Math.cos(a);
-          s.position.z = radius * Math.sin(a);
-        }
-        engine.pushSnapshot(snap);
-      }
-      engine.render([l, r], BLOCK);
-    }
+    scene.render(blocks);
     return { cpu: cpuMs() - t0, wall: performance.now() - w0 };
   };
 }
