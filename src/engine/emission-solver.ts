@@ -203,8 +203,7 @@ export class EmissionSolver {
       // df/dτ at x: −c·s(τ) + û·S'(τ).
       const d = this.dist;
       const us = d > 1e-12 ? ((this.lp.x - this.sp.x) * this.sv.x + (this.lp.y - this.sp.y) * this.sv.y + (this.lp.z - this.sp.z) * this.sv.z) / d : 0;
-      clock.query = b[2];
-      clock.lookUp();
+      // s(τ) at x: the residual just looked the clock up at x (b[2]) and nothing has moved it since.
       const fp = -this.c * clock.slopeFound + us;
       // (No NaN literal in a merge here: a global read V8 has no feedback for is a tagged value, and boxes the other.)
       const nx = b[2] - fx / fp;
@@ -252,7 +251,7 @@ export class EmissionSolver {
     this.fx = this.c * (this.gt - clock.gameFound) - d;
   }
 
-  /** Fills `out` at emission time τ = `root`: position, distance and the game-clock Doppler factor dG(τ)/dG(t). */
+  /** Fills `out` at emission time τ = `root`: position, distance and the game-clock Doppler factor dG(τ)/dG(t); leaves the clock's look-up at τ. */
   private finish(tracks: SourceTracks, clock: GameClock, slot: number, out: EmissionSolution): void {
     const tau = this.root;
     this.x = tau;
@@ -262,8 +261,7 @@ export class EmissionSolver {
     out.distance = this.dist;
     copy(out.position, this.sp);
     const d = this.dist;
-    clock.query = tau;
-    clock.lookUp();
+    // The residual at τ left the clock's look-up at τ (and `solveAll` reads its game time from there too).
     const sTau = clock.slopeFound;
     const st = this.st;
     // Straight-line branches, each storing its own value: a double merged from branches (and from a field) was boxed.

@@ -17,6 +17,8 @@ export class GameClock {
   private readonly s: Float64Array;
   private first = 0;
   private count = 0;
+  /** Position in the history (from `first`) of the entry the last search inside it found: where the next starts. */
+  private hint = 0;
   private maxSlopeSeen = 1;
   /** Engine time of the next `lookUp`, s: held in a field so that no double crosses the search call (the render path sets it, calls `lookUp` and reads `gameFound`/`slopeFound`). */
   query: Seconds = 0.5;
@@ -58,21 +60,51 @@ export class GameClock {
     this.slopeFound = this.s[i];
   }
 
-  /** History entry holding engine time `query` (an integer index: returned without boxing). */
+  /**
+   * History entry holding engine time `query` (an integer index: returned without boxing). Inside the history it is the
+   * one entry k with t[k] ≤ T < t[k + 1] (the times never decrease), so any bracket [lo, hi] with t[lo] ≤ T < t[hi]
+   * leads the bisection to it: the bracket starts around the entry found last, widened in doubling steps (successive
+   * look-ups — a solve's iterations, sources in turn — fall close together), which finds the same entry in fewer steps.
+   */
   private entry(): number {
     const T = this.query;
     const cap = this.cap;
+    const first = this.first;
+    const t = this.t;
     let lo = 0;
     let hi = this.count - 1;
-    const lastIdx = (this.first + hi) % cap;
-    if (T >= this.t[lastIdx]) return lastIdx;
-    if (T <= this.t[this.first]) return this.first;
+    const lastIdx = (first + hi) % cap;
+    if (T >= t[lastIdx]) return lastIdx;
+    if (T <= t[first]) return first;
+    const h = this.hint;
+    if (h < hi) {
+      if (t[(first + h) % cap] <= T) {
+        lo = h;
+        for (let step = 1; h + step < hi; step += step) {
+          if (t[(first + h + step) % cap] <= T) lo = h + step;
+          else {
+            hi = h + step;
+            break;
+          }
+        }
+      } else if (T < t[(first + h) % cap]) {
+        hi = h;
+        for (let step = 1; h - step > 0; step += step) {
+          if (T < t[(first + h - step) % cap]) hi = h - step;
+          else {
+            lo = h - step;
+            break;
+          }
+        }
+      }
+    }
     while (hi - lo > 1) {
       const mid = (lo + hi) >> 1;
-      if (this.t[(this.first + mid) % cap] <= T) lo = mid;
+      if (t[(first + mid) % cap] <= T) lo = mid;
       else hi = mid;
     }
-    return (this.first + lo) % cap;
+    this.hint = lo;
+    return (first + lo) % cap;
   }
 
   /** The body of `advance`: doubles arrive in fields, none is passed to a call (docs/allocation.md). */

@@ -186,10 +186,13 @@ export class PropagationStage implements RatioRampState {
       const same = this.solvedEpoch[slot] === epoch;
       this.solvedEpoch[slot] = epoch;
       let sLow = sNow;
+      // G(previous τ), kept for the mean Doppler factor below (the same look-up).
+      let gPrev = 0.5;
       if (same && prev.state !== EMISSION_NONE) {
         clock.query = prev.tau;
         clock.lookUp();
         sLow = Math.min(sNow, clock.slopeFound);
+        gPrev = clock.gameFound;
       }
       const subsonic = same && prev.state !== EMISSION_NONE && tracks.maxSpeed[slot] < 0.9 * c * sLow;
       // The previous τ is used only when `subsonic` (which implies a valid previous solution).
@@ -204,12 +207,9 @@ export class PropagationStage implements RatioRampState {
       }
       const gBlock = this.clock.game - gStart;
       if (prev.state !== EMISSION_NONE && cur.state !== EMISSION_NONE && gBlock > 1e-9) {
-        clock.query = cur.tau;
-        clock.lookUp();
-        const gCur = clock.gameFound;
-        clock.query = prev.tau;
-        clock.lookUp();
-        cur.meanDoppler = (gCur - clock.gameFound) / gBlock;
+        // A solution other than EMISSION_NONE ends in the solver's `finish`, which leaves the clock looked up at its τ;
+        // G(prev.tau) was looked up above (same, and prev unchanged since).
+        cur.meanDoppler = (clock.gameFound - gPrev) / gBlock;
       }
       else cur.meanDoppler = NaN;
       this.detectCone(slot, prev, cur);
