@@ -41,7 +41,9 @@ export class SourceTracks {
   private readonly given: Uint8Array;
   private readonly first: Int32Array;
   private readonly count: Int32Array;
+  /** Per slot, the segment `evaluate` found last, and the one it found before that. */
   private readonly hint: Int32Array;
+  private readonly hintBefore: Int32Array;
   /** Restart counter per slot (a teleport or reset starts a new epoch). */
   readonly epoch: Int32Array;
   /** Largest speed seen per slot since its last restart, m/s (engine clock). */
@@ -64,6 +66,7 @@ export class SourceTracks {
     this.first = new Int32Array(slots);
     this.count = new Int32Array(slots);
     this.hint = new Int32Array(slots);
+    this.hintBefore = new Int32Array(slots);
     this.epoch = new Int32Array(slots);
     this.maxSpeed = new Float64Array(slots);
     this.pendingTeleport = new Uint8Array(slots);
@@ -74,6 +77,7 @@ export class SourceTracks {
     this.count[slot] = 0;
     this.first[slot] = 0;
     this.hint[slot] = 0;
+    this.hintBefore[slot] = 0;
     this.maxSpeed[slot] = 0;
     this.epoch[slot]++;
   }
@@ -204,19 +208,26 @@ export class SourceTracks {
       outV.z = V[3 * l + 2] * moving;
       return TRACK_AFTER;
     }
-    // Segment k … k+1 holding T: the hint first, then a binary search.
+    // Segment k … k+1 holding T (one only: knot times rise): the hint first, then the one before it (a solve moves
+    // between the reception and the emission time, knots apart), then a binary search.
     let k = this.hint[slot];
     if (!(k >= 0 && k < n - 1 && this.time[this.index(slot, k)] <= T && T < this.time[this.index(slot, k + 1)])) {
-      if (k + 2 < n && this.time[this.index(slot, k + 1)] <= T && T < this.time[this.index(slot, k + 2)]) k++;
+      if (k >= 0 && k + 2 < n && this.time[this.index(slot, k + 1)] <= T && T < this.time[this.index(slot, k + 2)]) k++;
       else {
-        let lo = 0;
-        let hi = n - 1;
-        while (hi - lo > 1) {
-          const mid = (lo + hi) >> 1;
-          if (this.time[this.index(slot, mid)] <= T) lo = mid;
-          else hi = mid;
+        const other = this.hintBefore[slot];
+        this.hintBefore[slot] = k;
+        if (other >= 0 && other < n - 1 && this.time[this.index(slot, other)] <= T && T < this.time[this.index(slot, other + 1)]) k = other;
+        else if (other >= 0 && other + 2 < n && this.time[this.index(slot, other + 1)] <= T && T < this.time[this.index(slot, other + 2)]) k = other + 1;
+        else {
+          let lo = 0;
+          let hi = n - 1;
+          while (hi - lo > 1) {
+            const mid = (lo + hi) >> 1;
+            if (this.time[this.index(slot, mid)] <= T) lo = mid;
+            else hi = mid;
+          }
+          k = lo;
         }
-        k = lo;
       }
       this.hint[slot] = k;
     }
@@ -244,9 +255,10 @@ export class SourceTracks {
     return TRACK_INSIDE;
   }
 
-  /** Ring index of the j-th knot (0 = oldest) of `slot`. */
+  /** Ring index of the j-th knot (0 = oldest, j < knots) of `slot`: first + j < 2 · knots, so a subtraction wraps it. */
   private index(slot: number, j: number): number {
-    return slot * this.knots + ((this.first[slot] + j) % this.knots);
+    const r = this.first[slot] + j;
+    return slot * this.knots + (r < this.knots ? r : r - this.knots);
   }
 
   /** Derives the velocities not given: the newest knot from the last three (or two), the one before it centrally. */
