@@ -106,6 +106,8 @@ export class EmissionSolver {
   /** Point of the last residual evaluation (τ, engine s) and its residual f(τ), m. */
   private x: Seconds = 0.5;
   private fx = 0.5;
+  /** Where `residual` last evaluated, engine s (its scratch results are of this point; `x` may since have moved on). */
+  private evaluatedAt: Seconds = 0.5;
   /** Bracket of `bracket`: f(lo) ≥ 0 ≥ f(hi). */
   private lo: Seconds = 0.5;
   private flo = 0.5;
@@ -238,6 +240,7 @@ export class EmissionSolver {
   private residual(tracks: SourceTracks, clock: GameClock, slot: number): void {
     this.evals++;
     const tau = this.x;
+    this.evaluatedAt = tau;
     tracks.at = tau;
     this.region = tracks.evaluate(slot, this.sp, this.sv);
     const dx = this.lp.x - this.sp.x;
@@ -254,8 +257,12 @@ export class EmissionSolver {
   /** Fills `out` at emission time τ = `root`: position, distance and the game-clock Doppler factor dG(τ)/dG(t); leaves the clock's look-up at τ. */
   private finish(tracks: SourceTracks, clock: GameClock, slot: number, out: EmissionSolution): void {
     const tau = this.root;
-    this.x = tau;
-    this.residual(tracks, clock, slot);
+    // When the search ended on τ itself (a converged Newton step, a source at the listener) the last residual's results —
+    // position, velocity, distance, region and the clock's look-up — are τ's: no second evaluation.
+    if (this.evaluatedAt !== tau) {
+      this.x = tau;
+      this.residual(tracks, clock, slot);
+    }
     out.state = this.region === TRACK_BEFORE ? EMISSION_BEFORE : EMISSION_HISTORY;
     out.tau = tau;
     out.distance = this.dist;
