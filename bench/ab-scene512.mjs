@@ -15,7 +15,9 @@ const opt = (name, d) => {
   const i = args.indexOf(`--${name}`);
   return i >= 0 ? Number(args[i + 1]) : d;
 };
-const roots = args.filter((a, i) => !a.startsWith('--') && !(i > 0 && args[i - 1].startsWith('--') && args[i - 1] !== '--only' && args[i - 1] !== '--b-first')).map((r) => resolve(r));
+// Checkouts: the words that are neither a flag nor the value of one.
+const valued = new Set(['--pairs', '--blocks', '--hash-blocks', '--warm']);
+const roots = args.filter((a, i) => !a.startsWith('--') && !valued.has(args[i - 1])).map((r) => resolve(r));
 
 async function load(root, tag) {
   const { buildWasm } = await import(pathToFileURL(join(root, 'scripts', 'build-wasm.mjs')).href);
