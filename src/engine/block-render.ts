@@ -33,8 +33,8 @@ export function renderFrames(core: EngineCore, outputs: readonly Float32Array[],
 
 /**
  * Reads `core.timeRequest` and works out the ramp it asks for (as `Engine.setTimeScale` did: its start time on the
- * pause clock, made now), and applies it when `core.timePending`. Run on every render call, with the engine's resting
- * request, so that this code is optimised with type feedback before a request comes: a rarely called method runs
+ * pause clock, made now), and applies it when `core.timePending`. Run on every render call, with one of the engine's
+ * resting requests, so that this code is optimised with type feedback before a request comes: a rarely called method runs
  * unoptimised and boxes every double it reads, the request's own fields included (docs/allocation.md). No double
  * crosses a call: each goes over in the callee's fields.
  */
