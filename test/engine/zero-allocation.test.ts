@@ -32,6 +32,7 @@ import { build } from 'esbuild';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { AllocationReport } from './allocation-probe';
 import { SCENE_VOICES } from './allocation-scene';
+import { YOUNG } from './heap-span';
 
 const run = promisify(execFile);
 /** Spans of 200 whose JavaScript allocation must read 0 (60 runs: 190–195 alone and loaded, 142–194 with V8's compiler slowed). */
@@ -40,8 +41,6 @@ const MIN_ZERO_SPANS = 120;
 const YOUNG_MEAN_BYTES_PER_BLOCK = 128;
 /** V8's own heap growth (compiling late) the check allows on average, bytes per block (60 runs: ≤ 32). */
 const V8_MEAN_BYTES_PER_BLOCK = 512;
-/** The heap space JavaScript objects are allocated in (objects over ≈128 KB go to new_large_object_space, counted as V8's here: none on this path). */
-const YOUNG = 'new_space';
 const dir = mkdtempSync(join(tmpdir(), 'ralenti-alloc-'));
 const probe = join(dir, 'allocation-probe.mjs');
 
