@@ -54,6 +54,36 @@ export class PauseClock {
 
   /** Host time `t` (s) of a request → time-flow time: a request made while paused starts when the clock runs again. */
   requestTime(t: Seconds, now: Seconds): Seconds {
-    return this.paused && t >= now ? this.flowTime(now) + (t - now) : this.flowTime(t);
+    this.asked = t;
+    this.host = now;
+    this.mapRequest();
+    return this.requested;
+  }
+
+  /** The host time of a request `mapRequest` reads, s (made at host time `host`). */
+  asked = 0.5;
+  /** The time-flow time `mapRequest` wrote, s: requestTime(asked, host). */
+  requested = 0.5;
+
+  /**
+   * `requestTime` of the `asked` and `host` fields into `requested`, leaving flowTime(host) in `flow`: the render path
+   * runs it on every call, so every comparison is made on every pass (a branch first taken after optimisation would
+   * deoptimise it; docs/allocation.md).
+   */
+  mapRequest(): void {
+    const t = this.asked;
+    const now = this.host;
+    this.mapHost();
+    const flowNow = this.flow;
+    const paused = this.paused;
+    const pausedAt = this.pausedAt;
+    const offset = this.offset;
+    const held = pausedAt - offset;
+    const running = t - offset;
+    const later = flowNow + (t - now);
+    const late = t > pausedAt;
+    const ahead = t >= now;
+    const flowT = paused && late ? held : running;
+    this.requested = paused && ahead ? later : flowT;
   }
 }

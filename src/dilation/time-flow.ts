@@ -81,6 +81,23 @@ export class TimeFlow {
   private start: Seconds = 0.5;
   private duration: Seconds = 0.5;
   private easing: Easing = 'linear';
+  /** A request's start time (its startTime, or the time it was made when it has none), flow time s, for `propose`. */
+  requestStart: Seconds = 0.5;
+  /** Flow time the request was made at, s, for `propose`. */
+  requestNow: Seconds = 0.5;
+  /** A request's rampSeconds, for `propose`. */
+  requestRamp: Seconds = 0.5;
+  /** A request's target, for `propose`. */
+  requestTarget = 0.5;
+  /** A request's easing, for `propose`. */
+  requestEasing: Easing = 'linear';
+  // The ramp `propose` computed, which `commit` makes current.
+  private nextFrom = 0.5;
+  private nextTo = 0.5;
+  private nextStart: Seconds = 0.5;
+  private nextDuration: Seconds = 0.5;
+  private nextEasing: Easing = 'linear';
+  private nextClamps = 0;
 
   /** Creates a flow resting at `initial` (default 1, clamped to 0…4). */
   constructor(options: TimeFlowOptions = timeFlowDefaults) {
@@ -111,22 +128,56 @@ export class TimeFlow {
    * (clamped to 0…4; NaN or negative gives 0, counted), over request.rampSeconds (≥ 0) with request.easing.
    */
   set(request: TimeScaleRequest, now: Seconds): void {
-    let start = request.startTime ?? now;
-    if (!Number.isFinite(start)) {
-      this.clamps += 1;
-      start = Number.isFinite(now) ? now : this.start;
-    }
-    let ramp = request.rampSeconds;
-    if (!(ramp >= 0) || ramp === Infinity) {
-      this.clamps += 1;
-      ramp = 0;
-    }
-    const from = this.valueAt(start);
-    this.from = from;
-    this.clampTarget(request.target);
-    this.start = start;
-    this.duration = ramp;
-    this.easing = request.easing === 'smooth' || request.easing === 'exponential' ? request.easing : 'linear';
+    this.requestStart = request.startTime ?? now;
+    this.requestNow = now;
+    this.requestRamp = request.rampSeconds;
+    this.requestTarget = request.target;
+    this.requestEasing = request.easing;
+    this.propose();
+    this.commit(true);
+  }
+
+  /**
+   * `set` of the request fields (`requestStart`, already defaulted to `requestNow`; `requestRamp`, `requestTarget`,
+   * `requestEasing`) into the `next…` fields, leaving the ramp as it is: the render path runs it on every call, with
+   * `commit`, so that it is optimised with type feedback and takes and returns no double (docs/allocation.md). Every
+   * value is computed on every pass, the rare ones (a clamp) included: a branch first taken after optimisation would
+   * deoptimise it.
+   */
+  propose(): void {
+    const asked = this.requestStart;
+    const now = this.requestNow;
+    const startOk = Number.isFinite(asked);
+    const prev = this.start;
+    const fallback = Number.isFinite(now) ? now : prev;
+    const start = startOk ? asked : fallback;
+    const ramp = this.requestRamp;
+    const rampOk = ramp >= 0 && ramp < Infinity;
+    this.time = start;
+    this.lookUp();
+    this.nextFrom = this.value;
+    const value = this.requestTarget;
+    const max = this.maxScale;
+    let to: number;
+    if (!(value > 0)) to = 0;
+    else if (value < max) to = value;
+    else to = max;
+    this.nextTo = to;
+    this.nextStart = start;
+    this.nextDuration = rampOk ? ramp : 0;
+    const e = this.requestEasing;
+    this.nextEasing = e === 'smooth' || e === 'exponential' ? e : 'linear';
+    this.nextClamps = (startOk ? 0 : 1) + (rampOk ? 0 : 1) + (to !== value ? 1 : 0);
+  }
+
+  /** Makes the `next…` ramp of `propose` the current one when `apply` is true; stores every field either way (no branch). */
+  commit(apply: boolean): void {
+    this.from = apply ? this.nextFrom : this.from;
+    this.to = apply ? this.nextTo : this.to;
+    this.start = apply ? this.nextStart : this.start;
+    this.duration = apply ? this.nextDuration : this.duration;
+    this.easing = apply ? this.nextEasing : this.easing;
+    this.clamps += apply ? this.nextClamps : 0;
   }
 
   /** Sets the value at once (clamped to 0…4, counted when out of range) from time `now`. */
@@ -147,19 +198,17 @@ export class TimeFlow {
    */
   lookUp(): void {
     const time = this.time;
-    if (this.duration <= 0) {
-      if (time >= this.start) this.value = this.to;
-      else this.value = this.from;
-      return;
-    }
-    if (!(time > this.start)) {
-      this.value = this.from;
-      return;
-    }
+    const start = this.start;
+    const duration = this.duration;
+    // u = 0 before the ramp (and for NaN), 1 at or after its end; easeInto gives `from` at 0 and `to` at 1. Eased on
+    // every pass, resting or not: a function called only during ramps stays unoptimised for thousands of calls and
+    // boxes every double it reads (docs/allocation.md).
+    const step = time >= start ? 1 : 0;
+    const u = duration <= 0 ? step : time > start ? (time - start) / duration : 0;
     const io = this.io;
     io[0] = this.from;
     io[1] = this.to;
-    io[2] = (time - this.start) / this.duration;
+    io[2] = u;
     easeInto(io, this.easing);
     this.value = io[3];
   }

@@ -19,7 +19,16 @@ export const BIQUAD_Q_RANGE: readonly [number, number] = Object.freeze([0.1, 30]
 /** A cookbook low-pass applied in place to several channels with one set of coefficients; no allocation after construction. */
 export class BiquadLowpass {
   private readonly channels: number;
-  private readonly state: Float64Array; // x1, x2, y1, y2 per channel
+  /**
+   * x1, x2, y1, y2: of channels 0 and 1 variable by variable ([x1₀, x1₁, x2₀, x2₁, …], the order of the module's
+   * `lowpass` block, so that `pair` is copied as one run), of channel c ≥ 2 at 4c…4c + 3.
+   */
+  private readonly state: Float64Array;
+  /** The first 8 of `state`: channels 0 and 1, in the module's order. */
+  private readonly pair: Float64Array;
+  /** A view of the module's filter state slots, and the memory view it was made from (made again when memory grows). */
+  private residentView: Float64Array = new Float64Array(8);
+  private residentOf: Float64Array = new Float64Array(0);
   private readonly coef = new Float64Array(5);
   /** Cutoff (Hz), Q (linear) and sample rate (Hz) that `design` reads: the allocation-free form of `setLowpass`. */
   readonly design = new Float64Array(3);
@@ -27,7 +36,8 @@ export class BiquadLowpass {
   /** Allocates state for `options.channels` channels; starts as a pass-through-like open filter (cutoff 0.49·48 kHz, Q 1/√2). */
   constructor(options: BiquadLowpassOptions) {
     this.channels = Math.max(1, Math.min(32, Math.floor(options.channels)));
-    this.state = new Float64Array(4 * this.channels);
+    this.state = new Float64Array(Math.max(8, 4 * this.channels));
+    this.pair = this.state.subarray(0, 8);
     BiquadLowpass.coefficients(48000 * BIQUAD_MAX_CUTOFF_FRACTION, Math.SQRT1_2, 48000, this.coef);
   }
 
@@ -65,11 +75,13 @@ export class BiquadLowpass {
     const n = Math.min(this.channels, channels.length);
     for (let c = 0; c < n; c++) {
       const buf = channels[c];
-      const s = 4 * c;
+      // Channel c's x1, x2, y1, y2 at s, s + d, s + 2d, s + 3d (see `state`).
+      const s = c < 2 ? c : 4 * c;
+      const d = c < 2 ? 2 : 1;
       let x1 = this.state[s];
-      let x2 = this.state[s + 1];
-      let y1 = this.state[s + 2];
-      let y2 = this.state[s + 3];
+      let x2 = this.state[s + d];
+      let y1 = this.state[s + 2 * d];
+      let y2 = this.state[s + 3 * d];
       for (let i = offset; i < offset + frames; i++) {
         const x0 = buf[i];
         let y0 = b0 * x0 + b1 * x1 + b2 * x2 - a1 * y1 - a2 * y2;
@@ -81,9 +93,9 @@ export class BiquadLowpass {
         y1 = y0;
       }
       this.state[s] = x1;
-      this.state[s + 1] = x2;
-      this.state[s + 2] = y1;
-      this.state[s + 3] = y2;
+      this.state[s + d] = x2;
+      this.state[s + 2 * d] = y1;
+      this.state[s + 3 * d] = y2;
     }
   }
 
@@ -109,9 +121,13 @@ export class BiquadLowpass {
    * recurrence where `process` runs two one after the other, and one call for the sub-blocks.
    */
   processResident(kernel: WasmKernel, x0: number, x1: number, frames: number, subFrames: number): void {
-    this.enter(kernel, x0, x1, frames, subFrames);
+    // Called only where a block needs a crossfade, this runs unoptimised: the state moves by TypedArray.set, which
+    // makes no JavaScript double (an element read one by one there is boxed; docs/allocation.md).
+    this.params(kernel, x0, x1, frames, subFrames);
+    const slots = this.residentSlots(kernel);
+    slots.set(this.pair);
     kernel.exports.lowpass(kernel.lowpassParams);
-    this.leave(kernel);
+    this.pair.set(slots);
   }
 
   /**
@@ -130,25 +146,23 @@ export class BiquadLowpass {
     return finite;
   }
 
-  /** Writes the `lowpass` block's addresses, sizes and this filter's state (per channel here, per variable there). */
+  /** Writes the `lowpass` block's addresses, sizes and this filter's state (channels 0 and 1, in the module's order). */
   private enter(kernel: WasmKernel, x0: number, x1: number, frames: number, subFrames: number): void {
+    this.params(kernel, x0, x1, frames, subFrames);
+    const f = kernel.f64;
+    const st = this.state;
+    const s = (kernel.lowpassParams + LP_STATE) >> 3;
+    for (let i = 0; i < 8; i++) f[s + i] = st[i];
+  }
+
+  /** Writes the `lowpass` block's addresses and sizes (integers). */
+  private params(kernel: WasmKernel, x0: number, x1: number, frames: number, subFrames: number): void {
     const p = kernel.lowpassParams;
     const i32 = kernel.i32;
     i32[(p + LP_X0) >> 2] = x0;
     i32[(p + LP_X1) >> 2] = x1;
     i32[(p + LP_FRAMES) >> 2] = frames;
     i32[(p + LP_SUB) >> 2] = subFrames;
-    const f = kernel.f64;
-    const st = this.state;
-    const s = (p + LP_STATE) >> 3;
-    f[s] = st[0];
-    f[s + 1] = st[4];
-    f[s + 2] = st[1];
-    f[s + 3] = st[5];
-    f[s + 4] = st[2];
-    f[s + 5] = st[6];
-    f[s + 6] = st[3];
-    f[s + 7] = st[7];
   }
 
   /** Reads the state the module left back into this filter. */
@@ -156,14 +170,17 @@ export class BiquadLowpass {
     const f = kernel.f64;
     const st = this.state;
     const s = (kernel.lowpassParams + LP_STATE) >> 3;
-    st[0] = f[s];
-    st[4] = f[s + 1];
-    st[1] = f[s + 2];
-    st[5] = f[s + 3];
-    st[2] = f[s + 4];
-    st[6] = f[s + 5];
-    st[3] = f[s + 6];
-    st[7] = f[s + 7];
+    for (let i = 0; i < 8; i++) st[i] = f[s + i];
+  }
+
+  /** A view of the module's 8 filter state slots, made again when the module's memory (its `f64` view) changed. */
+  private residentSlots(kernel: WasmKernel): Float64Array {
+    const f = kernel.f64;
+    if (this.residentOf !== f) {
+      this.residentView = new Float64Array(f.buffer, kernel.lowpassParams + LP_STATE, 8);
+      this.residentOf = f;
+    }
+    return this.residentView;
   }
 
   /** Clears the filter memory (silence in, silence out). */

@@ -8,6 +8,12 @@ import type { EngineCore } from './engine-core';
 
 /** Renders `frames` stereo frames into outputs[0|1] and each routed group into groupOutputs[k][0|1], in blocks of at most maxBlock. */
 export function renderFrames(core: EngineCore, outputs: readonly Float32Array[], frames: number, groupOutputs: readonly (readonly Float32Array[])[] | undefined): void {
+  takeTimeScale(core);
+  // A call of Engine.setTimeScale's (the request applied above) renders nothing and leaves the stats as they are.
+  const applyOnly = core.timePending;
+  core.timePending = false;
+  if (applyOnly) return;
+  core.timeRequest = core.restingRequests[++core.renderCalls & 1];
   const st = core.stats;
   try {
     st.peakIn = 0;
@@ -23,6 +29,37 @@ export function renderFrames(core: EngineCore, outputs: readonly Float32Array[],
     if (groupOutputs !== undefined) for (const g of groupOutputs) for (const o of g) o.fill(0, 0, Math.min(frames, o.length));
   }
   collectStats(core);
+}
+
+/**
+ * Reads `core.timeRequest` and works out the ramp it asks for (as `Engine.setTimeScale` did: its start time on the
+ * pause clock, made now), and applies it when `core.timePending`. Run on every render call, with one of the engine's
+ * resting requests, so that this code is optimised with type feedback before a request comes: a rarely called method runs
+ * unoptimised and boxes every double it reads, the request's own fields included (docs/allocation.md). No double
+ * crosses a call: each goes over in the callee's fields.
+ */
+function takeTimeScale(core: EngineCore): void {
+  const request = core.timeRequest;
+  const pause = core.controls.clock;
+  const flow = core.flow;
+  const now = core.frameCount / core.sampleRate;
+  // The reads in the order setTimeScale made them: startTime, target, rampSeconds, easing. The start time is read only
+  // from a request that has one, and stored in its own branch: read from every shape, or as `startTime ?? now`, it
+  // would be merged with `undefined`, a value V8 keeps tagged, and the double boxed on every call.
+  pause.asked = now;
+  if ('startTime' in request) {
+    const asked = request.startTime;
+    if (asked !== undefined && asked !== null) pause.asked = asked;
+  }
+  flow.requestTarget = request.target;
+  flow.requestRamp = request.rampSeconds;
+  flow.requestEasing = request.easing;
+  pause.host = now;
+  pause.mapRequest();
+  flow.requestStart = pause.requested;
+  flow.requestNow = pause.flow;
+  flow.propose();
+  flow.commit(core.timePending);
 }
 
 function renderBlock(core: EngineCore, outputs: readonly Float32Array[], offset: number, n: number, groupOutputs: readonly (readonly Float32Array[])[] | undefined): void {

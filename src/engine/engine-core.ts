@@ -6,7 +6,7 @@ import type { EngineOptions, EngineStats } from './engine-types';
 import { AirAbsorption } from '../motion';
 import { defaultTuning, DEFAULT_GROUP, type Tuning } from '../tuning';
 import { KernelTable, WasmKernel, aliasStopFraction, dbToGain } from '../dsp';
-import { TargetMapper, TimeFlow, createVoiceTargets, type SourceState, type VoiceInput, type VoiceTargets } from '../dilation';
+import { TargetMapper, TimeFlow, createVoiceTargets, type SourceState, type TimeScaleRequest, type VoiceInput, type VoiceTargets } from '../dilation';
 import { seededRandom } from '../random';
 import { PropagationStage } from './propagation-stage';
 import { SoundBank } from './sound-bank';
@@ -106,6 +106,22 @@ export class EngineCore {
   routeCeiling = 1;
   /** The mapper's input, filled field by field (the render loop writes it in place: no doubles cross a call). */
   readonly input: VoiceInput;
+  /**
+   * The requests the render calls read in turn (and do not apply), in the two common shapes (without and with a start
+   * time), their numbers doubles, so that the render code is optimised with type feedback for both before a request
+   * comes (see `takeTimeScale` in block-render). Objects of the same shape share V8's layout: a field that held
+   * `undefined` here would make every later store of a double into a caller's request box it.
+   */
+  readonly restingRequests: readonly TimeScaleRequest[] = [
+    { target: 0.5, rampSeconds: 0.5, easing: 'linear' },
+    { target: 0.5, rampSeconds: 0.5, easing: 'linear', startTime: 0.5 },
+  ];
+  /** The time-scale request the next render call reads: one of `restingRequests`, or one `Engine.setTimeScale` hands over. */
+  timeRequest: TimeScaleRequest = this.restingRequests[0];
+  /** Render calls so far (which resting request the next one reads). */
+  renderCalls = 0;
+  /** True while `Engine.setTimeScale` has the render code apply `timeRequest` (and render nothing). */
+  timePending = false;
 
   /** Builds every voice, buffer and table up front; throws RangeError naming a bad option. */
   constructor(options: EngineOptions, owner: object) {

@@ -23,6 +23,9 @@ import type { VoiceEventRing } from './voice-events';
 
 export { engineDefaults } from './engine-core';
 
+/** The outputs of the render call that applies a time-scale request (it renders nothing). */
+const NO_OUTPUTS: readonly Float32Array[] = [];
+
 /** Renders voices of decoded sounds with time-scale and Doppler pitch, dilation tone, panning and a master limiter. */
 export class Engine {
   /** Counters and levels, updated by every render call (the same object throughout). */
@@ -120,12 +123,31 @@ export class Engine {
     }
   }
 
-  /** Starts a time-scale ramp (startTime defaults to now, engine time). */
+  /** Starts a time-scale ramp (startTime defaults to now, engine time); the request is read during the call. */
   setTimeScale(request: TimeScaleRequest): void {
     this.live('setTimeScale');
     const c = this.core;
+    if (typeof request !== 'object' || request === null) {
+      this.setTimeScaleFrom(request);
+      return;
+    }
+    // Applied at once by the render code, which is optimised (called for every block) where this method is not (called
+    // once per ramp, it would box every double it read, ≈350 bytes a call; docs/allocation.md). In time-flow time,
+    // which stops while the world is paused: a ramp asked for during a pause starts on resume.
+    c.timeRequest = request;
+    c.timePending = true;
+    try {
+      renderFrames(c, NO_OUTPUTS, 0, undefined);
+    } finally {
+      c.timeRequest = c.restingRequests[0];
+      c.timePending = false;
+    }
+  }
+
+  /** `setTimeScale` of a request that is not an object (from JavaScript): read here, as before (null throws TypeError). */
+  private setTimeScaleFrom(request: TimeScaleRequest): void {
+    const c = this.core;
     const now = c.time;
-    // In time-flow time, which stops while the world is paused: a ramp asked for during a pause starts on resume.
     const startTime = c.controls.clock.requestTime(request.startTime ?? now, now);
     c.flow.set({ target: request.target, rampSeconds: request.rampSeconds, easing: request.easing, startTime }, c.controls.flowTime(now));
   }
