@@ -8,7 +8,7 @@ import { KernelTable, StreamReader, WasmKernel } from '../src/dsp';
 import { metricMultisine } from '../test/dsp/resampler-metric';
 import { CeilingProbe } from './ceiling-probe';
 import { SINC_FASTEST, libsamplerate } from './resampler-reference';
-import { createScene512, VOICES_512 } from './scene512';
+import { createScene512, tone, VOICES_512 } from './scene512';
 
 const SR = 48000;
 const BLOCK = 128;
@@ -59,15 +59,6 @@ function warm(step: () => number): void {
     if (k >= 5 && Math.abs(r - last) <= 0.05 * Math.max(r, last)) return;
     last = r;
   }
-}
-
-function tone(hz: number, seconds: number): Float32Array[] {
-  const n = Math.round(seconds * SR);
-  return [0, 1].map((c) => {
-    const x = new Float32Array(n);
-    for (let i = 0; i < n; i++) x[i] = 0.02 * Math.sin((2 * Math.PI * hz * (1 + 0.01 * c) * i) / SR) + 0.005 * Math.sin((2 * Math.PI * 3.1 * hz * i) / SR);
-    return x;
-  });
 }
 
 /** Mean taps per output sample of the standard table at `ratio` (the stretched window above ratio 1). */

@@ -15,7 +15,8 @@ export interface Scene512 {
   readonly hash: number;
 }
 
-function tone(hz: number, seconds: number): Float32Array[] {
+/** A quiet two-partial stereo tone of `seconds` at SR (the channels 1 % apart), the benches' source. */
+export function tone(hz: number, seconds: number): Float32Array[] {
   const n = Math.round(seconds * SR);
   return [0, 1].map((c) => {
     const x = new Float32Array(n);
