@@ -211,13 +211,13 @@ export class SourceTracks {
     // Segment k … k+1 holding T (one only: knot times rise): the hint first, then the one before it (a solve moves
     // between the reception and the emission time, knots apart), then a binary search.
     let k = this.hint[slot];
-    if (!(k >= 0 && k < n - 1 && this.time[this.index(slot, k)] <= T && T < this.time[this.index(slot, k + 1)])) {
-      if (k >= 0 && k + 2 < n && this.time[this.index(slot, k + 1)] <= T && T < this.time[this.index(slot, k + 2)]) k++;
+    if (!this.holds(slot, k, n)) {
+      if (this.holds(slot, k + 1, n)) k++;
       else {
         const other = this.hintBefore[slot];
         this.hintBefore[slot] = k;
-        if (other >= 0 && other < n - 1 && this.time[this.index(slot, other)] <= T && T < this.time[this.index(slot, other + 1)]) k = other;
-        else if (other >= 0 && other + 2 < n && this.time[this.index(slot, other + 1)] <= T && T < this.time[this.index(slot, other + 2)]) k = other + 1;
+        if (this.holds(slot, other, n)) k = other;
+        else if (this.holds(slot, other + 1, n)) k = other + 1;
         else {
           let lo = 0;
           let hi = n - 1;
@@ -253,6 +253,12 @@ export class SourceTracks {
     outV.y = d00 * P[3 * a + 1] + d10 * V[3 * a + 1] + d01 * P[3 * b + 1] + d11 * V[3 * b + 1];
     outV.z = d00 * P[3 * a + 2] + d10 * V[3 * a + 2] + d01 * P[3 * b + 2] + d11 * V[3 * b + 2];
     return TRACK_INSIDE;
+  }
+
+  /** Whether segment k … k+1 of `slot`'s n knots holds the time in `at` (k ≥ 0, k + 1 < n, t_k ≤ at < t_{k+1}; integers in, a boolean out). */
+  private holds(slot: number, k: number, n: number): boolean {
+    const T = this.at;
+    return k >= 0 && k < n - 1 && this.time[this.index(slot, k)] <= T && T < this.time[this.index(slot, k + 1)];
   }
 
   /** Ring index of the j-th knot (0 = oldest, j < knots) of `slot`: first + j < 2 · knots, so a subtraction wraps it. */

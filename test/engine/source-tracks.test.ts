@@ -3,8 +3,8 @@ import { SourceTracks, TRACK_INSIDE } from '../../src/engine/source-tracks';
 
 // Reference: a circle of radius R at angular speed w, p(t) = (R cos wt, 0, R sin wt), v(t) = (−Rw sin wt, 0, Rw cos wt),
 // in closed form. A cubic Hermite segment between knots 1/60 s apart with exact velocities stays within
-// R·(w·h)⁴/384 ≈ 4e-6 m of it here, while the segment next to the right one misses by centimetres: a look-up that
-// lands on a wrong segment fails the 1e-4 m bound.
+// R·(w·h)⁴/384 ≈ 1.6e-7 m of it here (the Hermite error bound, docs/references.md §13d), while the segment next to the
+// right one misses by centimetres: a look-up that lands on a wrong segment fails the 1e-4 m bound.
 const R = 10;
 const W = 3;
 const H = 1 / 60;
